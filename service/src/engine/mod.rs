@@ -1,0 +1,16 @@
+//! The tightening engine: pure computation, no I/O, no async.
+//!
+//! Read it top to bottom: `thread` (geometry and designations), `grade`
+//! (strength of the fastener), `bearing` (what the head or nut sits on),
+//! `material` (clamped parts), `tightening` (VDI 2230 preload and torque),
+//! `method` (tightening methods and their scatter), `window` (torque
+//! window from friction and tool scatter), `angle` (joint resilience and
+//! torque-angle), `checks`, and `spec`, which puts them together.
+
+pub mod bearing;
+pub mod error;
+pub mod grade;
+pub mod material;
+pub mod thread;
+
+pub use error::EngineError;

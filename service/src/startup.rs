@@ -1,0 +1,1 @@
+//! Wiring: builds the application from configuration.
