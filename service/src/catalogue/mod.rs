@@ -1,1 +1,24 @@
-//! catalogue
+//! The friction catalogue as domain types, with no I/O: finishes,
+//! lubricants and friction entries (`types`), one revision held in memory
+//! (`snapshot`), the seed catalogue (`seed`), changes and the rule that turns
+//! a batch of them into one new revision (`change`), the live catalogue the
+//! service answers from (`live`), and typed errors (`error`).
+
+pub mod change;
+pub mod error;
+pub mod live;
+pub mod seed;
+pub mod snapshot;
+pub mod types;
+
+pub use change::{
+    apply, Action, Applied, Change, ChangeItem, ChangeSet, EntityKind, EntryInput, FinishInput,
+    HistoryRecord, LubricantInput,
+};
+pub use error::{CatalogueError, CurrentState, Problem};
+pub use live::Live;
+pub use snapshot::Snapshot;
+pub use types::{
+    item_etag, revision_from_etag, Finish, FrictionEntry, FrictionRange, Lubricant, RangeInput,
+    Status, FRICTION_MAX, FRICTION_MIN,
+};

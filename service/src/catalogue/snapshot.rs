@@ -1,0 +1,194 @@
+//! One catalogue revision held in memory: every finish, lubricant and
+//! friction entry (retired ones included, so past answers can be explained),
+//! with look-ups that return typed errors naming the request field.
+
+use std::sync::OnceLock;
+
+use serde::{Deserialize, Serialize};
+
+use super::error::{suggest, CatalogueError};
+use super::types::{Finish, FrictionEntry, Lubricant};
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Snapshot {
+    pub revision: i64,
+    pub finishes: Vec<Finish>,
+    pub lubricants: Vec<Lubricant>,
+    pub entries: Vec<FrictionEntry>,
+}
+
+impl Snapshot {
+    /// Revision 1, the seed catalogue (see `seed.rs`).
+    pub fn seed() -> Snapshot {
+        static SEED: OnceLock<Snapshot> = OnceLock::new();
+        SEED.get_or_init(|| {
+            // The embedded file is part of the build, not client or database
+            // data; `seed::tests` fails the build's tests if it is invalid.
+            #[allow(clippy::expect_used)]
+            super::seed::parse()
+                .map(|(s, _)| s)
+                .expect("embedded seed catalogue is valid (checked by seed::tests)")
+        })
+        .clone()
+    }
+
+    /// The finish with this id (active or retired). Unknown → 404-style
+    /// error with the nearest ids.
+    pub fn finish(&self, id: &str) -> Result<&Finish, CatalogueError> {
+        self.finishes
+            .iter()
+            .find(|f| f.id == id)
+            .ok_or_else(|| CatalogueError::Unknown {
+                field: "finish".into(),
+                kind: "finish",
+                given: id.into(),
+                suggestions: suggest(id, self.active_finish_ids()),
+            })
+    }
+
+    pub fn lubricant(&self, id: &str) -> Result<&Lubricant, CatalogueError> {
+        self.lubricants
+            .iter()
+            .find(|l| l.id == id)
+            .ok_or_else(|| CatalogueError::Unknown {
+                field: "lubricant".into(),
+                kind: "lubricant",
+                given: id.into(),
+                suggestions: suggest(id, self.active_lubricant_ids()),
+            })
+    }
+
+    /// The active friction entry for a finish and lubricant that applies to
+    /// any bearing surface (or, when the only active entries are for named
+    /// bearing surfaces, the one with the lowest id).
+    pub fn friction_for(
+        &self,
+        finish: &str,
+        lubricant: &str,
+    ) -> Result<&FrictionEntry, CatalogueError> {
+        self.friction_for_surface(finish, lubricant, None)
+    }
+
+    /// As [`Snapshot::friction_for`], for a named bearing-surface condition:
+    /// an entry for exactly that surface wins, else the "any surface" entry.
+    pub fn friction_for_surface(
+        &self,
+        finish: &str,
+        lubricant: &str,
+        bearing_surface: Option<&str>,
+    ) -> Result<&FrictionEntry, CatalogueError> {
+        self.finish(finish)?;
+        self.lubricant(lubricant)?;
+        let mut candidates: Vec<&FrictionEntry> = self
+            .entries
+            .iter()
+            .filter(|e| e.status.is_active() && e.finish == finish && e.lubricant == lubricant)
+            .collect();
+        candidates.sort_by_key(|e| e.id);
+        let exact = bearing_surface.and_then(|s| {
+            candidates
+                .iter()
+                .find(|e| e.bearing_surface.as_deref() == Some(s))
+        });
+        let any = candidates.iter().find(|e| e.bearing_surface.is_none());
+        if let Some(e) = exact.or(any) {
+            return Ok(e);
+        }
+        if bearing_surface.is_none() {
+            if let Some(e) = candidates.first() {
+                return Ok(e);
+            }
+        }
+        let mut with_entry: Vec<String> = self
+            .entries
+            .iter()
+            .filter(|e| e.status.is_active() && e.finish == finish)
+            .map(|e| e.lubricant.clone())
+            .collect();
+        with_entry.sort();
+        with_entry.dedup();
+        Err(CatalogueError::NoFrictionEntry {
+            field: "lubricant".into(),
+            finish: finish.into(),
+            lubricant: lubricant.into(),
+            suggestions: with_entry,
+        })
+    }
+
+    /// The friction entry with this id (active or retired).
+    pub fn entry(&self, id: i64) -> Result<&FrictionEntry, CatalogueError> {
+        self.entries
+            .iter()
+            .find(|e| e.id == id)
+            .ok_or_else(|| CatalogueError::NotFound {
+                field: "id".into(),
+                kind: "friction entry",
+                id: id.to_string(),
+            })
+    }
+
+    pub fn active_entries(&self) -> impl Iterator<Item = &FrictionEntry> {
+        self.entries.iter().filter(|e| e.status.is_active())
+    }
+
+    fn active_finish_ids(&self) -> impl Iterator<Item = &str> {
+        self.finishes
+            .iter()
+            .filter(|f| f.status.is_active())
+            .map(|f| f.id.as_str())
+    }
+
+    fn active_lubricant_ids(&self) -> impl Iterator<Item = &str> {
+        self.lubricants
+            .iter()
+            .filter(|l| l.status.is_active())
+            .map(|l| l.id.as_str())
+    }
+
+    /// Sorts items by id so two snapshots of the same revision compare equal
+    /// whatever order the store returned them in.
+    pub fn normalise(&mut self) {
+        self.finishes.sort_by(|a, b| a.id.cmp(&b.id));
+        self.lubricants.sort_by(|a, b| a.id.cmp(&b.id));
+        self.entries.sort_by_key(|e| e.id);
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn lookups_and_errors() {
+        let s = Snapshot::seed();
+        assert!(s.finish("zinc-electroplated").unwrap().electroplated);
+        assert!(s.lubricant("none").unwrap().dry);
+        match s.finish("zinc-electroplatd") {
+            Err(CatalogueError::Unknown {
+                field, suggestions, ..
+            }) => {
+                assert_eq!(field, "finish");
+                assert_eq!(suggestions[0], "zinc-electroplated");
+            }
+            other => panic!("{other:?}"),
+        }
+        match s.lubricant("moly") {
+            Err(e) => assert_eq!(e.field(), "lubricant"),
+            Ok(l) => panic!("{l:?}"),
+        }
+        let e = s.friction_for("zinc-electroplated", "none").unwrap();
+        assert_eq!(e.finish, "zinc-electroplated");
+        // dry stainless deliberately has no entry
+        match s.friction_for("stainless-bright", "none") {
+            Err(CatalogueError::NoFrictionEntry { suggestions, .. }) => {
+                assert!(suggestions.contains(&"light-oil".to_string()));
+            }
+            other => panic!("{other:?}"),
+        }
+        assert!(s.entry(1).is_ok());
+        assert!(matches!(
+            s.entry(9999),
+            Err(CatalogueError::NotFound { .. })
+        ));
+    }
+}
