@@ -8,6 +8,7 @@
 //! torque-angle), `checks`, and `spec`, which puts them together.
 
 pub mod bearing;
+pub mod calibration;
 pub mod error;
 pub mod grade;
 pub mod material;
