@@ -12,6 +12,8 @@ pub mod calibration;
 pub mod error;
 pub mod grade;
 pub mod material;
+pub mod quantity;
 pub mod thread;
+pub mod tightening;
 
 pub use error::EngineError;
