@@ -268,7 +268,11 @@ fn unknown(given: &str) -> EngineError {
         field: FIELD.into(),
         kind: "property class",
         given: given.chars().take(64).collect(),
-        suggestions: scored.iter().take(3).map(|(_, id)| id.to_string()).collect(),
+        suggestions: scored
+            .iter()
+            .take(3)
+            .map(|(_, id)| id.to_string())
+            .collect(),
     }
 }
 

@@ -61,7 +61,8 @@ const ISO898_SPLIT_NOTE: &str =
 // edition stopped at M20). ISO 3506-1 gives no proof stress for bolts: the
 // 0.2 % proof strength Rp0.2 stands in for it.
 const ISO3506: &str = "ISO 3506-1:2009, austenitic stainless steel bolts";
-const STAINLESS_NOTE: &str = "ISO 3506-1 specifies no proof stress for bolts; the proof stress shown is Rp0.2 min";
+const STAINLESS_NOTE: &str =
+    "ISO 3506-1 specifies no proof stress for bolts; the proof stress shown is Rp0.2 min";
 
 // SAE J429, as reproduced by china-bolts.com and the Shigley tables at
 // mst.edu (grades 2, 5, 8; psi).

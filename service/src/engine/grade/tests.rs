@@ -60,7 +60,11 @@ fn iso_898_1_proof_loads_8_8_10_9_12_9_m3_to_m39() {
             let fp = (s.proof_stress * g.stress_area).get::<newton>();
             // M6 8.8 is printed 11 600, 0.6 % under As×Sp = 11 672: the one
             // printed load outside ±0.5 %, allowed 0.7 %.
-            let tol = if (*t, *id) == ("M6", "8.8") { 0.007 } else { 0.005 };
+            let tol = if (*t, *id) == ("M6", "8.8") {
+                0.007
+            } else {
+                0.005
+            };
             assert!(
                 (fp / printed - 1.0).abs() <= tol,
                 "{t} {id}: As×Sp = {fp} N, printed {printed}"
@@ -93,7 +97,10 @@ fn iso_898_1_values_and_the_16_mm_switch() {
     );
     assert_eq!(s.yield_basis, YieldBasis::ProofStrength02);
     let s = strength("4.6", "M12");
-    assert_eq!((mpa(s.yield_strength_min), mpa(s.proof_stress)), (240.0, 225.0));
+    assert_eq!(
+        (mpa(s.yield_strength_min), mpa(s.proof_stress)),
+        (240.0, 225.0)
+    );
     assert_eq!(s.yield_basis, YieldBasis::LowerYield);
     let s = strength("5.8", "M12");
     assert_eq!(s.yield_basis, YieldBasis::FullSizeRpf);
@@ -133,8 +140,12 @@ fn grades_outside_their_size_range_are_refused() {
     assert!((s.proof_stress.get::<psi>() - 85_000.0).abs() < 1e-6);
     let s = strength("grade 5", "1-1/8-7 UNC");
     assert!((s.proof_stress.get::<psi>() - 74_000.0).abs() < 1e-6);
-    assert!(invalid_reason("sae-j429-5", "#10-24").0.contains("1/4 to 1 in"));
-    assert!(invalid_reason("sae-j429-8", "2-8 UN").0.contains("1-1/2 in"));
+    assert!(invalid_reason("sae-j429-5", "#10-24")
+        .0
+        .contains("1/4 to 1 in"));
+    assert!(invalid_reason("sae-j429-8", "2-8 UN")
+        .0
+        .contains("1-1/2 in"));
 }
 
 #[test]
@@ -185,7 +196,10 @@ fn astm_a574_proof_loads() {
         let g = thread(t);
         let s = strength("A574", t);
         let fp = (s.proof_stress * g.stress_area).get::<pound_force>();
-        assert!((fp / printed - 1.0).abs() <= 0.005, "{t}: {fp} lbf vs {printed}");
+        assert!(
+            (fp / printed - 1.0).abs() <= 0.005,
+            "{t}: {fp} lbf vs {printed}"
+        );
         assert!(g.stress_area.get::<square_inch>() > 0.0);
     }
     // The proof stress switches from 140 to 135 ksi above 1/2 in.
