@@ -12,8 +12,10 @@ pub mod calibration;
 pub mod error;
 pub mod grade;
 pub mod material;
+pub mod method;
 pub mod quantity;
 pub mod thread;
 pub mod tightening;
+pub mod window;
 
 pub use error::EngineError;
