@@ -25,6 +25,7 @@
 //! does (recalled from memory, ISO 16047:2005 §8).
 
 mod curve;
+pub mod proposal;
 mod specimen;
 pub mod statistics;
 #[cfg(test)]
