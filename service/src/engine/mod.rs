@@ -7,6 +7,7 @@
 //! window from friction and tool scatter), `angle` (joint resilience and
 //! torque-angle), `checks`, and `spec`, which puts them together.
 
+pub mod angle;
 pub mod bearing;
 pub mod calibration;
 pub mod error;
