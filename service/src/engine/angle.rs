@@ -98,8 +98,9 @@ pub struct JointInput {
     /// Clamp length l_K; without it the angle is not computed.
     pub clamp_length: Option<Length>,
     pub joint_type: JointType,
-    /// E_P of the clamped parts.
-    pub clamped_modulus: Pressure,
+    /// E_P of the clamped parts; `spec` fills it from the clamped material
+    /// when not given. Without it the angle is not computed.
+    pub clamped_modulus: Option<Pressure>,
     /// E_M of the nut or tapped part; default: steel for a nut, the clamped
     /// material for a tapped hole.
     pub nut_modulus: Option<Pressure>,
@@ -191,7 +192,10 @@ pub fn resilience(
         joint.bolt_modulus.unwrap_or_else(steel_bolt_modulus).value,
         "joint.bolt_modulus",
     )?;
-    let ep = field_positive(joint.clamped_modulus.value, "clamped_material")?;
+    let ep = joint
+        .clamped_modulus
+        .ok_or_else(|| EngineError::invalid("clamped_material", "no elastic modulus given"))?;
+    let ep = field_positive(ep.value, "clamped_material")?;
     let em = match (joint.nut_modulus, joint.joint_type) {
         (Some(e), _) => e.value,
         (None, JointType::ThroughBolted) => steel_bolt_modulus().value,
@@ -334,6 +338,13 @@ pub fn angle_window(
                 .into(),
         });
     };
+    if joint.clamped_modulus.is_none() {
+        return Ok(AngleOutcome::NotComputed {
+            reason: "no clamped material (or its elastic modulus) given: the clamped-part \
+                     resilience cannot be computed"
+                .into(),
+        });
+    }
     let thread = input.thread;
     let res = resilience(thread, bearing, joint, lk, da)?;
     let (snug, snug_source) = match joint.snug_torque {

@@ -10,11 +10,13 @@
 pub mod angle;
 pub mod bearing;
 pub mod calibration;
+pub mod checks;
 pub mod error;
 pub mod grade;
 pub mod material;
 pub mod method;
 pub mod quantity;
+pub mod spec;
 pub mod thread;
 pub mod tightening;
 pub mod window;

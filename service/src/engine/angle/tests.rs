@@ -9,7 +9,7 @@ fn joint(lk: Option<f64>, da: Option<f64>, kind: JointType) -> JointInput {
     JointInput {
         clamp_length: lk.map(mm),
         joint_type: kind,
-        clamped_modulus: mpa(205_000.0),
+        clamped_modulus: Some(mpa(205_000.0)),
         nut_modulus: None,
         bolt_modulus: None,
         outer_diameter: da.map(mm),
@@ -87,7 +87,7 @@ fn resilience_responds_the_right_way() {
     assert!(long.bolt > base.bolt && long.clamped_parts > base.clamped_parts);
     // Aluminium plates (E about 70 000 N/mm², recalled from memory) are softer.
     let mut al = joint(Some(30.0), Some(40.0), JointType::ThroughBolted);
-    al.clamped_modulus = mpa(70_000.0);
+    al.clamped_modulus = Some(mpa(70_000.0));
     let al = resilience(&t, &b, &al, mm(30.0), mm(40.0)).unwrap();
     assert!(al.clamped_parts > base.clamped_parts);
 }
@@ -116,7 +116,7 @@ fn bad_joint_input_names_the_field() {
     let e = resilience(&t, &b, &j, mm(30.0), mm(40.0)).unwrap_err();
     assert_eq!(e.field(), "joint.shank_sections[0].diameter");
     j.shank_sections.clear();
-    j.clamped_modulus = mpa(0.0);
+    j.clamped_modulus = Some(mpa(0.0));
     assert_eq!(
         resilience(&t, &b, &j, mm(30.0), mm(40.0))
             .unwrap_err()

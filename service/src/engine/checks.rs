@@ -1,0 +1,230 @@
+//! Checks on a computed window: each has a machine-readable code, a severity
+//! and a sentence a technician understands.
+//!
+//! Inputs that depend on catalogue facts (is the finish electroplated? is the
+//! joint assembled dry? which friction range was measured?) arrive as plain
+//! flags and values; the engine never depends on the catalogue.
+
+use std::f64::consts::PI;
+
+use uom::si::f64::{Length, Pressure};
+
+use super::bearing::BearingSurface;
+use super::grade::Strength;
+use super::method::TighteningMethod;
+use super::quantity::FrictionRange;
+use super::thread::ThreadGeometry;
+use super::window::{ClampLoadVerdict, TorqueWindow};
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Severity {
+    Info,
+    Warning,
+    Error,
+}
+
+/// One finding.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Check {
+    /// Stable code, e.g. `surface_pressure_exceeded`.
+    pub code: &'static str,
+    pub severity: Severity,
+    pub message: String,
+}
+
+/// A tapped hole whose thread engagement should be checked.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct TappedHole {
+    /// Length of thread engagement in the tapped part.
+    pub engagement_length: Length,
+    /// Recommended minimum engagement as a multiple of d for this internal
+    /// thread material and bolt grade (from `material`).
+    pub min_engagement_factor: f64,
+}
+
+/// Everything the checks look at.
+#[derive(Debug, Clone, Copy)]
+pub struct CheckInput<'a> {
+    pub thread: &'a ThreadGeometry,
+    pub strength: &'a Strength,
+    pub bearing: &'a BearingSurface,
+    pub window: &'a TorqueWindow,
+    pub method: TighteningMethod,
+    pub clamp_load: Option<&'a ClampLoadVerdict>,
+    /// p_G of the clamped material under head or nut, where tabulated.
+    pub permissible_surface_pressure: Option<Pressure>,
+    pub tapped_hole: Option<TappedHole>,
+    pub thread_friction: FrictionRange,
+    pub bearing_friction: FrictionRange,
+    /// Range the friction data was measured over, where known.
+    pub measured_thread_friction: Option<FrictionRange>,
+    pub measured_bearing_friction: Option<FrictionRange>,
+    pub electroplated: bool,
+    /// Assembled without lubricant.
+    pub dry: bool,
+    /// Austenitic stainless fastener (ISO 3506 A1–A5 or similar).
+    pub stainless: bool,
+}
+
+/// Strength from which electroplated fasteners are at risk of hydrogen
+/// embrittlement: Rm ≥ 1000 MPa (about 320 HV), ISO 4042 (threshold recalled
+/// from memory); covers 10.9, 12.9, SAE J429 Grade 8 and ASTM A574.
+const HYDROGEN_RM_MPA: f64 = 1000.0;
+
+/// Run every check; findings in a fixed order.
+pub fn run(input: &CheckInput) -> Vec<Check> {
+    let mut out = Vec::with_capacity(4);
+    surface_pressure(input, &mut out);
+    engagement(input, &mut out);
+    clamp_load(input, &mut out);
+    friction_range(input, &mut out);
+    hydrogen(input, &mut out);
+    galling(input, &mut out);
+    impact(input, &mut out);
+    out
+}
+
+/// Surface pressure p = F_M,max/A_p, A_p = π/4·(d_w² − d_h²) (VDI 2230 Part 1).
+pub fn surface_pressure_value(bearing: &BearingSurface, window: &TorqueWindow) -> Pressure {
+    let (dw, dh) = (bearing.outer_diameter.value, bearing.inner_diameter.value);
+    let ap = PI / 4.0 * (dw * dw - dh * dh);
+    Pressure::new::<uom::si::pressure::pascal>(window.preload_max.value / ap)
+}
+
+fn surface_pressure(i: &CheckInput, out: &mut Vec<Check>) {
+    let p = surface_pressure_value(i.bearing, i.window).value / 1e6;
+    match i.permissible_surface_pressure {
+        Some(pg) if p > pg.value / 1e6 => out.push(Check {
+            code: "surface_pressure_exceeded",
+            severity: Severity::Error,
+            message: format!(
+                "The head or nut presses {p:.0} MPa on the clamped part, more than the {:.0} MPa \
+                 it can take: it will sink in and the joint loses preload. Use a hardened \
+                 washer, a flange head or a lower preload.",
+                pg.value / 1e6
+            ),
+        }),
+        Some(_) => {}
+        None => out.push(Check {
+            code: "surface_pressure_not_checked",
+            severity: Severity::Info,
+            message: format!(
+                "Surface pressure under the head or nut is {p:.0} MPa; no permissible value is \
+                 known for the clamped material, so it was not checked."
+            ),
+        }),
+    }
+}
+
+fn engagement(i: &CheckInput, out: &mut Vec<Check>) {
+    let Some(t) = i.tapped_hole else { return };
+    let d = i.thread.nominal_diameter.value;
+    let needed = t.min_engagement_factor * d;
+    if t.engagement_length.value < needed {
+        out.push(Check {
+            code: "thread_engagement_too_short",
+            severity: Severity::Error,
+            message: format!(
+                "The thread engages {:.1} mm in the tapped part, but this material needs at \
+                 least {:.1} mm ({:.2}·d): the internal thread may strip before the bolt \
+                 reaches its load. Use a longer screw, a thread insert or a stronger part.",
+                t.engagement_length.value * 1e3,
+                needed * 1e3,
+                t.min_engagement_factor
+            ),
+        });
+    }
+}
+
+fn clamp_load(i: &CheckInput, out: &mut Vec<Check>) {
+    let Some(v) = i.clamp_load else { return };
+    if !v.met {
+        out.push(Check {
+            code: "clamp_load_not_reached",
+            severity: Severity::Error,
+            message: format!(
+                "At the low end of the window (lowest torque, highest friction) the preload is \
+                 only {:.1} kN, below the required clamp load of {:.1} kN. Narrow the friction \
+                 range, use a tool with less scatter, or a larger or stronger bolt.",
+                v.achieved_min.value / 1e3,
+                v.required.value / 1e3
+            ),
+        });
+    }
+}
+
+fn friction_range(i: &CheckInput, out: &mut Vec<Check>) {
+    let pairs = [
+        ("thread", i.thread_friction, i.measured_thread_friction),
+        ("bearing", i.bearing_friction, i.measured_bearing_friction),
+    ];
+    for (what, used, measured) in pairs {
+        let Some(m) = measured else { continue };
+        if !used.within(&m) {
+            out.push(Check {
+                code: "friction_outside_measured_range",
+                severity: Severity::Warning,
+                message: format!(
+                    "The {what} friction used ({:.3}–{:.3}) goes outside the range the data was \
+                     measured in ({:.3}–{:.3}); the torque outside that range is an \
+                     extrapolation. Confirm by a torque-tension test (ISO 16047).",
+                    used.min(),
+                    used.max(),
+                    m.min(),
+                    m.max()
+                ),
+            });
+        }
+    }
+}
+
+fn hydrogen(i: &CheckInput, out: &mut Vec<Check>) {
+    if i.electroplated && i.strength.tensile_strength_min.value / 1e6 >= HYDROGEN_RM_MPA {
+        out.push(Check {
+            code: "hydrogen_embrittlement_risk",
+            severity: Severity::Warning,
+            message: format!(
+                "Electroplated {} fasteners can crack from hydrogen embrittlement, sometimes \
+                 days after tightening (ISO 4042). Make sure the supplier baked them or used a \
+                 process without hydrogen, e.g. zinc flake.",
+                i.strength.id
+            ),
+        });
+    }
+}
+
+fn galling(i: &CheckInput, out: &mut Vec<Check>) {
+    if i.stainless && i.dry {
+        out.push(Check {
+            code: "galling_risk_dry_stainless",
+            severity: Severity::Warning,
+            message: "Dry stainless threads can gall (seize) while tightening: torque rises \
+                      without preload and the bolt may be ruined. Use a lubricant or paste \
+                      for stainless and tighten at low speed."
+                .into(),
+        });
+    }
+}
+
+fn impact(i: &CheckInput, out: &mut Vec<Check>) {
+    if i.method != TighteningMethod::ImpactWrench {
+        return;
+    }
+    let required = i.clamp_load.is_some();
+    out.push(Check {
+        code: "impact_tool_unsuitable",
+        severity: if required {
+            Severity::Error
+        } else {
+            Severity::Warning
+        },
+        message: "An impact wrench does not control torque or preload; its scatter is very wide. \
+                  Where the preload matters, finish with a torque wrench or a controlled \
+                  nutrunner."
+            .into(),
+    });
+}
+
+#[cfg(test)]
+mod tests;

@@ -1,0 +1,128 @@
+use uom::si::f64::Force;
+use uom::si::force::kilonewton;
+
+use super::*;
+use crate::engine::quantity::{Scatter, Utilisation};
+use crate::engine::tightening::fixtures::*;
+use crate::engine::window::{
+    clamp_load_verdict, maximum_window, no_prevailing_torque, WindowInput,
+};
+
+struct Case {
+    thread: ThreadGeometry,
+    strength: Strength,
+    bearing: BearingSurface,
+    window: TorqueWindow,
+    friction: FrictionRange,
+}
+
+fn case() -> Case {
+    let thread = metric(10.0, 1.5);
+    let bearing = bearing(14.63, 11.0);
+    let friction = FrictionRange::new(0.10, 0.16, "thread_friction").unwrap();
+    let window = maximum_window(&WindowInput {
+        thread: &thread,
+        yield_strength: mpa(940.0),
+        mean_bearing_diameter: bearing.mean_diameter(),
+        thread_friction: friction,
+        bearing_friction: friction,
+        scatter: Scatter::new(0.06, "scatter").unwrap(),
+        utilisation: Utilisation::DEFAULT,
+        prevailing_torque: no_prevailing_torque(),
+    })
+    .unwrap();
+    Case {
+        thread,
+        strength: strength("10.9", 1040.0, 940.0, 830.0),
+        bearing,
+        window,
+        friction,
+    }
+}
+
+fn input(c: &Case) -> CheckInput<'_> {
+    CheckInput {
+        thread: &c.thread,
+        strength: &c.strength,
+        bearing: &c.bearing,
+        window: &c.window,
+        method: TighteningMethod::ClickWrench,
+        clamp_load: None,
+        permissible_surface_pressure: Some(mpa(900.0)),
+        tapped_hole: None,
+        thread_friction: c.friction,
+        bearing_friction: c.friction,
+        measured_thread_friction: None,
+        measured_bearing_friction: None,
+        electroplated: false,
+        dry: false,
+        stainless: false,
+    }
+}
+
+fn codes(checks: &[Check]) -> Vec<&'static str> {
+    checks.iter().map(|c| c.code).collect()
+}
+
+#[test]
+fn clean_joint_has_no_findings() {
+    let c = case();
+    assert!(run(&input(&c)).is_empty());
+}
+
+/// Surface pressure p = F_M,max/A_p against p_G: S235 490 MPa (VDI 2230
+/// Part 1:2003 limiting surface pressure, as reproduced by a supplier page
+/// "based on VDI 2230, edition 2003", Mastik catalogue p. 678).
+#[test]
+fn surface_pressure_on_soft_steel_is_flagged() {
+    let c = case();
+    let p = surface_pressure_value(&c.bearing, &c.window).value / 1e6;
+    assert!(p > 490.0, "{p}");
+    let mut i = input(&c);
+    i.permissible_surface_pressure = Some(mpa(490.0));
+    let found = run(&i);
+    assert_eq!(codes(&found), ["surface_pressure_exceeded"]);
+    assert_eq!(found[0].severity, Severity::Error);
+    i.permissible_surface_pressure = None;
+    assert_eq!(codes(&run(&i)), ["surface_pressure_not_checked"]);
+}
+
+#[test]
+fn each_flagged_condition_has_its_code() {
+    let c = case();
+    let mut i = input(&c);
+    i.tapped_hole = Some(TappedHole {
+        engagement_length: mm(12.0),
+        min_engagement_factor: 2.0,
+    });
+    let verdict = clamp_load_verdict(&c.window, Force::new::<kilonewton>(60.0));
+    i.clamp_load = Some(&verdict);
+    i.measured_thread_friction = Some(FrictionRange::new(0.12, 0.16, "x").unwrap());
+    i.electroplated = true;
+    i.dry = true;
+    i.stainless = true;
+    i.method = TighteningMethod::ImpactWrench;
+    let found = run(&i);
+    assert_eq!(
+        codes(&found),
+        [
+            "thread_engagement_too_short",
+            "clamp_load_not_reached",
+            "friction_outside_measured_range",
+            "hydrogen_embrittlement_risk",
+            "galling_risk_dry_stainless",
+            "impact_tool_unsuitable",
+        ]
+    );
+    assert_eq!(found.last().unwrap().severity, Severity::Error);
+    assert!(found.iter().all(|f| f.message.ends_with('.')));
+}
+
+#[test]
+fn hydrogen_caution_only_from_1000_mpa() {
+    let mut c = case();
+    c.strength = class_8_8();
+    let mut i = input(&c);
+    i.electroplated = true;
+    assert!(run(&i).is_empty());
+}
