@@ -9,6 +9,7 @@ use std::f64::consts::PI;
 
 use uom::si::f64::{Length, Pressure};
 
+use super::angle::AngleWindow;
 use super::bearing::BearingSurface;
 use super::grade::Strength;
 use super::method::TighteningMethod;
@@ -65,6 +66,8 @@ pub struct CheckInput<'a> {
     pub dry: bool,
     /// Austenitic stainless fastener (ISO 3506 A1–A5 or similar).
     pub stainless: bool,
+    /// The torque-angle window, where computed.
+    pub angle: Option<&'a AngleWindow>,
 }
 
 /// Strength from which electroplated fasteners are at risk of hydrogen
@@ -82,6 +85,8 @@ pub fn run(input: &CheckInput) -> Vec<Check> {
     hydrogen(input, &mut out);
     galling(input, &mut out);
     impact(input, &mut out);
+    method_monitoring(input, &mut out);
+    angle_yield(input, &mut out);
     out
 }
 
@@ -224,6 +229,43 @@ fn impact(i: &CheckInput, out: &mut Vec<Check>) {
                   nutrunner."
             .into(),
     });
+}
+
+fn method_monitoring(i: &CheckInput, out: &mut Vec<Check>) {
+    let info = i.method.info();
+    if !info.torque_controlled {
+        out.push(Check {
+            code: "torque_window_is_monitoring",
+            severity: Severity::Info,
+            message: format!(
+                "With {} the torque window is a monitoring band, not the setting; the preload \
+                 is controlled by the {} and the plant's own process values.",
+                info.name,
+                if i.method == TighteningMethod::TorqueAngle {
+                    "angle"
+                } else {
+                    "yield point detection"
+                }
+            ),
+        });
+    }
+}
+
+fn angle_yield(i: &CheckInput, out: &mut Vec<Check>) {
+    let Some(a) = i.angle else { return };
+    if a.angle_max.value >= a.angle_at_yield.value {
+        out.push(Check {
+            code: "angle_may_yield_bolt",
+            severity: Severity::Warning,
+            message: format!(
+                "At the highest thread friction the bolt may start to yield from {:.0}° after \
+                 snug, inside the angle window (up to {:.0}°). Narrow the friction range or \
+                 keep the angle below the yield angle.",
+                a.angle_at_yield.get::<uom::si::angle::degree>(),
+                a.angle_max.get::<uom::si::angle::degree>()
+            ),
+        });
+    }
 }
 
 #[cfg(test)]

@@ -321,6 +321,10 @@ pub fn compute(input: &SpecInput) -> Result<Spec, EngineError> {
         electroplated: input.flags.electroplated,
         dry: input.flags.dry,
         stainless: is_stainless_grade(&input.strength.id),
+        angle: match &angle {
+            AngleOutcome::Computed(a) => Some(a),
+            AngleOutcome::NotComputed { .. } => None,
+        },
     });
 
     let area = thread.stress_area.value;

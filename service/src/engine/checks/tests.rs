@@ -57,6 +57,7 @@ fn input(c: &Case) -> CheckInput<'_> {
         electroplated: false,
         dry: false,
         stainless: false,
+        angle: None,
     }
 }
 
@@ -115,6 +116,8 @@ fn each_flagged_condition_has_its_code() {
         ]
     );
     assert_eq!(found.last().unwrap().severity, Severity::Error);
+    i.method = TighteningMethod::TorqueAngle;
+    assert_eq!(codes(&run(&i)).last(), Some(&"torque_window_is_monitoring"));
     assert!(found.iter().all(|f| f.message.ends_with('.')));
 }
 
