@@ -44,6 +44,28 @@ fn single_friction_zero_scatter_reproduces_vdi_values() {
     assert_eq!(w.governing, Governing::MinimumFriction);
 }
 
+/// High bearing friction with a wide thread-friction range: the maximum
+/// thread friction end overloads the bolt first, so it sets the upper torque.
+#[test]
+fn maximum_thread_friction_can_govern() {
+    let t = metric(10.0, 1.5);
+    let mut i = input(&t, (0.02, 0.6), (0.6, 0.6), 0.0);
+    i.mean_bearing_diameter = bearing(14.63, 11.0).mean_diameter();
+    let w = maximum_window(&i).unwrap();
+    assert_eq!(w.governing, Governing::MaximumThreadFriction);
+    let f = preload_at_torque(
+        &t,
+        w.upper,
+        i.mean_bearing_diameter,
+        0.6,
+        0.6,
+        no_prevailing_torque(),
+    );
+    let s = combined_stress(&t, f, 0.6).value;
+    assert!((s / (0.9 * 640e6) - 1.0).abs() < 1e-9);
+    assert!(w.preload_max.value < w.permissible_preload.value);
+}
+
 #[test]
 fn window_follows_the_definitions() {
     let t = metric(12.0, 1.75);
