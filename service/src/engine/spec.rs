@@ -9,7 +9,7 @@ use uom::si::f64::{Force, Length, Pressure, Torque};
 use uom::si::force::newton;
 use uom::si::torque::newton_meter;
 
-use super::angle::{angle_window, AngleOutcome, JointInput};
+use super::angle::{angle_window, steel_bolt_modulus, AngleOutcome, JointInput, JointType};
 use super::bearing::BearingSurface;
 use super::checks::{self, Check, CheckInput, TappedHole};
 use super::grade::Strength;
@@ -284,8 +284,16 @@ pub fn compute(input: &SpecInput) -> Result<Spec, EngineError> {
         .map(|req| clamp_load_verdict(&window, req));
 
     let joint = input.joint.clone().map(|mut j| {
+        // Defaults made visible in the output (inputs after defaults).
         if j.clamped_modulus.is_none() {
             j.clamped_modulus = input.clamped_material.as_ref().map(|m| m.elastic_modulus);
+        }
+        j.bolt_modulus = j.bolt_modulus.or(Some(steel_bolt_modulus()));
+        if j.nut_modulus.is_none() {
+            j.nut_modulus = match j.joint_type {
+                JointType::ThroughBolted => Some(steel_bolt_modulus()),
+                JointType::TappedHole => j.clamped_modulus,
+            };
         }
         j
     });

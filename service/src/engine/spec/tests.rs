@@ -82,6 +82,10 @@ fn full_m10_spec_carries_its_assumptions() {
     };
     assert!(a.angle_min.get::<degree>() > 0.0);
     assert!(spec.checks.is_empty(), "{:?}", spec.checks);
+    let j = spec.joint.as_ref().unwrap();
+    assert_eq!(j.clamped_modulus, Some(mpa(205_000.0)));
+    assert_eq!(j.bolt_modulus, Some(mpa(205_000.0)));
+    assert_eq!(j.nut_modulus, Some(mpa(205_000.0)));
     assert_eq!(spec.cautions.len(), CAUTIONS.len());
     assert!(spec.cautions[0].contains("ISO 16047"));
 }
