@@ -673,3 +673,20 @@ fn check_whole(next: &Snapshot, touched: &[(String, i64)], problems: &mut Vec<Pr
 #[cfg(test)]
 #[path = "change_tests.rs"]
 mod tests;
+
+impl From<&FrictionEntry> for EntryInput {
+    /// The entry as input, e.g. to resubmit it changed.
+    fn from(e: &FrictionEntry) -> Self {
+        EntryInput {
+            finish: e.finish.clone(),
+            lubricant: e.lubricant.clone(),
+            bearing_surface: e.bearing_surface.clone(),
+            thread_friction: e.thread_friction.into(),
+            bearing_friction: e.bearing_friction.into(),
+            total_friction: e.total_friction.map(Into::into),
+            source: e.source.clone(),
+            notes: e.notes.clone(),
+            status: Some(e.status),
+        }
+    }
+}

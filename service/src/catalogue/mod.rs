@@ -5,6 +5,7 @@
 //! service answers from (`live`), and typed errors (`error`).
 
 pub mod change;
+pub mod diff;
 pub mod error;
 pub mod live;
 pub mod seed;
@@ -15,6 +16,7 @@ pub use change::{
     apply, Action, Applied, Change, ChangeItem, ChangeSet, EntityKind, EntryInput, FinishInput,
     HistoryRecord, LubricantInput,
 };
+pub use diff::{diff, DiffItem, DiffKind};
 pub use error::{CatalogueError, CurrentState, Problem};
 pub use live::Live;
 pub use snapshot::Snapshot;

@@ -1,0 +1,177 @@
+//! API tokens: roles, secrets and their hashes. A secret is 256 random
+//! bits from the operating system's generator, shown once; only its
+//! SHA-256 is stored, and a presented secret is compared in constant time.
+
+use chrono::{DateTime, Utc};
+use rand::RngCore;
+use serde::{Deserialize, Serialize};
+use sha2::{Digest, Sha256};
+use subtle::ConstantTimeEq;
+
+/// What a token may do. Each role includes the ones below it.
+#[derive(
+    Debug,
+    Clone,
+    Copy,
+    PartialEq,
+    Eq,
+    PartialOrd,
+    Ord,
+    Hash,
+    Serialize,
+    Deserialize,
+    utoipa::ToSchema,
+)]
+#[serde(rename_all = "lowercase")]
+pub enum Role {
+    /// Read the catalogue and specifications.
+    Reader,
+    /// Change the catalogue.
+    Editor,
+    /// Manage tokens.
+    Admin,
+}
+
+impl Role {
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Role::Reader => "reader",
+            Role::Editor => "editor",
+            Role::Admin => "admin",
+        }
+    }
+
+    pub fn parse(s: &str) -> Option<Role> {
+        match s.trim().to_ascii_lowercase().as_str() {
+            "reader" => Some(Role::Reader),
+            "editor" => Some(Role::Editor),
+            "admin" => Some(Role::Admin),
+            _ => None,
+        }
+    }
+
+    /// True when this role may act where `needed` is required.
+    pub fn allows(self, needed: Role) -> bool {
+        self >= needed
+    }
+}
+
+/// A stored token, without its secret.
+#[derive(Debug, Clone, PartialEq, Serialize, utoipa::ToSchema)]
+pub struct TokenInfo {
+    pub id: i64,
+    pub name: String,
+    pub role: Role,
+    #[schema(value_type = String, format = DateTime)]
+    pub created_at: DateTime<Utc>,
+    #[schema(value_type = Option<String>, format = DateTime)]
+    pub expires_at: Option<DateTime<Utc>>,
+    #[schema(value_type = Option<String>, format = DateTime)]
+    pub revoked_at: Option<DateTime<Utc>>,
+}
+
+impl TokenInfo {
+    /// Why this token may not be used at `now`, if it may not.
+    pub fn refusal(&self, now: DateTime<Utc>) -> Option<&'static str> {
+        if self.revoked_at.is_some() {
+            Some("the token has been revoked")
+        } else if self.expires_at.is_some_and(|t| t <= now) {
+            Some("the token has expired")
+        } else {
+            None
+        }
+    }
+}
+
+/// Prefix that makes a secret recognisable in logs and secret scanners.
+pub const SECRET_PREFIX: &str = "tsk_";
+
+/// A new secret: the prefix and 32 random bytes (256 bits) as hex.
+pub fn new_secret() -> String {
+    let mut bytes = [0u8; 32];
+    rand::rngs::OsRng.fill_bytes(&mut bytes);
+    format!("{SECRET_PREFIX}{}", hex::encode(bytes))
+}
+
+/// SHA-256 of the secret, hex encoded: what the database stores.
+pub fn hash_secret(secret: &str) -> String {
+    hex::encode(Sha256::digest(secret.as_bytes()))
+}
+
+/// Constant-time comparison of a stored hash with the hash of a presented
+/// secret (subtle crate), so timing reveals nothing about either.
+pub fn hashes_match(stored: &str, presented_hash: &str) -> bool {
+    stored.as_bytes().ct_eq(presented_hash.as_bytes()).into()
+}
+
+/// Token names become history authors: keep them readable and stable.
+pub fn valid_name(name: &str) -> Result<(), String> {
+    let ok = !name.is_empty()
+        && name.len() <= 64
+        && name
+            .chars()
+            .all(|c| c.is_ascii_alphanumeric() || matches!(c, '-' | '_' | '.' | '@'));
+    if ok {
+        Ok(())
+    } else {
+        Err("a token name is 1–64 characters of letters, digits, '-', '_', '.', '@'".into())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn secrets_are_256_bit_and_distinct() {
+        let a = new_secret();
+        let b = new_secret();
+        assert_ne!(a, b);
+        let hex_part = a.strip_prefix(SECRET_PREFIX).unwrap();
+        assert_eq!(hex_part.len(), 64);
+        assert_eq!(hex::decode(hex_part).unwrap().len(), 32);
+    }
+
+    #[test]
+    fn hash_is_sha256_hex() {
+        // FIPS 180-2 test vector: SHA-256("abc").
+        assert_eq!(
+            hash_secret("abc"),
+            "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad"
+        );
+        assert!(hashes_match(&hash_secret("x"), &hash_secret("x")));
+        assert!(!hashes_match(&hash_secret("x"), &hash_secret("y")));
+        assert!(!hashes_match("ab", "abc"));
+    }
+
+    #[test]
+    fn roles_are_ordered() {
+        assert!(Role::Admin.allows(Role::Editor));
+        assert!(Role::Editor.allows(Role::Reader));
+        assert!(!Role::Reader.allows(Role::Editor));
+        assert!(!Role::Editor.allows(Role::Admin));
+        assert_eq!(Role::parse("Editor"), Some(Role::Editor));
+        assert_eq!(Role::parse("root"), None);
+    }
+
+    #[test]
+    fn expiry_and_revocation() {
+        let now = Utc::now();
+        let mut t = TokenInfo {
+            id: 1,
+            name: "n".into(),
+            role: Role::Editor,
+            created_at: now,
+            expires_at: None,
+            revoked_at: None,
+        };
+        assert!(t.refusal(now).is_none());
+        t.expires_at = Some(now);
+        assert!(t.refusal(now).is_some());
+        t.expires_at = None;
+        t.revoked_at = Some(now);
+        assert_eq!(t.refusal(now), Some("the token has been revoked"));
+        assert!(valid_name("hollowmere-line-3").is_ok());
+        assert!(valid_name("bad name").is_err());
+    }
+}
