@@ -1,1 +1,2 @@
 //! cli
+pub mod friction;

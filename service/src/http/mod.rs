@@ -1,1 +1,2 @@
 //! http
+pub mod friction_tests;
