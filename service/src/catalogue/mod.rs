@@ -7,6 +7,7 @@
 pub mod change;
 pub mod diff;
 pub mod error;
+pub mod exchange;
 pub mod live;
 pub mod seed;
 pub mod snapshot;
