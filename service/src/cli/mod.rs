@@ -1,2 +1,4 @@
 //! cli
+pub mod catalogue;
 pub mod friction;
+pub mod token;
