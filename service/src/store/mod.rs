@@ -4,6 +4,7 @@
 //! live in `catalogue::apply`; the store only persists what it returns.
 
 pub mod error;
+pub mod friction_tests;
 mod pg;
 mod sql;
 mod sqlite;
