@@ -6,6 +6,7 @@
 //! out), `parse` (wire → engine input), `respond` (engine → wire).
 
 pub mod parse;
+pub mod proposal;
 pub mod respond;
 pub mod units;
 pub mod wire;

@@ -1,0 +1,418 @@
+//! From a stored series to a proposed change of the matching catalogue
+//! friction entry: the new ranges (observed, or mean ± 3σ), the diff against
+//! the entry, and how the specs of a few representative joints would move
+//! (M8, M10 and M12, class 8.8, hexagon head, no washer, medium hole,
+//! click wrench), computed by the engine with the current and the proposed
+//! friction.
+
+use serde::{Deserialize, Serialize};
+use utoipa::ToSchema;
+
+use super::units::{self, Quantity, UnitSystem};
+use crate::catalogue::{EntryInput, FrictionEntry, RangeInput, Snapshot};
+use crate::engine::bearing::{bearing_surface, HeadType, HoleSeries, Washer};
+use crate::engine::calibration::proposal::{propose, Basis, ProposedRange};
+use crate::engine::calibration::SeriesStatistics;
+use crate::engine::method::TighteningMethod;
+use crate::engine::quantity::FrictionRange;
+use crate::engine::spec::{self, SpecFlags, SpecInput, WindowMode};
+use crate::engine::{grade, thread, EngineError};
+
+/// Representative joints whose specs the proposal is shown on.
+pub const REPRESENTATIVE_THREADS: [&str; 3] = ["M8", "M10", "M12"];
+const REPRESENTATIVE_CLASS: &str = "8.8";
+const REPRESENTATIVE_METHOD: TighteningMethod = TighteningMethod::ClickWrench;
+
+/// A friction range on the wire.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, ToSchema)]
+pub struct RangeResponse {
+    pub min: f64,
+    pub max: f64,
+}
+
+/// One coefficient of the entry: now and as proposed.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
+pub struct RangeChange {
+    /// `thread_friction`, `bearing_friction` or `total_friction`.
+    pub coefficient: String,
+    pub current: Option<RangeResponse>,
+    pub proposed: Option<RangeResponse>,
+    pub changed: bool,
+    /// Why the proposed value is what it is (taken from the series, kept
+    /// because the series does not give it, or clamped to plausible values).
+    pub note: String,
+}
+
+/// Spec figures of one joint.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
+pub struct SpecFigures {
+    pub torque_lower: Quantity,
+    pub torque_target: Quantity,
+    pub torque_upper: Quantity,
+    pub preload_min: Quantity,
+    pub preload_max: Quantity,
+}
+
+/// How one representative spec moves.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
+pub struct SpecEffect {
+    pub thread: String,
+    pub property_class: String,
+    pub head: String,
+    pub hole: String,
+    pub tightening_method: String,
+    pub current: SpecFigures,
+    pub proposed: SpecFigures,
+    /// Relative change of the target torque, e.g. -0.08 for −8 %.
+    pub torque_target_change: f64,
+    pub preload_min_change: f64,
+    pub preload_max_change: f64,
+}
+
+/// The proposed catalogue change.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
+pub struct ProposalResponse {
+    pub series_id: i64,
+    /// `observed` or `three_sigma`.
+    pub basis: String,
+    pub catalogue_revision: i64,
+    pub entry_id: i64,
+    /// Send this as `If-Match` when applying.
+    pub entry_etag: String,
+    pub finish: String,
+    pub lubricant: String,
+    pub changes: Vec<RangeChange>,
+    /// The `source` the entry would carry after the change.
+    pub proposed_source: String,
+    pub effect: Vec<SpecEffect>,
+    pub cautions: Vec<String>,
+}
+
+/// A proposal and the entry input that applying it submits.
+pub struct Proposed {
+    pub response: ProposalResponse,
+    pub entry: EntryInput,
+}
+
+fn wire(r: Option<(f64, f64)>) -> Option<RangeResponse> {
+    r.map(|(min, max)| RangeResponse { min, max })
+}
+
+fn change(
+    name: &str,
+    current: Option<(f64, f64)>,
+    proposed: Option<ProposedRange>,
+    series_id: i64,
+) -> (RangeChange, Option<(f64, f64)>) {
+    let (after, note) = match proposed {
+        Some(p) if p.clamped => (
+            Some((p.min, p.max)),
+            format!(
+                "from series {series_id}, clamped to the plausible 0.02–0.6 and rounded outward \
+                 to 0.001"
+            ),
+        ),
+        Some(p) => (
+            Some((p.min, p.max)),
+            format!("from series {series_id}, rounded outward to 0.001"),
+        ),
+        None => (
+            current,
+            "kept: the series' record form does not give this coefficient".to_owned(),
+        ),
+    };
+    let changed = after != current;
+    (
+        RangeChange {
+            coefficient: name.into(),
+            current: wire(current),
+            proposed: wire(after),
+            changed,
+            note,
+        },
+        after,
+    )
+}
+
+/// Builds the proposal for `series_id` against the current snapshot.
+#[allow(clippy::too_many_arguments)]
+pub fn build(
+    snap: &Snapshot,
+    series_id: i64,
+    finish: &str,
+    lubricant: &str,
+    stats: &SeriesStatistics,
+    count: usize,
+    basis: Basis,
+    u: UnitSystem,
+) -> Result<Result<Proposed, EngineError>, crate::catalogue::CatalogueError> {
+    let entry = snap.friction_for(finish, lubricant)?.clone();
+    Ok(build_for(snap, &entry, series_id, stats, count, basis, u))
+}
+
+fn build_for(
+    snap: &Snapshot,
+    entry: &FrictionEntry,
+    series_id: i64,
+    stats: &SeriesStatistics,
+    count: usize,
+    basis: Basis,
+    u: UnitSystem,
+) -> Result<Proposed, EngineError> {
+    let p = propose(stats, basis)?;
+    let pair = |r: &crate::catalogue::FrictionRange| (r.min, r.max);
+    let (thread_c, thread_after) = change(
+        "thread_friction",
+        Some(pair(&entry.thread_friction)),
+        p.thread_friction,
+        series_id,
+    );
+    let (bearing_c, bearing_after) = change(
+        "bearing_friction",
+        Some(pair(&entry.bearing_friction)),
+        p.bearing_friction,
+        series_id,
+    );
+    let (total_c, total_after) = change(
+        "total_friction",
+        entry.total_friction.as_ref().map(pair),
+        p.total_friction,
+        series_id,
+    );
+    let source = format!(
+        "friction test series {series_id} ({count} specimens, {} basis; ISO 16047 evaluation)",
+        match basis {
+            Basis::Observed => "observed range",
+            Basis::ThreeSigma => "mean ± 3σ",
+        }
+    );
+    let mut input = EntryInput::from(entry);
+    let range = |(min, max): (f64, f64)| RangeInput { min, max };
+    if let Some(r) = thread_after {
+        input.thread_friction = range(r);
+    }
+    if let Some(r) = bearing_after {
+        input.bearing_friction = range(r);
+    }
+    input.total_friction = total_after.map(range);
+    input.source = source.clone();
+
+    let flags = flags(snap, entry);
+    let current = (pair(&entry.thread_friction), pair(&entry.bearing_friction));
+    let proposed = (
+        thread_after.unwrap_or(current.0),
+        bearing_after.unwrap_or(current.1),
+    );
+    let effect = REPRESENTATIVE_THREADS
+        .iter()
+        .map(|t| effect(t, current, proposed, &flags, u))
+        .collect::<Result<Vec<_>, _>>()?;
+    Ok(Proposed {
+        response: ProposalResponse {
+            series_id,
+            basis: basis.as_str().into(),
+            catalogue_revision: snap.revision,
+            entry_id: entry.id,
+            entry_etag: entry.etag(),
+            finish: entry.finish.clone(),
+            lubricant: entry.lubricant.clone(),
+            changes: vec![thread_c, bearing_c, total_c],
+            proposed_source: source,
+            effect,
+            cautions: spec::CAUTIONS.iter().map(|c| (*c).to_owned()).collect(),
+        },
+        entry: input,
+    })
+}
+
+fn flags(snap: &Snapshot, entry: &FrictionEntry) -> SpecFlags {
+    SpecFlags {
+        electroplated: snap
+            .finish(&entry.finish)
+            .map(|f| f.electroplated)
+            .unwrap_or(false),
+        dry: snap
+            .lubricant(&entry.lubricant)
+            .map(|l| l.dry)
+            .unwrap_or(false),
+        ..SpecFlags::default()
+    }
+}
+
+type Pair = (f64, f64);
+
+fn figures(
+    designation: &str,
+    (th, b): (Pair, Pair),
+    flags: &SpecFlags,
+    u: UnitSystem,
+) -> Result<SpecFigures, EngineError> {
+    let thread = thread::parse_designation(designation)?;
+    let strength = grade::strength_for(REPRESENTATIVE_CLASS, &thread)?;
+    let bearing = bearing_surface(
+        &thread,
+        HeadType::HexagonHead,
+        Washer::None,
+        HoleSeries::Medium,
+    )?;
+    let input = SpecInput {
+        thread,
+        strength,
+        bearing,
+        thread_friction: FrictionRange::new(th.0, th.1, "thread_friction")?,
+        bearing_friction: FrictionRange::new(b.0, b.1, "bearing_friction")?,
+        friction_source: "friction test proposal".into(),
+        method: REPRESENTATIVE_METHOD,
+        scatter: None,
+        utilisation: None,
+        prevailing_torque: None,
+        clamped_material: None,
+        joint: None,
+        tapped_hole: None,
+        required_clamp_load: None,
+        window_mode: WindowMode::MaximumPreload,
+        flags: flags.clone(),
+    };
+    let w = spec::compute(&input)?.window;
+    Ok(SpecFigures {
+        torque_lower: units::torque(w.lower, u),
+        torque_target: units::torque(w.target, u),
+        torque_upper: units::torque(w.upper, u),
+        preload_min: units::force(w.preload_min, u),
+        preload_max: units::force(w.preload_max, u),
+    })
+}
+
+fn effect(
+    designation: &str,
+    current: (Pair, Pair),
+    proposed: (Pair, Pair),
+    flags: &SpecFlags,
+    u: UnitSystem,
+) -> Result<SpecEffect, EngineError> {
+    let before = figures(designation, current, flags, u)?;
+    let after = figures(designation, proposed, flags, u)?;
+    let rel = |a: &Quantity, b: &Quantity| {
+        if a.value == 0.0 {
+            0.0
+        } else {
+            b.value / a.value - 1.0
+        }
+    };
+    Ok(SpecEffect {
+        thread: designation.into(),
+        property_class: REPRESENTATIVE_CLASS.into(),
+        head: HeadType::HexagonHead.id().into(),
+        hole: HoleSeries::Medium.id().into(),
+        tightening_method: REPRESENTATIVE_METHOD.id().into(),
+        torque_target_change: rel(&before.torque_target, &after.torque_target),
+        preload_min_change: rel(&before.preload_min, &after.preload_min),
+        preload_max_change: rel(&before.preload_max, &after.preload_max),
+        current: before,
+        proposed: after,
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::engine::calibration::{
+        evaluate_series, JointGeometry, Measurement, SeriesInput, SpecimenRecord,
+    };
+    use uom::si::f64::Force;
+    use uom::si::force::kilonewton;
+
+    /// A full-form M10 series with thread friction 0.11–0.13 and bearing
+    /// friction 0.12–0.14, generated by the ISO 16047 relation.
+    fn series_stats() -> (SeriesStatistics, usize) {
+        let thread = thread::parse_designation("M10").unwrap();
+        let bearing = bearing_surface(
+            &thread,
+            HeadType::HexagonHead,
+            Washer::None,
+            HoleSeries::Medium,
+        )
+        .unwrap();
+        let joint = JointGeometry::new(&thread, Some(&bearing), false).unwrap();
+        let specimens = (0..10)
+            .map(|i| {
+                let s = f64::from(i) / 9.0;
+                let f = Force::new::<kilonewton>(25.0);
+                let (t_th, t) = joint.torques_for(f, 0.11 + 0.02 * s, 0.14 - 0.02 * s);
+                SpecimenRecord::Point(Measurement {
+                    clamp_force: f,
+                    total_torque: t,
+                    thread_torque: Some(t_th),
+                })
+            })
+            .collect::<Vec<_>>();
+        let n = specimens.len();
+        let input = SeriesInput {
+            joint,
+            evaluation_clamp_force: None,
+            proof_load: None,
+            specimens,
+        };
+        (evaluate_series(&input).unwrap().statistics, n)
+    }
+
+    #[test]
+    fn narrower_measured_friction_moves_the_specs() {
+        let snap = Snapshot::seed();
+        let (stats, n) = series_stats();
+        let p = build(
+            &snap,
+            7,
+            "zinc-flake",
+            "none",
+            &stats,
+            n,
+            Basis::Observed,
+            UnitSystem::Si,
+        )
+        .unwrap()
+        .unwrap();
+        let r = &p.response;
+        assert_eq!(
+            r.entry_etag,
+            snap.friction_for("zinc-flake", "none").unwrap().etag()
+        );
+        let thread = &r.changes[0];
+        assert_eq!(thread.coefficient, "thread_friction");
+        assert!(thread.changed);
+        assert_eq!(
+            thread.proposed,
+            Some(RangeResponse {
+                min: 0.11,
+                max: 0.13
+            })
+        );
+        assert_eq!(p.entry.thread_friction.min, 0.11);
+        assert!(p.entry.source.contains("friction test series 7"));
+        assert_eq!(r.effect.len(), 3);
+        for e in &r.effect {
+            // Lower minimum friction lowers the torque that reaches the
+            // permissible preload; lower maximum friction raises the
+            // minimum preload.
+            assert!(e.torque_target_change < 0.0, "{e:?}");
+            assert!(e.preload_min_change > 0.0, "{e:?}");
+        }
+    }
+
+    #[test]
+    fn no_matching_entry_is_a_catalogue_error() {
+        let (stats, n) = series_stats();
+        let snap = Snapshot::seed();
+        let err = build(
+            &snap,
+            1,
+            "stainless-bright",
+            "none",
+            &stats,
+            n,
+            Basis::Observed,
+            UnitSystem::Si,
+        );
+        assert!(err.is_err());
+    }
+}
