@@ -271,7 +271,7 @@ fn figures(
         tapped_hole: None,
         required_clamp_load: None,
         window_mode: WindowMode::MaximumPreload,
-        flags: flags.clone(),
+        flags: *flags,
     };
     let w = spec::compute(&input)?.window;
     Ok(SpecFigures {
