@@ -381,7 +381,8 @@ pub fn angle_window(
     let full_yield = Utilisation::new(1.0, "utilisation")?;
     let yield_force = permissible_preload(thread, input.yield_strength, full_yield, th.max());
     let angle_at_yield = (yield_force.value - snug_hi.value) * per_newton;
-    if !(angle_max > angle_min && angle_min > 0.0) {
+    // Equal ends are a valid (single-angle) window: single friction values, no scatter.
+    if !(angle_max >= angle_min * (1.0 - 1e-12) && angle_min > 0.0) {
         return Ok(AngleOutcome::NotComputed {
             reason: format!(
                 "the snug preload scatters from {:.1} to {:.1} kN with the friction range, which \

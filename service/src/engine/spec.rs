@@ -368,4 +368,6 @@ pub fn compute(input: &SpecInput) -> Result<Spec, EngineError> {
 }
 
 #[cfg(test)]
+mod end_to_end;
+#[cfg(test)]
 mod tests;
