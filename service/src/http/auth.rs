@@ -1,0 +1,209 @@
+//! Bearer-token authentication and roles. Handlers ask for what they need
+//! by taking one of the extractors [`Reader`], [`Editor`] or [`Admin`];
+//! the [`Authenticator`] (registered as app data) checks the token against
+//! the store: 401 for a missing, unknown, revoked or expired token, 403 for
+//! a role that may not do it. Reads may be allowed anonymously by
+//! configuration (`--anonymous-reads`).
+
+use std::collections::HashMap;
+use std::future::Future;
+use std::pin::Pin;
+use std::sync::Mutex;
+
+use actix_web::{dev::Payload, http::header, web, FromRequest, HttpRequest};
+use chrono::Utc;
+
+use super::error::ApiError;
+use crate::store::{tokens, Role, Store, StoreError, TokenInfo};
+
+/// Who is making a request.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Caller {
+    /// Token name (recorded as the author of changes), or `anonymous`.
+    pub name: String,
+    pub role: Role,
+    /// `None` for an anonymous reader.
+    pub token_id: Option<i64>,
+}
+
+impl Caller {
+    fn anonymous() -> Self {
+        Self {
+            name: "anonymous".into(),
+            role: Role::Reader,
+            token_id: None,
+        }
+    }
+}
+
+/// How many validated tokens are remembered for use while the database is
+/// unreachable (reads only; writes fail with 503 then anyway).
+const CACHE_LIMIT: usize = 1024;
+
+/// Checks bearer tokens. Register one as `web::Data<Authenticator>`.
+#[derive(Debug)]
+pub struct Authenticator {
+    store: Store,
+    anonymous_reads: bool,
+    /// hash → token, as last read from the database.
+    seen: Mutex<HashMap<String, TokenInfo>>,
+}
+
+impl Authenticator {
+    pub fn new(store: Store, anonymous_reads: bool) -> Self {
+        Self {
+            store,
+            anonymous_reads,
+            seen: Mutex::new(HashMap::new()),
+        }
+    }
+
+    pub fn anonymous_reads(&self) -> bool {
+        self.anonymous_reads
+    }
+
+    /// The caller for a request needing `needed`, from its `Authorization`
+    /// header value (if any).
+    pub async fn check(&self, authorization: Option<&str>, needed: Role) -> Result<Caller, ApiError> {
+        let Some(value) = authorization else {
+            if needed == Role::Reader && self.anonymous_reads {
+                return Ok(Caller::anonymous());
+            }
+            return Err(ApiError::Unauthorized {
+                detail: format!(
+                    "a bearer token is required (Authorization: Bearer <token>) with role {} or above",
+                    needed.as_str()
+                ),
+            });
+        };
+        let secret = bearer(value)?;
+        let token = self.lookup(secret, needed).await?;
+        if let Some(why) = token.refusal(Utc::now()) {
+            return Err(ApiError::Unauthorized {
+                detail: format!("{why}; ask an administrator for a new one"),
+            });
+        }
+        if !token.role.allows(needed) {
+            return Err(ApiError::Forbidden {
+                detail: format!(
+                    "token '{}' has role {}; this needs role {} or above",
+                    token.name,
+                    token.role.as_str(),
+                    needed.as_str()
+                ),
+            });
+        }
+        Ok(Caller {
+            name: token.name,
+            role: token.role,
+            token_id: Some(token.id),
+        })
+    }
+
+    async fn lookup(&self, secret: &str, needed: Role) -> Result<TokenInfo, ApiError> {
+        let not_recognised = || ApiError::Unauthorized {
+            detail: "the bearer token is not recognised".into(),
+        };
+        let hash = tokens::hash_secret(secret);
+        match self.store.find_token(secret).await {
+            Ok(Some(t)) => {
+                if let Ok(mut seen) = self.seen.lock() {
+                    if seen.len() >= CACHE_LIMIT {
+                        seen.clear();
+                    }
+                    seen.insert(hash, t.clone());
+                }
+                Ok(t)
+            }
+            Ok(None) => Err(not_recognised()),
+            Err(e @ StoreError::Unavailable { .. }) => {
+                // Reads go on from memory during an outage, for tokens seen
+                // before; anything else must wait for the database.
+                let known = self.seen.lock().ok().and_then(|s| s.get(&hash).cloned());
+                match known {
+                    Some(t) if needed == Role::Reader => Ok(t),
+                    _ => Err(super::catalogue::store_error(e)),
+                }
+            }
+            Err(e) => Err(super::catalogue::store_error(e)),
+        }
+    }
+}
+
+/// The secret from `Bearer <secret>` (scheme case-insensitive, RFC 6750 §2.1).
+fn bearer(value: &str) -> Result<&str, ApiError> {
+    let malformed = || ApiError::Unauthorized {
+        detail: "the Authorization header must be 'Bearer <token>'".into(),
+    };
+    let (scheme, secret) = value.trim().split_once(' ').ok_or_else(malformed)?;
+    let secret = secret.trim();
+    if !scheme.eq_ignore_ascii_case("bearer") || secret.is_empty() || secret.len() > 512 {
+        return Err(malformed());
+    }
+    Ok(secret)
+}
+
+fn extract(req: &HttpRequest, needed: Role) -> Pin<Box<dyn Future<Output = Result<Caller, ApiError>>>> {
+    let auth = req.app_data::<web::Data<Authenticator>>().cloned();
+    let header = match req.headers().get(header::AUTHORIZATION).map(|v| v.to_str()) {
+        None => Ok(None),
+        Some(Ok(s)) => Ok(Some(s.to_string())),
+        Some(Err(_)) => Err(ApiError::Unauthorized {
+            detail: "the Authorization header is not readable text".into(),
+        }),
+    };
+    Box::pin(async move {
+        let Some(auth) = auth else {
+            return Err(ApiError::Internal("no Authenticator registered as app data".into()));
+        };
+        auth.check(header?.as_deref(), needed).await
+    })
+}
+
+macro_rules! role_extractor {
+    ($(#[$doc:meta])* $name:ident, $role:expr) => {
+        $(#[$doc])*
+        #[derive(Debug, Clone)]
+        pub struct $name(pub Caller);
+
+        impl FromRequest for $name {
+            type Error = ApiError;
+            type Future = Pin<Box<dyn Future<Output = Result<Self, ApiError>>>>;
+
+            fn from_request(req: &HttpRequest, _: &mut Payload) -> Self::Future {
+                let fut = extract(req, $role);
+                Box::pin(async move { fut.await.map($name) })
+            }
+        }
+    };
+}
+
+role_extractor!(
+    /// Any caller allowed to read (anonymous when configured).
+    Reader,
+    Role::Reader
+);
+role_extractor!(
+    /// A caller allowed to change the catalogue.
+    Editor,
+    Role::Editor
+);
+role_extractor!(
+    /// A caller allowed to manage tokens.
+    Admin,
+    Role::Admin
+);
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn bearer_header_forms() {
+        assert_eq!(bearer("Bearer abc").ok(), Some("abc"));
+        assert_eq!(bearer("bearer  abc ").ok(), Some("abc"));
+        assert!(bearer("Basic abc").is_err());
+        assert!(bearer("Bearer").is_err());
+        assert!(bearer("Bearer ").is_err());
+    }
+}

@@ -1,0 +1,200 @@
+//! `/v1/friction-entries`: list, read (with ETag), create, replace
+//! (If-Match), retire (DELETE, If-Match), history.
+
+use actix_web::http::header;
+use actix_web::{delete, get, post, put, web, HttpRequest, HttpResponse};
+
+use super::wire::{EntryList, EntryListQuery, EntryView, EntryWrite, HistoryView, ReasonBody, RetireQuery, RevisionQuery, StatusFilter};
+use super::{if_match, CatalogueService};
+use crate::catalogue::{Change, ChangeSet, EntityKind, FrictionEntry};
+use crate::http::auth::{Editor, Reader};
+use crate::http::error::{ApiError, FieldError, Problem};
+
+pub fn configure(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
+    cfg.service(list_entries)
+        .service(get_entry)
+        .service(create_entry)
+        .service(update_entry)
+        .service(retire_entry)
+        .service(entry_history);
+}
+
+fn view(svc: &CatalogueService, entry: FrictionEntry, catalogue_revision: i64, status: actix_web::http::StatusCode) -> HttpResponse {
+    let etag = entry.etag();
+    let id = entry.id;
+    let mut b = HttpResponse::build(status);
+    b.insert_header((header::ETAG, etag)).insert_header((header::CACHE_CONTROL, "no-cache"));
+    if status == actix_web::http::StatusCode::CREATED {
+        b.insert_header((header::LOCATION, format!("/v1/friction-entries/{id}")));
+    }
+    b.json(EntryView { entry, catalogue_revision, catalogue_may_be_stale: svc.stale() })
+}
+
+/// The friction catalogue (current, or as it was at `catalogue_revision`).
+#[utoipa::path(
+    tag = "catalogue",
+    params(EntryListQuery),
+    responses(
+        (status = 200, description = "Friction entries", body = EntryList),
+        (status = 400, description = "Malformed query", body = Problem, content_type = "application/problem+json"),
+        (status = 401, description = "Token required or not accepted", body = Problem, content_type = "application/problem+json"),
+        (status = 404, description = "No such revision", body = Problem, content_type = "application/problem+json"),
+    )
+)]
+#[get("/v1/friction-entries")]
+async fn list_entries(svc: web::Data<CatalogueService>, _who: Reader, q: web::Query<EntryListQuery>) -> Result<HttpResponse, ApiError> {
+    let q = q.into_inner();
+    let snap = svc.snapshot(q.catalogue_revision).await?;
+    let entries = snap
+        .entries
+        .iter()
+        .filter(|e| match q.status.unwrap_or(StatusFilter::All) {
+            StatusFilter::All => true,
+            StatusFilter::Active => e.status.is_active(),
+            StatusFilter::Retired => !e.status.is_active(),
+        })
+        .filter(|e| q.finish.as_ref().is_none_or_eq(&e.finish))
+        .filter(|e| q.lubricant.as_ref().is_none_or_eq(&e.lubricant))
+        .cloned()
+        .collect();
+    Ok(HttpResponse::Ok()
+        .insert_header((header::CACHE_CONTROL, "no-cache"))
+        .json(EntryList { catalogue_revision: snap.revision, catalogue_may_be_stale: svc.stale(), entries }))
+}
+
+trait NoneOrEq {
+    fn is_none_or_eq(&self, v: &str) -> bool;
+}
+
+impl NoneOrEq for Option<&String> {
+    fn is_none_or_eq(&self, v: &str) -> bool {
+        self.map_or(true, |s| s == v)
+    }
+}
+
+/// One friction entry, with its ETag (send it back as If-Match to change it).
+#[utoipa::path(
+    tag = "catalogue",
+    params(("id" = i64, Path, description = "Entry id"), RevisionQuery),
+    responses(
+        (status = 200, description = "The entry", body = EntryView, headers(("ETag" = String, description = "Entity tag for If-Match"))),
+        (status = 404, description = "No such entry or revision", body = Problem, content_type = "application/problem+json"),
+    )
+)]
+#[get("/v1/friction-entries/{id}")]
+async fn get_entry(svc: web::Data<CatalogueService>, _who: Reader, id: web::Path<i64>, q: web::Query<RevisionQuery>) -> Result<HttpResponse, ApiError> {
+    let snap = svc.snapshot(q.catalogue_revision).await?;
+    let entry = snap.entry(*id)?.clone();
+    Ok(view(&svc, entry, snap.revision, actix_web::http::StatusCode::OK))
+}
+
+/// Creates a friction entry (editor). Becomes one new catalogue revision.
+#[utoipa::path(
+    tag = "catalogue",
+    request_body = EntryWrite,
+    security(("bearer" = [])),
+    responses(
+        (status = 201, description = "Created", body = EntryView),
+        (status = 401, description = "Token required or not accepted", body = Problem, content_type = "application/problem+json"),
+        (status = 403, description = "Role may not change the catalogue", body = Problem, content_type = "application/problem+json"),
+        (status = 422, description = "Every problem listed; nothing written", body = Problem, content_type = "application/problem+json"),
+        (status = 503, description = "Database unavailable; retry", body = Problem, content_type = "application/problem+json"),
+    )
+)]
+#[post("/v1/friction-entries")]
+async fn create_entry(svc: web::Data<CatalogueService>, who: Editor, body: web::Json<EntryWrite>) -> Result<HttpResponse, ApiError> {
+    let body = body.into_inner();
+    if body.id.is_some() {
+        return Err(ApiError::invalid("id", "ids are assigned by the catalogue; leave it out when creating"));
+    }
+    let (input, reason) = body.into_input()?;
+    let set = ChangeSet::single(&who.0.name, &reason, Change::CreateEntry(input));
+    let applied = svc.store.apply_live(&svc.live, &set).await?;
+    let id = applied.records.first().and_then(|r| r.entity_id.parse::<i64>().ok()).unwrap_or_default();
+    let entry = applied.snapshot.entry(id)?.clone();
+    Ok(view(&svc, entry, applied.snapshot.revision, actix_web::http::StatusCode::CREATED))
+}
+
+/// Replaces a friction entry (editor): the entry as GET returned it,
+/// changed, plus `reason`, with `If-Match: <ETag>`. A stale ETag gets 412
+/// with the current state; a missing one 428.
+#[utoipa::path(
+    tag = "catalogue",
+    params(("id" = i64, Path, description = "Entry id"), ("If-Match" = String, Header, description = "ETag from GET")),
+    request_body = EntryWrite,
+    security(("bearer" = [])),
+    responses(
+        (status = 200, description = "Changed", body = EntryView),
+        (status = 404, description = "No such entry", body = Problem, content_type = "application/problem+json"),
+        (status = 412, description = "Stale ETag; `current` holds the current entry", body = Problem, content_type = "application/problem+json"),
+        (status = 422, description = "Every problem listed; nothing written", body = Problem, content_type = "application/problem+json"),
+        (status = 428, description = "If-Match missing", body = Problem, content_type = "application/problem+json"),
+        (status = 503, description = "Database unavailable; retry", body = Problem, content_type = "application/problem+json"),
+    )
+)]
+#[put("/v1/friction-entries/{id}")]
+async fn update_entry(svc: web::Data<CatalogueService>, who: Editor, id: web::Path<i64>, req: HttpRequest, body: web::Json<EntryWrite>) -> Result<HttpResponse, ApiError> {
+    let id = id.into_inner();
+    let expected = if_match(req.headers())?;
+    let body = body.into_inner();
+    if let Some(b) = body.id.filter(|b| *b != id) {
+        return Err(ApiError::unprocessable(vec![FieldError::new("id", format!("{b} differs from the id in the path ({id})"))]));
+    }
+    let (entry, reason) = body.into_input()?;
+    let set = ChangeSet::single(&who.0.name, &reason, Change::UpdateEntry { id, expected_revision: Some(expected), entry });
+    let applied = svc.store.apply_live(&svc.live, &set).await?;
+    let entry = applied.snapshot.entry(id)?.clone();
+    Ok(view(&svc, entry, applied.snapshot.revision, actix_web::http::StatusCode::OK))
+}
+
+/// Retires a friction entry (editor) as a new revision; it stays in
+/// history and in past revisions. Needs If-Match and a reason (`?reason=`
+/// or a JSON body `{"reason": …}`).
+#[utoipa::path(
+    tag = "catalogue",
+    params(("id" = i64, Path, description = "Entry id"), ("If-Match" = String, Header, description = "ETag from GET"), RetireQuery),
+    security(("bearer" = [])),
+    responses(
+        (status = 200, description = "Retired", body = EntryView),
+        (status = 404, description = "No such entry", body = Problem, content_type = "application/problem+json"),
+        (status = 412, description = "Stale ETag", body = Problem, content_type = "application/problem+json"),
+        (status = 422, description = "Reason missing or already retired", body = Problem, content_type = "application/problem+json"),
+        (status = 428, description = "If-Match missing", body = Problem, content_type = "application/problem+json"),
+    )
+)]
+#[delete("/v1/friction-entries/{id}")]
+async fn retire_entry(svc: web::Data<CatalogueService>, who: Editor, id: web::Path<i64>, req: HttpRequest, q: web::Query<RetireQuery>, body: Option<web::Json<ReasonBody>>) -> Result<HttpResponse, ApiError> {
+    let id = id.into_inner();
+    let expected = if_match(req.headers())?;
+    let reason = q.into_inner().reason.or(body.map(|b| b.into_inner().reason)).unwrap_or_default();
+    let set = ChangeSet::single(&who.0.name, &reason, Change::RetireEntry { id, expected_revision: Some(expected) });
+    let applied = svc.store.apply_live(&svc.live, &set).await?;
+    let entry = applied.snapshot.entry(id)?.clone();
+    Ok(view(&svc, entry, applied.snapshot.revision, actix_web::http::StatusCode::OK))
+}
+
+/// Every change to one entry, oldest first: revision, before, after, who,
+/// when, why (and the evidence, e.g. a friction test series).
+#[utoipa::path(
+    tag = "catalogue",
+    params(("id" = i64, Path, description = "Entry id")),
+    responses(
+        (status = 200, description = "History", body = HistoryView),
+        (status = 404, description = "No such entry", body = Problem, content_type = "application/problem+json"),
+        (status = 503, description = "Database unavailable", body = Problem, content_type = "application/problem+json"),
+    )
+)]
+#[get("/v1/friction-entries/{id}/history")]
+async fn entry_history(svc: web::Data<CatalogueService>, _who: Reader, id: web::Path<i64>) -> Result<HttpResponse, ApiError> {
+    let id = id.into_inner();
+    let history = svc.store.history(EntityKind::FrictionEntry, &id.to_string()).await?;
+    if history.is_empty() {
+        return Err(crate::catalogue::CatalogueError::NotFound { field: "id".into(), kind: "friction entry", id: id.to_string() }.into());
+    }
+    Ok(HttpResponse::Ok().json(HistoryView {
+        entity: EntityKind::FrictionEntry.as_str().into(),
+        id: id.to_string(),
+        catalogue_revision: svc.live.revision(),
+        history,
+    }))
+}
