@@ -102,3 +102,22 @@ fn short_engagement_in_aluminium_is_flagged() {
     // Mastik p. 678): an 8.8 hexagon head at full preload exceeds it.
     assert!(codes.contains(&"surface_pressure_exceeded"), "{codes:?}");
 }
+
+/// Unified inch thread end to end: 1/2-13 UNC, SAE J429 Grade 5 hex cap
+/// screw with ASME bearing tables; the forward window is ordered and the
+/// nut factor at μ = 0.15 lies near Shigley's 0.20 (Shigley's Mechanical
+/// Engineering Design §8-8; tolerance widened to ±0.03 because the ASME
+/// bearing face here is not Shigley's 1.5·d).
+#[test]
+fn inch_thread_end_to_end() {
+    let mut i = input("1/2-13 UNC", "grade 5");
+    i.thread_friction = FrictionRange::single(0.15, "thread_friction").unwrap();
+    i.bearing_friction = FrictionRange::single(0.15, "bearing_friction").unwrap();
+    i.scatter = None;
+    i.clamped_material = Some(find_material("steel").unwrap());
+    let spec = compute(&i).unwrap();
+    assert_eq!(spec.strength.id, "sae-j429-5");
+    assert!(spec.window.lower < spec.window.upper);
+    let k = spec.at_min_friction.nut_factor;
+    assert!((k - 0.20).abs() <= 0.03, "{k}");
+}
