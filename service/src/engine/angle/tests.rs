@@ -2,6 +2,7 @@ use uom::si::angle::degree;
 
 use super::*;
 use crate::engine::quantity::{FrictionRange, Scatter};
+use crate::engine::thread::ThreadGeometry;
 use crate::engine::tightening::fixtures::*;
 use crate::engine::window::{maximum_window, no_prevailing_torque};
 
