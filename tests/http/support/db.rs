@@ -200,3 +200,105 @@ fn database_url_rewriting() {
         "postgres://u@h/x?sslmode=disable"
     );
 }
+
+/// A TCP relay in front of a database server that a test can cut (every
+/// connection dropped, new ones refused) and restore on the same port: a
+/// reliable way to take the database away from a running service.
+pub struct Relay {
+    pub port: u16,
+    target: String,
+    tasks: std::sync::Arc<std::sync::Mutex<Vec<tokio::task::JoinHandle<()>>>>,
+}
+
+impl Relay {
+    /// Relays 127.0.0.1:<free port> to `target` (`host:port`).
+    pub async fn start(target: &str) -> Relay {
+        let listener = tokio::net::TcpListener::bind("127.0.0.1:0").await.expect("bind relay");
+        let port = listener.local_addr().expect("relay address").port();
+        let relay = Relay { port, target: target.to_string(), tasks: Default::default() };
+        relay.serve(listener);
+        relay
+    }
+
+    fn serve(&self, listener: tokio::net::TcpListener) {
+        let target = self.target.clone();
+        let tasks = std::sync::Arc::clone(&self.tasks);
+        let accept = tokio::spawn(async move {
+            while let Ok((mut inbound, _)) = listener.accept().await {
+                let target = target.clone();
+                let conn = tokio::spawn(async move {
+                    if let Ok(mut outbound) = tokio::net::TcpStream::connect(&target).await {
+                        let _ = tokio::io::copy_bidirectional(&mut inbound, &mut outbound).await;
+                    }
+                });
+                if let Ok(mut t) = tasks.lock() {
+                    t.push(conn);
+                }
+            }
+        });
+        if let Ok(mut t) = self.tasks.lock() {
+            t.push(accept);
+        }
+    }
+
+    /// Drops every relayed connection and stops accepting new ones.
+    pub fn cut(&self) {
+        if let Ok(mut t) = self.tasks.lock() {
+            for task in t.drain(..) {
+                task.abort();
+            }
+        }
+    }
+
+    /// Accepts connections again on the same port.
+    pub async fn restore(&self) {
+        let mut tries = 0;
+        let listener = loop {
+            match tokio::net::TcpListener::bind(("127.0.0.1", self.port)).await {
+                Ok(l) => break l,
+                Err(e) if tries < 50 => {
+                    tries += 1;
+                    let _ = e;
+                    tokio::time::sleep(std::time::Duration::from_millis(100)).await;
+                }
+                Err(e) => panic!("relay port {} cannot be bound again: {e}", self.port),
+            }
+        };
+        self.serve(listener);
+    }
+}
+
+impl Drop for Relay {
+    fn drop(&mut self) {
+        self.cut();
+    }
+}
+
+/// `host:port` of a PostgreSQL URL.
+pub fn host_port(url: &str) -> String {
+    let after = url.split_once("://").map(|(_, r)| r).unwrap_or(url);
+    let after = after.rsplit_once('@').map(|(_, r)| r).unwrap_or(after);
+    let hp = after.split(['/', '?']).next().unwrap_or(after);
+    if hp.contains(':') {
+        hp.to_string()
+    } else {
+        format!("{hp}:5432")
+    }
+}
+
+/// The URL with its host and port replaced by 127.0.0.1:`port`.
+pub fn via_port(url: &str, port: u16) -> String {
+    let hp = host_port(url);
+    let original = url.split_once("://").map(|(_, r)| r).unwrap_or(url);
+    let original_hp = original.rsplit_once('@').map(|(_, r)| r).unwrap_or(original);
+    let original_hp = original_hp.split(['/', '?']).next().unwrap_or(original_hp);
+    let _ = hp;
+    url.replacen(original_hp, &format!("127.0.0.1:{port}"), 1)
+}
+
+#[test]
+fn relay_url_rewriting() {
+    assert_eq!(host_port("postgres://postgres@127.0.0.1:5432/test"), "127.0.0.1:5432");
+    assert_eq!(host_port("postgres://u:p@db/x"), "db:5432");
+    assert_eq!(via_port("postgres://postgres@127.0.0.1:5432/tightspec_test_1", 6000), "postgres://postgres@127.0.0.1:6000/tightspec_test_1");
+}

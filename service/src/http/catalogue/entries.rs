@@ -135,7 +135,7 @@ async fn create_entry(svc: web::Data<CatalogueService>, who: Editor, body: web::
 #[put("/v1/friction-entries/{id}")]
 async fn update_entry(svc: web::Data<CatalogueService>, who: Editor, id: web::Path<i64>, req: HttpRequest, body: web::Json<EntryWrite>) -> Result<HttpResponse, ApiError> {
     let id = id.into_inner();
-    let expected = if_match(req.headers())?;
+    let expected = if_match(req.headers(), &format!("entry-{id}"))?;
     let body = body.into_inner();
     if let Some(b) = body.id.filter(|b| *b != id) {
         return Err(ApiError::unprocessable(vec![FieldError::new("id", format!("{b} differs from the id in the path ({id})"))]));
@@ -165,7 +165,7 @@ async fn update_entry(svc: web::Data<CatalogueService>, who: Editor, id: web::Pa
 #[delete("/v1/friction-entries/{id}")]
 async fn retire_entry(svc: web::Data<CatalogueService>, who: Editor, id: web::Path<i64>, req: HttpRequest, q: web::Query<RetireQuery>, body: Option<web::Json<ReasonBody>>) -> Result<HttpResponse, ApiError> {
     let id = id.into_inner();
-    let expected = if_match(req.headers())?;
+    let expected = if_match(req.headers(), &format!("entry-{id}"))?;
     let reason = q.into_inner().reason.or(body.map(|b| b.into_inner().reason)).unwrap_or_default();
     let set = ChangeSet::single(&who.0.name, &reason, Change::RetireEntry { id, expected_revision: Some(expected) });
     let applied = svc.store.apply_live(&svc.live, &set).await?;

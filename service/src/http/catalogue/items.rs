@@ -83,7 +83,7 @@ async fn create_finish(svc: web::Data<CatalogueService>, who: Editor, body: web:
 #[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Finish id"), ("If-Match" = String, Header, description = "ETag from GET")), request_body = FinishWrite, security(("bearer" = [])), responses((status = 200, description = "Changed", body = FinishView), (status = 412, description = "Stale ETag", body = Problem, content_type = "application/problem+json"), (status = 422, description = "Every problem listed", body = Problem, content_type = "application/problem+json"), (status = 428, description = "If-Match missing", body = Problem, content_type = "application/problem+json")))]
 #[put("/v1/finishes/{id}")]
 async fn update_finish(svc: web::Data<CatalogueService>, who: Editor, id: web::Path<String>, req: HttpRequest, body: web::Json<FinishWrite>) -> Result<HttpResponse, ApiError> {
-    let expected = if_match(req.headers())?;
+    let expected = if_match(req.headers(), &format!("finish-{id}"))?;
     let (finish, reason) = body.into_inner().into_input(Some(&id))?;
     let set = ChangeSet::single(&who.0.name, &reason, Change::UpdateFinish { expected_revision: Some(expected), finish });
     let applied = svc.store.apply_live(&svc.live, &set).await?;
@@ -127,7 +127,7 @@ async fn create_lubricant(svc: web::Data<CatalogueService>, who: Editor, body: w
 #[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Lubricant id"), ("If-Match" = String, Header, description = "ETag from GET")), request_body = LubricantWrite, security(("bearer" = [])), responses((status = 200, description = "Changed", body = LubricantView), (status = 412, description = "Stale ETag", body = Problem, content_type = "application/problem+json"), (status = 422, description = "Every problem listed", body = Problem, content_type = "application/problem+json"), (status = 428, description = "If-Match missing", body = Problem, content_type = "application/problem+json")))]
 #[put("/v1/lubricants/{id}")]
 async fn update_lubricant(svc: web::Data<CatalogueService>, who: Editor, id: web::Path<String>, req: HttpRequest, body: web::Json<LubricantWrite>) -> Result<HttpResponse, ApiError> {
-    let expected = if_match(req.headers())?;
+    let expected = if_match(req.headers(), &format!("lubricant-{id}"))?;
     let (lubricant, reason) = body.into_inner().into_input(Some(&id))?;
     let set = ChangeSet::single(&who.0.name, &reason, Change::UpdateLubricant { expected_revision: Some(expected), lubricant });
     let applied = svc.store.apply_live(&svc.live, &set).await?;
