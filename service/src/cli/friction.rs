@@ -19,7 +19,7 @@
 use std::path::PathBuf;
 
 use crate::http::friction_tests;
-use crate::http::friction_tests::units::{Quantity, UnitSystem};
+use crate::http::friction_tests::units::{parse_units, Quantity};
 use crate::http::friction_tests::wire::{
     BearingRequest, EvaluationResponse, SeriesRequest, SpecimenRequest,
 };
@@ -81,7 +81,7 @@ pub fn run(cmd: &FrictionCommand) -> Result<String, String> {
 }
 
 fn evaluate(args: &EvaluateArgs) -> Result<String, String> {
-    let units = UnitSystem::parse(Some(&args.units)).map_err(|e| e.to_string())?;
+    let units = parse_units(Some(&args.units)).map_err(|e| e.to_string())?;
     let text =
         std::fs::read_to_string(&args.file).map_err(|e| format!("{}: {e}", args.file.display()))?;
     let specimens = read_csv(&text)?;

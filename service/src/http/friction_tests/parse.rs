@@ -21,10 +21,16 @@ pub struct ParsedSeries {
     pub strength: Option<Strength>,
     pub bearing: Option<BearingSurface>,
     pub input: SeriesInput,
+    /// For each specimen in `input`, its index in the posted series.
+    pub original_index: Vec<usize>,
+    /// Problems reading individual specimens (units, missing values); the
+    /// specimens concerned are left out of `input`.
+    pub problems: Vec<EngineError>,
 }
 
 /// Parse a posted series. Name problems (thread, grade, head) come first
-/// and alone; specimen problems are all listed together.
+/// and alone; a specimen that cannot be read is left out and its problems
+/// kept in `problems`, so the rest can still be checked by the engine.
 pub fn parse(req: &SeriesRequest) -> Result<ParsedSeries, CalibrationErrors> {
     let thread = thread::parse_designation(&req.thread)?;
     let strength = req
@@ -35,19 +41,21 @@ pub fn parse(req: &SeriesRequest) -> Result<ParsedSeries, CalibrationErrors> {
     let bearing = parse_bearing(req, &thread)?;
     let joint = JointGeometry::new(&thread, bearing.as_ref(), req.thrust_bearing)?;
 
-    let mut errors = Vec::new();
+    let mut problems = Vec::new();
     let evaluation_clamp_force = req
         .evaluation_clamp_force
         .as_ref()
-        .and_then(|q| collect(force(q, "evaluation_clamp_force"), &mut errors));
-    let specimens = req
-        .specimens
-        .iter()
-        .enumerate()
-        .filter_map(|(i, s)| specimen(s, i, &mut errors))
-        .collect();
-    if !errors.is_empty() {
-        return Err(CalibrationErrors(errors));
+        .and_then(|q| collect(force(q, "evaluation_clamp_force"), &mut problems));
+    let mut specimens = Vec::with_capacity(req.specimens.len());
+    let mut original_index = Vec::with_capacity(req.specimens.len());
+    for (i, s) in req.specimens.iter().enumerate() {
+        let before = problems.len();
+        if let Some(record) = specimen(s, i, &mut problems) {
+            if problems.len() == before {
+                specimens.push(record);
+                original_index.push(i);
+            }
+        }
     }
     let proof_load = strength
         .as_ref()
@@ -62,6 +70,8 @@ pub fn parse(req: &SeriesRequest) -> Result<ParsedSeries, CalibrationErrors> {
             proof_load,
             specimens,
         },
+        original_index,
+        problems,
     })
 }
 

@@ -17,6 +17,7 @@ use crate::engine::method::TighteningMethod;
 use crate::engine::quantity::FrictionRange;
 use crate::engine::spec::{self, SpecFlags, SpecInput, WindowMode};
 use crate::engine::{grade, thread, EngineError};
+use crate::http::error::ApiError;
 
 /// Representative joints whose specs the proposal is shown on.
 pub const REPRESENTATIVE_THREADS: [&str; 3] = ["M8", "M10", "M12"];
@@ -145,9 +146,9 @@ pub fn build(
     count: usize,
     basis: Basis,
     u: UnitSystem,
-) -> Result<Result<Proposed, EngineError>, crate::catalogue::CatalogueError> {
+) -> Result<Proposed, ApiError> {
     let entry = snap.friction_for(finish, lubricant)?.clone();
-    Ok(build_for(snap, &entry, series_id, stats, count, basis, u))
+    Ok(build_for(snap, &entry, series_id, stats, count, basis, u)?)
 }
 
 fn build_for(

@@ -17,13 +17,7 @@ use uom::si::torque::newton_meter;
 
 use crate::engine::EngineError;
 
-/// A physical quantity on the wire: `{"value": number, "unit": "..."}`.
-/// (Stand-in until the crate-wide `http::quantity::Quantity` lands.)
-#[derive(Debug, Clone, PartialEq, serde::Serialize, serde::Deserialize, utoipa::ToSchema)]
-pub struct Quantity {
-    pub value: f64,
-    pub unit: String,
-}
+pub use crate::http::quantity::{Quantity, Units as UnitSystem};
 
 /// 1 lbf in N (exact, NIST SP 811 Appendix B).
 const LBF: f64 = 4.448_221_615_260_5;
@@ -32,27 +26,17 @@ const LBF_IN: f64 = 4.448_221_615_260_5 * 0.0254;
 /// 1 lbf·ft in N·m: 4.448 221 615 260 5 N × 0.3048 m (exact, NIST SP 811).
 const LBF_FT: f64 = 4.448_221_615_260_5 * 0.3048;
 
-/// Units of an answer.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
-pub enum UnitSystem {
-    #[default]
-    Si,
-    Us,
-}
-
-impl UnitSystem {
-    /// `si` or `us` (field `units`).
-    pub fn parse(s: Option<&str>) -> Result<Self, EngineError> {
-        match s.map(str::trim) {
-            None | Some("si") | Some("SI") => Ok(Self::Si),
-            Some("us") | Some("US") => Ok(Self::Us),
-            Some(other) => Err(EngineError::Unknown {
-                field: "units".into(),
-                kind: "unit system",
-                given: other.into(),
-                suggestions: vec!["si".into(), "us".into()],
-            }),
-        }
+/// `si` or `us` (field `units`), for the command line.
+pub fn parse_units(s: Option<&str>) -> Result<UnitSystem, EngineError> {
+    match s.map(str::trim) {
+        None | Some("si") | Some("SI") => Ok(UnitSystem::Si),
+        Some("us") | Some("US") => Ok(UnitSystem::Us),
+        Some(other) => Err(EngineError::Unknown {
+            field: "units".into(),
+            kind: "unit system",
+            given: other.into(),
+            suggestions: vec!["si".into(), "us".into()],
+        }),
     }
 }
 
@@ -187,6 +171,6 @@ mod tests {
         assert_eq!(e.field(), "specimens[2].clamp_force");
         assert!(e.to_string().contains("not a force unit"));
         assert!(to_length(&q(f64::NAN, "mm"), "x").is_err());
-        assert!(UnitSystem::parse(Some("metric")).is_err());
+        assert!(parse_units(Some("metric")).is_err());
     }
 }
