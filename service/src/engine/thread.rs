@@ -183,7 +183,27 @@ pub(crate) fn metric_designation(size: &table::MetricSize, fine: Option<&str>) -
 }
 
 pub(crate) fn unified_designation(size: &table::UnifiedSize, tpi: u32, series: &str) -> String {
-    format!("{}-{} {}", size.name, tpi, series)
+    let mut s = String::with_capacity(16);
+    s.push_str(size.name);
+    s.push('-');
+    // Threads per inch are at most two or three digits; no formatter needed.
+    let mut digits = [0u8; 10];
+    let mut n = tpi;
+    let mut len = 0;
+    loop {
+        digits[len] = b'0' + (n % 10) as u8;
+        len += 1;
+        n /= 10;
+        if n == 0 {
+            break;
+        }
+    }
+    for d in digits[..len].iter().rev() {
+        s.push(char::from(*d));
+    }
+    s.push(' ');
+    s.push_str(series);
+    s
 }
 
 /// Geometry from an explicit nominal diameter and pitch (series `Custom`).
