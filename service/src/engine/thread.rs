@@ -208,7 +208,8 @@ pub(crate) fn unified_designation(size: &table::UnifiedSize, tpi: u32, series: &
 
 /// Geometry from an explicit nominal diameter and pitch (series `Custom`).
 ///
-/// Refuses non-finite or non-positive values, and pitches above d/4 (no
+/// Refuses non-finite or non-positive values, d outside 0.5–2000 mm,
+/// pitches below 0.05 mm, and pitches above d/4 (no
 /// general-purpose 60° thread is that coarse; the coarsest tabulated ratio
 /// is about 0.22, M1.6x0.35).
 pub fn custom_thread(
@@ -224,16 +225,22 @@ pub fn custom_thread(
             "nominal diameter must be a positive, finite length",
         ));
     }
-    if d > 2000.0 {
+    if !(0.5..=2000.0).contains(&d) {
         return Err(EngineError::invalid(
             "thread.nominal_diameter",
-            "nominal diameter above 2000 mm is outside what this service computes",
+            "nominal diameter outside 0.5 mm to 2000 mm is outside what this service computes",
         ));
     }
     if !p.is_finite() || p <= 0.0 {
         return Err(EngineError::invalid(
             "thread.pitch",
             "pitch must be a positive, finite length",
+        ));
+    }
+    if p < 0.05 {
+        return Err(EngineError::invalid(
+            "thread.pitch",
+            "pitch below 0.05 mm is outside what this service computes",
         ));
     }
     if p > d / 4.0 {

@@ -265,3 +265,10 @@ fn every_grade_has_consistent_ranges() {
         assert_eq!(find_property_class(g.id).map(|x| x.id), Ok(g.id));
     }
 }
+
+proptest::proptest! {
+    #[test]
+    fn grade_lookup_never_panics(s in "\\PC{0,60}") {
+        let _ = find_property_class(&s);
+    }
+}

@@ -115,3 +115,17 @@ fn engagement_for_an_untabulated_material() {
         "clamped_material"
     );
 }
+
+proptest::proptest! {
+    #[test]
+    fn material_and_bearing_lookups_never_panic(s in "\\PC{0,60}", o in proptest::num::f64::ANY, i in proptest::num::f64::ANY) {
+        let _ = find_material(&s);
+        let _ = s.parse::<crate::engine::bearing::HeadType>();
+        let _ = s.parse::<crate::engine::bearing::HoleSeries>();
+        let _ = s.parse::<crate::engine::bearing::Washer>();
+        let l = uom::si::f64::Length::new::<uom::si::length::millimeter>;
+        if let Ok(b) = crate::engine::bearing::explicit_bearing(l(o), l(i)) {
+            proptest::prop_assert!(b.outer_diameter > b.inner_diameter);
+        }
+    }
+}

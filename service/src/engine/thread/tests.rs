@@ -294,3 +294,15 @@ proptest! {
         let _ = parse_designation(&s);
     }
 }
+
+proptest! {
+    #[test]
+    fn custom_thread_never_panics(d in proptest::num::f64::ANY, p in proptest::num::f64::ANY, inch_form in any::<bool>()) {
+        let form = if inch_form { ThreadForm::Unified } else { ThreadForm::IsoMetric };
+        if let Ok(g) = custom_thread(form, Length::new::<millimeter>(d), Length::new::<millimeter>(p)) {
+            prop_assert!(g.custom);
+            prop_assert!(g.stress_area.get::<square_millimeter>() > 0.0);
+            prop_assert!(g.minor_diameter < g.pitch_diameter);
+        }
+    }
+}
