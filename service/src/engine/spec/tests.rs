@@ -214,8 +214,15 @@ proptest! {
         snug in proptest::num::f64::ANY, dw in proptest::num::f64::ANY,
         dh in proptest::num::f64::ANY, p in proptest::num::f64::ANY,
         inverse in any::<bool>(),
+        f1 in proptest::num::f64::ANY, f2 in proptest::num::f64::ANY,
     ) {
         let mut i = m10_input();
+        if let Ok(r) = FrictionRange::new(f1, f2, "thread_friction") {
+            i.thread_friction = r;
+        }
+        if let Ok(r) = FrictionRange::new(f2.abs() % 0.6, f1.abs() % 0.6, "bearing_friction") {
+            i.bearing_friction = r;
+        }
         i.scatter = Some(s);
         i.utilisation = Some(nu);
         i.prevailing_torque = Some(Torque::new::<newton_meter>(mp));
