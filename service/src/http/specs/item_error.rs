@@ -6,6 +6,7 @@
 
 use crate::catalogue::CatalogueError;
 use crate::engine::EngineError;
+use crate::http::error::{ApiError, FieldError};
 
 /// The class of a problem, ordered from most to least basic.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]
@@ -58,6 +59,30 @@ impl ItemError {
     pub fn with_suggestions(mut self, suggestions: Vec<String>) -> Self {
         self.suggestions = suggestions;
         self
+    }
+
+    /// The field problems of an HTTP-layer error (e.g. a quantity with an
+    /// unknown unit), classed by its status.
+    pub fn from_api(e: &ApiError) -> Vec<ItemError> {
+        let problem = e.problem();
+        let class = match problem.status {
+            404 => ErrorClass::Unknown,
+            422 => ErrorClass::Invalid,
+            _ => ErrorClass::Malformed,
+        };
+        if problem.errors.is_empty() {
+            return vec![ItemError::new(class, "body", problem.detail)];
+        }
+        problem
+            .errors
+            .into_iter()
+            .map(|f| ItemError::new(class, f.field, f.reason).with_suggestions(f.suggestions))
+            .collect()
+    }
+
+    pub fn field_error(&self) -> FieldError {
+        FieldError::new(self.field.clone(), self.reason.clone())
+            .with_suggestions(self.suggestions.clone())
     }
 }
 
@@ -135,6 +160,18 @@ impl ItemErrors {
                     .collect::<Vec<_>>()
                     .join(", ")
             ),
+        }
+    }
+}
+
+impl From<ItemErrors> for ApiError {
+    fn from(e: ItemErrors) -> Self {
+        let detail = e.detail();
+        let errors: Vec<FieldError> = e.0.iter().map(ItemError::field_error).collect();
+        match e.class() {
+            ErrorClass::Malformed => ApiError::Malformed { detail, errors },
+            ErrorClass::Unknown => ApiError::NotFound { detail, errors },
+            ErrorClass::Invalid => ApiError::Unprocessable { detail, errors },
         }
     }
 }

@@ -4,13 +4,30 @@
 //! Reading a request is one step, shared by every endpoint and the
 //! `tightspec spec` command: wire request ([`request`]) → names resolved
 //! through the engine's look-ups and the catalogue snapshot ([`friction`],
-//! [`resolve`]) → the engine's validated `SpecInput`. Handlers only fetch the
-//! snapshot, call that step and the engine, and render.
+//! [`resolve`]) → the engine's validated `SpecInput`. Handlers
+//! ([`handlers`]) only fetch the snapshot, call that step and the engine,
+//! and render ([`response`], [`setpoints`]) with ETag and Cache-Control
+//! ([`caching`]).
 
+pub mod caching;
 pub mod friction;
+pub mod handlers;
 pub mod item_error;
 pub mod request;
+pub mod resolve;
+pub mod response;
 pub mod rounding;
-mod wire_quantity;
+pub mod setpoints;
 
+pub use handlers::compute_one;
 pub use item_error::{ErrorClass, ItemError, ItemErrors};
+
+use utoipa_actix_web::service_config::ServiceConfig;
+
+/// Registers the spec, batch and setpoint routes.
+pub fn configure(cfg: &mut ServiceConfig) {
+    cfg.service(handlers::get_spec)
+        .service(handlers::post_spec)
+        .service(handlers::post_batch)
+        .service(handlers::get_setpoints);
+}

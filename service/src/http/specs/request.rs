@@ -20,26 +20,8 @@ use serde::{Deserialize, Deserializer, Serialize};
 use utoipa::{IntoParams, ToSchema};
 
 use super::item_error::ItemError;
-use super::wire_quantity::Quantity;
-
-/// Unit system of a response: `si` (N, N·m, mm, mm², MPa, degrees; the
-/// default) or `us` (lbf, lbf·ft, in, in², ksi, degrees).
-#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Hash, Serialize, Deserialize, ToSchema)]
-#[serde(rename_all = "lowercase")]
-pub enum Units {
-    #[default]
-    Si,
-    Us,
-}
-
-impl Units {
-    pub fn as_str(self) -> &'static str {
-        match self {
-            Units::Si => "si",
-            Units::Us => "us",
-        }
-    }
-}
+use crate::http::quantity::Quantity;
+pub use crate::http::quantity::Units;
 
 /// A friction coefficient: one value (`0.12`) or a range
 /// (`{"min": 0.10, "max": 0.16}`).
@@ -158,7 +140,8 @@ pub struct SpecRequest {
     /// Clamp length l_K; needed for the angle window.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub clamp_length: Option<Quantity>,
-    /// Clamped-part material id (see `/v1/materials`); default steel.
+    /// Clamped-part material id (see `/v1/materials`): its modulus for the
+    /// angle, its limiting surface pressure and strength for the checks.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub clamped_material: Option<String>,
     /// Outer diameter D_A of the clamped parts (default: wide joint).
@@ -167,9 +150,17 @@ pub struct SpecRequest {
     /// `through-bolted` (nut, default) or `tapped-hole`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub joint_type: Option<String>,
+    /// Length of thread engagement in a tapped hole (stripping check).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub engagement_length: Option<Quantity>,
     /// Minimum clamp load the joint needs.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub required_clamp_load: Option<Quantity>,
+    /// `maximum-preload` (default: use the bolt up to ν·Rp at the top of the
+    /// window) or `minimum-clamp-load` (the lowest window that still gives
+    /// `required_clamp_load`).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub window_mode: Option<String>,
     /// Snug torque before the angle is counted.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub snug_torque: Option<Quantity>,
@@ -275,8 +266,12 @@ macro_rules! spec_query {
             pub joint_outer_diameter: Option<String>,
             /// `through-bolted` (default) or `tapped-hole`.
             pub joint_type: Option<String>,
+            /// Thread engagement length in a tapped hole with unit, e.g. `15mm`.
+            pub engagement_length: Option<String>,
             /// Required minimum clamp load with unit, e.g. `15kN`.
             pub required_clamp_load: Option<String>,
+            /// `maximum-preload` (default) or `minimum-clamp-load`.
+            pub window_mode: Option<String>,
             /// Snug torque with unit, e.g. `10N·m`.
             pub snug_torque: Option<String>,
             /// Units of the response: `si` (default) or `us`.
@@ -319,6 +314,7 @@ macro_rules! spec_query {
                 let prevailing_torque = q("prevailing_torque", &self.prevailing_torque);
                 let clamp_length = q("clamp_length", &self.clamp_length);
                 let joint_outer_diameter = q("joint_outer_diameter", &self.joint_outer_diameter);
+                let engagement_length = q("engagement_length", &self.engagement_length);
                 let required_clamp_load = q("required_clamp_load", &self.required_clamp_load);
                 let snug_torque = q("snug_torque", &self.snug_torque);
                 let bearing = match (outer, inner) {
@@ -368,7 +364,9 @@ macro_rules! spec_query {
                     clamped_material: self.clamped_material.clone(),
                     joint_outer_diameter,
                     joint_type: self.joint_type.clone(),
+                    engagement_length,
                     required_clamp_load,
+                    window_mode: self.window_mode.clone(),
                     snug_torque,
                     units: self.units,
                     catalogue_revision: self.catalogue_revision,

@@ -1,0 +1,140 @@
+use super::*;
+use crate::http::quantity::Quantity;
+use crate::http::specs::item_error::ErrorClass;
+use crate::http::specs::request::{BearingInput, FrictionInput};
+
+fn base() -> SpecRequest {
+    SpecRequest {
+        thread: "M10".into(),
+        property_class: "8.8".into(),
+        thread_friction: Some(FrictionInput::Single(0.12)),
+        bearing_friction: Some(FrictionInput::Single(0.12)),
+        ..SpecRequest::default()
+    }
+}
+
+fn mm(value: f64) -> Quantity {
+    Quantity {
+        value,
+        unit: "mm".into(),
+    }
+}
+
+fn fields(e: &ItemErrors) -> Vec<&str> {
+    e.0.iter().map(|p| p.field.as_str()).collect()
+}
+
+#[test]
+fn resolves_names_into_engine_types() {
+    let snap = Snapshot::seed();
+    let r = resolve(&base(), &snap).unwrap();
+    assert_eq!(r.input.thread.designation, "M10");
+    assert_eq!(r.input.strength.id, "8.8");
+    assert_eq!(r.input.method, DEFAULT_METHOD);
+    assert_eq!(r.input.scatter, None);
+    assert_eq!(r.input.thread_friction.min(), 0.12);
+    assert!(r.input.friction_source.contains("given in the request"));
+    assert!(r.input.joint.is_none());
+    assert_eq!(r.revision, snap.revision);
+    assert!(!r.pinned);
+    assert_eq!(r.content_hash.len(), 64);
+}
+
+#[test]
+fn hash_uses_the_normal_spelling() {
+    let snap = Snapshot::seed();
+    let a = resolve(&base(), &snap).unwrap();
+    let mut spelled = base();
+    spelled.thread = "m10".into();
+    spelled.hole = Some("medium".into());
+    spelled.head = Some("hexagon-head".into());
+    let b = resolve(&spelled, &snap).unwrap();
+    assert_eq!(a.content_hash, b.content_hash);
+    let mut other = base();
+    other.tool_scatter = Some(0.0);
+    assert_ne!(a.content_hash, resolve(&other, &snap).unwrap().content_hash);
+    let mut later = snap.clone();
+    later.revision += 1;
+    assert_ne!(
+        a.content_hash,
+        resolve(&base(), &later).unwrap().content_hash
+    );
+}
+
+#[test]
+fn every_problem_is_listed() {
+    let snap = Snapshot::seed();
+    let mut r = base();
+    r.thread = "Q10".into();
+    r.property_class = "8.9x".into();
+    r.head = Some("round-head".into());
+    r.tightening_method = Some("spanner".into());
+    r.window_mode = Some("best".into());
+    let e = resolve(&r, &snap).unwrap_err();
+    assert_eq!(
+        fields(&e),
+        [
+            "thread",
+            "property_class",
+            "head",
+            "tightening_method",
+            "window_mode"
+        ]
+    );
+    assert_eq!(e.class(), ErrorClass::Malformed, "{e:?}");
+    assert_eq!(e.0[3].suggestions.len(), 3, "{e:?}");
+}
+
+#[test]
+fn unknown_names_are_404_class_with_suggestions() {
+    let snap = Snapshot::seed();
+    let mut r = base();
+    r.tightening_method = Some("click-wrnch".into());
+    let e = resolve(&r, &snap).unwrap_err();
+    assert_eq!(e.class(), ErrorClass::Unknown);
+    assert_eq!(fields(&e), ["tightening_method"]);
+    assert_eq!(
+        e.0[0].suggestions.first().map(String::as_str),
+        Some("click-wrench")
+    );
+}
+
+#[test]
+fn joint_inputs_become_the_engine_joint() {
+    let snap = Snapshot::seed();
+    let mut r = base();
+    r.clamp_length = Some(mm(40.0));
+    r.joint_type = Some("tapped-hole".into());
+    let got = resolve(&r, &snap).unwrap();
+    let joint = got.input.joint.unwrap();
+    assert_eq!(joint.joint_type, JointType::TappedHole);
+    assert!((joint.clamp_length.unwrap().get::<millimeter>() - 40.0).abs() < 1e-12);
+}
+
+#[test]
+fn engagement_needs_a_material() {
+    let snap = Snapshot::seed();
+    let mut r = base();
+    r.engagement_length = Some(mm(12.0));
+    let e = resolve(&r, &snap).unwrap_err();
+    assert_eq!(fields(&e), ["clamped_material"]);
+    assert_eq!(e.class(), ErrorClass::Invalid);
+}
+
+#[test]
+fn explicit_bearing_replaces_tables() {
+    let snap = Snapshot::seed();
+    let mut r = base();
+    r.bearing = Some(BearingInput {
+        outer_diameter: mm(16.0),
+        inner_diameter: mm(11.0),
+    });
+    let got = resolve(&r, &snap).unwrap();
+    assert!((got.input.bearing.mean_diameter().get::<millimeter>() - 13.5).abs() < 1e-12);
+    r.bearing = Some(BearingInput {
+        outer_diameter: mm(10.0),
+        inner_diameter: mm(11.0),
+    });
+    let e = resolve(&r, &snap).unwrap_err();
+    assert!(fields(&e)[0].starts_with("bearing."), "{e:?}");
+}

@@ -1,0 +1,136 @@
+//! The compact answer a tool controller needs: target, lower and upper
+//! torque in its unit, rounded to its resolution without leaving the window
+//! (see [`super::rounding`]), plus the angle window when the method is
+//! angle- or yield-controlled, the catalogue revision and the spec hash.
+
+use serde::Serialize;
+use utoipa::ToSchema;
+
+use crate::engine::angle::AngleOutcome;
+use crate::engine::spec::Spec;
+use crate::http::quantity::{Quantity, TorqueUnit};
+
+use super::item_error::{ItemError, ItemErrors};
+use super::resolve::Resolved;
+use super::rounding::{round_window, RoundingError};
+
+/// Default torque resolution of a tool, in its torque unit.
+pub const DEFAULT_RESOLUTION: f64 = 0.1;
+/// Default angle resolution of a tool, in degrees.
+pub const DEFAULT_ANGLE_RESOLUTION: f64 = 1.0;
+
+/// The angle window to program, from snug torque.
+#[derive(Debug, Clone, Serialize, ToSchema)]
+pub struct SetpointAngle {
+    /// Snug torque, rounded to the torque resolution.
+    pub snug_torque: Quantity,
+    /// Smallest angle from snug (rounded up).
+    pub min: Quantity,
+    /// Largest angle from snug (rounded down).
+    pub max: Quantity,
+    /// Angle resolution used, in degrees.
+    pub resolution: f64,
+}
+
+/// Tool setpoints for one spec.
+#[derive(Debug, Clone, Serialize, ToSchema)]
+pub struct SetpointResponse {
+    /// Normalised thread designation.
+    pub thread: String,
+    pub property_class: String,
+    /// Tightening method id.
+    pub tightening_method: &'static str,
+    /// `N·m`, `lbf·ft` or `lbf·in`.
+    pub torque_unit: &'static str,
+    /// Torque resolution used, in `torque_unit`.
+    pub resolution: f64,
+    /// Target torque: nearest step, kept inside `[lower, upper]`.
+    pub target: Quantity,
+    /// Lower torque limit, rounded up.
+    pub lower: Quantity,
+    /// Upper torque limit, rounded down.
+    pub upper: Quantity,
+    /// Present when the method is angle- or yield-controlled.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub angle: Option<SetpointAngle>,
+    pub catalogue_revision: i64,
+    /// True when the database is unreachable and the catalogue may be stale.
+    pub catalogue_may_be_stale: bool,
+    /// SHA-256 (hex) of the normalised request and catalogue revision; the
+    /// same as `spec_hash` of the full spec.
+    pub spec_hash: String,
+    /// The two cautions every spec carries, in short.
+    pub cautions: Vec<&'static str>,
+}
+
+fn rounding_problem(field: &str, e: RoundingError) -> ItemError {
+    ItemError::invalid(field, e.to_string())
+}
+
+/// The setpoints of a computed spec.
+pub fn setpoints(
+    spec: &Spec,
+    resolved: &Resolved,
+    unit: TorqueUnit,
+    resolution: Option<f64>,
+    angle_resolution: Option<f64>,
+    stale: bool,
+) -> Result<SetpointResponse, ItemErrors> {
+    let res = resolution.unwrap_or(DEFAULT_RESOLUTION);
+    let angle_res = angle_resolution.unwrap_or(DEFAULT_ANGLE_RESOLUTION);
+    let w = &spec.window;
+    let value = |t| Quantity::torque_in(t, unit).value;
+    let rounded = round_window(value(w.lower), value(w.target), value(w.upper), res)
+        .map_err(|e| ItemErrors::from(rounding_problem("resolution", e)))?;
+    let sym = unit.symbol();
+    let q = |v: f64| Quantity::new(v, sym);
+
+    let angle = if spec.method.torque_controlled {
+        None
+    } else {
+        match &spec.angle {
+            AngleOutcome::Computed(a) => {
+                let lo = a.angle_min.get::<uom::si::angle::degree>();
+                let hi = a.angle_max.get::<uom::si::angle::degree>();
+                let r = round_window(lo, (lo + hi) / 2.0, hi, angle_res)
+                    .map_err(|e| ItemErrors::from(rounding_problem("angle_resolution", e)))?;
+                let snug = value(a.snug_torque);
+                let steps = (snug / res).round();
+                let d = super::rounding::decimals(res) as i32;
+                let scale = 10f64.powi(d);
+                Some(SetpointAngle {
+                    snug_torque: q((steps * res * scale).round() / scale),
+                    min: Quantity::new(r.lower, "degrees"),
+                    max: Quantity::new(r.upper, "degrees"),
+                    resolution: angle_res,
+                })
+            }
+            AngleOutcome::NotComputed { reason } => {
+                return Err(ItemError::invalid(
+                    "clamp_length",
+                    format!(
+                        "the {} method is set by angle, but no angle window could be \
+                         computed: {reason}",
+                        spec.method.id
+                    ),
+                )
+                .into())
+            }
+        }
+    };
+    Ok(SetpointResponse {
+        thread: spec.thread.designation.clone(),
+        property_class: spec.strength.id.clone(),
+        tightening_method: spec.method.id,
+        torque_unit: sym,
+        resolution: res,
+        target: q(rounded.target),
+        lower: q(rounded.lower),
+        upper: q(rounded.upper),
+        angle,
+        catalogue_revision: resolved.revision,
+        catalogue_may_be_stale: stale,
+        spec_hash: resolved.content_hash.clone(),
+        cautions: spec.cautions.iter().take(2).copied().collect(),
+    })
+}

@@ -1,0 +1,179 @@
+//! `GET /v1/setpoints`: tool units and their spellings, rounding that never
+//! leaves the spec's window, the spec hash, caching and errors.
+
+use crate::specs_support::{json, problem_fields, spawn, value};
+
+const Q: &str = "thread=M10&property_class=8.8&finish=zinc-electroplated&lubricant=none";
+
+/// 1 lbf·ft = 1.355 818 N·m, 1 lbf·in = 0.112 985 N·m (NIST SP 811, App. B).
+const NM_PER_LBF_FT: f64 = 1.355_818;
+const NM_PER_LBF_IN: f64 = 0.112_985;
+
+#[tokio::test]
+async fn rounding_never_leaves_the_window() {
+    let app = spawn().await;
+    let threads = [
+        ("M6", "8.8"),
+        ("M10", "8.8"),
+        ("M12", "10.9"),
+        ("M16", "12.9"),
+        ("1/4-20%20UNC", "sae-j429-5"),
+    ];
+    let units = [
+        ("N%C2%B7m", "N·m", 1.0),
+        ("lbf.ft", "lbf·ft", NM_PER_LBF_FT),
+        ("lbf.in", "lbf·in", NM_PER_LBF_IN),
+    ];
+    let resolutions = [0.01, 0.05, 0.1, 0.2, 0.25, 0.5, 1.0];
+    for (thread, grade) in threads {
+        let base = format!(
+            "thread={thread}&property_class={grade}&finish=zinc-electroplated&lubricant=none"
+        );
+        let (st, spec) = json(app.get(&format!("/v1/tightening-specs?{base}")).await).await;
+        assert_eq!(st, 200, "{spec}");
+        let lower = value(&spec["torque"]["lower"], "N·m");
+        let upper = value(&spec["torque"]["upper"], "N·m");
+        for (param, symbol, nm_per_unit) in units {
+            for res in resolutions {
+                let url = format!("/v1/setpoints?{base}&torque_unit={param}&resolution={res}");
+                let (st, sp) = json(app.get(&url).await).await;
+                if st == 422 {
+                    // Only when no step of the resolution fits in the window.
+                    assert!((upper - lower) / nm_per_unit < res * 1.0001, "{url}: {sp}");
+                    assert_eq!(problem_fields(&sp), ["resolution"]);
+                    continue;
+                }
+                assert_eq!(st, 200, "{url}: {sp}");
+                assert_eq!(sp["torque_unit"], symbol);
+                let lo = value(&sp["lower"], symbol);
+                let tg = value(&sp["target"], symbol);
+                let up = value(&sp["upper"], symbol);
+                // Converted back with uom's factors the limits stay inside;
+                // the tolerance covers only the printed conversion factor.
+                let eps = 1e-6;
+                assert!(
+                    lo * nm_per_unit >= lower * (1.0 - eps),
+                    "{url}: {lo} vs {lower}"
+                );
+                assert!(
+                    up * nm_per_unit <= upper * (1.0 + eps),
+                    "{url}: {up} vs {upper}"
+                );
+                assert!(lo <= tg && tg <= up, "{url}: {lo} {tg} {up}");
+                for v in [lo, tg, up] {
+                    let steps = v / res;
+                    assert!(
+                        (steps - steps.round()).abs() < 1e-6,
+                        "{url}: {v} not a step of {res}"
+                    );
+                }
+                assert_eq!(sp["spec_hash"], spec["spec_hash"]);
+            }
+        }
+    }
+}
+
+#[tokio::test]
+async fn torque_unit_spellings() {
+    let app = spawn().await;
+    for (given, symbol) in [
+        ("N%C2%B7m", "N·m"),
+        ("N.m", "N·m"),
+        ("Nm", "N·m"),
+        ("lbf%C2%B7ft", "lbf·ft"),
+        ("lbf.ft", "lbf·ft"),
+        ("lbf%C2%B7in", "lbf·in"),
+        ("lbf.in", "lbf·in"),
+    ] {
+        let (st, sp) = json(
+            app.get(&format!("/v1/setpoints?{Q}&torque_unit={given}"))
+                .await,
+        )
+        .await;
+        assert_eq!(
+            (st, sp["torque_unit"].as_str()),
+            (200, Some(symbol)),
+            "{given}: {sp}"
+        );
+    }
+    let (st, sp) = json(app.get(&format!("/v1/setpoints?{Q}")).await).await;
+    assert_eq!(
+        (st, sp["torque_unit"].as_str(), sp["resolution"].as_f64()),
+        (200, Some("N·m"), Some(0.1))
+    );
+    assert_eq!(sp["catalogue_revision"], 1);
+    assert!(sp.get("angle").is_none(), "torque-controlled: no angle");
+}
+
+#[tokio::test]
+async fn angle_window_for_torque_angle_tightening() {
+    let app = spawn().await;
+    let base = format!("/v1/setpoints?{Q}&tightening_method=torque-angle");
+    let (st, p) = json(app.get(&base).await).await;
+    assert_eq!(
+        (st, problem_fields(&p)),
+        (422, vec!["clamp_length".to_string()]),
+        "{p}"
+    );
+    let url = format!(
+        "{base}&clamp_length=40mm&joint_outer_diameter=30mm&clamped_material=steel-s355\
+         &angle_resolution=0.5"
+    );
+    let (st, sp) = json(app.get(&url).await).await;
+    assert_eq!(st, 200, "{sp}");
+    let a = &sp["angle"];
+    let (lo, hi) = (value(&a["min"], "degrees"), value(&a["max"], "degrees"));
+    assert!(0.0 < lo && lo <= hi, "{a}");
+    assert_eq!(a["resolution"], 0.5);
+    for v in [lo, hi] {
+        assert!((v * 2.0 - (v * 2.0).round()).abs() < 1e-9, "{v}");
+    }
+    // Inside the spec's own angle window.
+    let spec_url = url
+        .replace("/v1/setpoints?", "/v1/tightening-specs?")
+        .replace("&angle_resolution=0.5", "");
+    let (_, spec) = json(app.get(&spec_url).await).await;
+    assert!(lo >= value(&spec["angle"]["min"], "degrees"));
+    assert!(hi <= value(&spec["angle"]["max"], "degrees"));
+}
+
+#[tokio::test]
+async fn errors_and_caching() {
+    let app = spawn().await;
+    let (st, p) = json(
+        app.get(&format!("/v1/setpoints?{Q}&torque_unit=kgf.m"))
+            .await,
+    )
+    .await;
+    assert_eq!(st, 400, "{p}");
+    assert!(problem_fields(&p)[0].starts_with("torque_unit"), "{p}");
+    let (st, p) = json(app.get(&format!("/v1/setpoints?{Q}&resolution=0")).await).await;
+    assert_eq!(
+        (st, problem_fields(&p)),
+        (422, vec!["resolution".to_string()])
+    );
+    let (st, p) = json(app.get(&format!("/v1/setpoints?{Q}&resolution=100")).await).await;
+    assert_eq!(
+        (st, problem_fields(&p)),
+        (422, vec!["resolution".to_string()])
+    );
+    let (st, p) = json(app.get(&format!("/v1/setpoints?{Q}&resolutoin=0.1")).await).await;
+    assert_eq!(
+        (st, problem_fields(&p)),
+        (400, vec!["resolutoin".to_string()])
+    );
+
+    let url = format!("/v1/setpoints?{Q}&resolution=0.5");
+    let r = app.get(&url).await;
+    let tag = r.headers()["etag"].to_str().unwrap().to_string();
+    let r = app.get_with(&url, ("if-none-match", &tag)).await;
+    assert_eq!(r.status().as_u16(), 304);
+    // Another resolution is another representation.
+    let r = app
+        .get_with(
+            &format!("/v1/setpoints?{Q}&resolution=0.1"),
+            ("if-none-match", &tag),
+        )
+        .await;
+    assert_eq!(r.status().as_u16(), 200);
+}

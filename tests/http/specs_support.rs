@@ -1,0 +1,85 @@
+//! Helpers shared by the spec, setpoint and batch tests: a running server
+//! and small JSON accessors.
+
+use reqwest::{Client, Response};
+use serde_json::Value;
+use tightspec::config::Config;
+use tightspec::startup::Application;
+
+pub struct SpecApp {
+    pub base: String,
+    pub client: Client,
+}
+
+/// Starts the real server on a free loopback port with the seed catalogue.
+pub async fn spawn() -> SpecApp {
+    let app = Application::build(Config::local())
+        .await
+        .expect("the service starts");
+    let base = format!("http://127.0.0.1:{}", app.port());
+    tokio::spawn(app.run_until_stopped());
+    SpecApp {
+        base,
+        client: Client::new(),
+    }
+}
+
+impl SpecApp {
+    pub async fn get(&self, path_and_query: &str) -> Response {
+        self.client
+            .get(format!("{}{path_and_query}", self.base))
+            .send()
+            .await
+            .expect("request sent")
+    }
+
+    pub async fn get_with(&self, path_and_query: &str, header: (&str, &str)) -> Response {
+        self.client
+            .get(format!("{}{path_and_query}", self.base))
+            .header(header.0, header.1)
+            .send()
+            .await
+            .expect("request sent")
+    }
+
+    pub async fn post_json(&self, path: &str, body: &Value) -> Response {
+        self.client
+            .post(format!("{}{path}", self.base))
+            .json(body)
+            .send()
+            .await
+            .expect("request sent")
+    }
+}
+
+/// Status and JSON body.
+pub async fn json(r: Response) -> (u16, Value) {
+    let status = r.status().as_u16();
+    let body = r.json::<Value>().await.unwrap_or(Value::Null);
+    (status, body)
+}
+
+/// The `value` of a quantity, checking it has the expected unit.
+pub fn value(q: &Value, unit: &str) -> f64 {
+    assert_eq!(q["unit"], unit, "unit of {q}");
+    q["value"]
+        .as_f64()
+        .unwrap_or_else(|| panic!("no value in {q}"))
+}
+
+/// The fields a problem names, in order.
+pub fn problem_fields(p: &Value) -> Vec<String> {
+    p["errors"]
+        .as_array()
+        .map(|a| {
+            a.iter()
+                .map(|e| e["field"].as_str().unwrap_or_default().to_string())
+                .collect()
+        })
+        .unwrap_or_default()
+}
+
+/// Relative difference.
+pub fn rel(a: f64, b: f64) -> f64 {
+    (a - b).abs() / b.abs()
+}
