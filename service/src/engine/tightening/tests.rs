@@ -384,6 +384,13 @@ proptest! {
         prop_assert!((back.value / f.value - 1.0).abs() < 1e-9);
         let mu_back = thread_friction_from_torque(&t, m, f, dkm, mb).unwrap();
         prop_assert!((mu_back - mu).abs() < 1e-9);
+        let mut trap = t.clone();
+        trap.flank_angle = uom::si::f64::Angle::new::<uom::si::angle::degree>(30.0);
+        let m = tightening_torque(&trap, f, dkm, mu, mb, zero());
+        let back = preload_at_torque(&trap, m, dkm, mu, mb, zero());
+        prop_assert!((back.value / f.value - 1.0).abs() < 1e-9);
+        let mu_back = thread_friction_from_torque(&trap, m, f, dkm, mb).unwrap();
+        prop_assert!((mu_back - mu).abs() < 1e-9);
         let s = combined_stress(&t, permissible_preload(&t, mpa(640.0), Utilisation::DEFAULT, mu), mu);
         prop_assert!((s.value / (0.9 * 640e6) - 1.0).abs() < 1e-9);
     }
