@@ -1,1 +1,207 @@
 //! Wiring: builds the application from configuration.
+//!
+//! [`Application::build`] binds the listen address (port 0 picks a free
+//! one, see [`Application::port`]) and [`Application::run_until_stopped`]
+//! serves until SIGTERM/SIGINT, letting in-flight requests finish within
+//! the configured shutdown timeout. [`routes`] is the one place where every
+//! HTTP module registers its handlers; the OpenAPI document is generated
+//! from exactly these registrations.
+
+use std::net::TcpListener;
+use std::sync::Arc;
+use std::time::Duration;
+
+use actix_web::body::MessageBody;
+use actix_web::dev::{Server, ServiceFactory, ServiceRequest, ServiceResponse};
+use actix_web::middleware::from_fn;
+use actix_web::{web, App, HttpServer};
+use utoipa_actix_web::service_config::ServiceConfig;
+use utoipa_actix_web::AppExt;
+
+use crate::config::Config;
+use crate::http::catalogue::CatalogueWiring;
+use crate::http::error::ApiError;
+use crate::http::metrics::Metrics;
+use crate::http::state::AppState;
+use crate::http::{extract, health, metrics, openapi, reference, request_id};
+
+/// Why the service could not start.
+#[derive(Debug, thiserror::Error)]
+pub enum StartupError {
+    #[error("cannot listen on {addr}: {source}")]
+    Bind {
+        addr: String,
+        source: std::io::Error,
+    },
+    #[error("metrics: {0}")]
+    Metrics(#[from] prometheus::Error),
+    #[error("openapi document: {0}")]
+    OpenApi(#[from] serde_json::Error),
+    #[error("catalogue store: {0}")]
+    Store(#[from] crate::store::StoreError),
+}
+
+/// Every route of the service. Each HTTP module exposes
+/// `pub fn configure(cfg: &mut ServiceConfig)` and is called here.
+pub fn routes(cfg: &mut ServiceConfig) {
+    health::configure(cfg);
+    reference::configure(cfg);
+    crate::http::catalogue::configure(cfg);
+    crate::http::friction_tests::configure(cfg);
+    crate::http::specs::configure(cfg);
+}
+
+/// The application for one worker: routes, extractor error handlers,
+/// middleware (request id outermost, then metrics) and the 404 fallback.
+pub fn app(
+    state: AppState,
+) -> App<
+    impl ServiceFactory<
+        ServiceRequest,
+        Config = (),
+        Response = ServiceResponse<impl MessageBody>,
+        Error = actix_web::Error,
+        InitError = (),
+    >,
+> {
+    let limit = state.config.max_body_bytes;
+    let (app, _api) = App::new()
+        .into_utoipa_app()
+        .configure(routes)
+        .split_for_parts();
+    let catalogue_service = state.catalogue_service.clone();
+    let auth = state.auth.clone();
+    app.app_data(web::Data::new(state))
+        .app_data(catalogue_service)
+        .app_data(auth)
+        .app_data(extract::json_config(limit))
+        .app_data(extract::query_config())
+        .app_data(extract::path_config())
+        .app_data(extract::payload_config(limit))
+        .route("/openapi.json", web::get().to(openapi::serve))
+        .default_service(web::to(not_found))
+        .wrap(from_fn(metrics::middleware))
+        .wrap(from_fn(request_id::middleware))
+}
+
+async fn not_found(req: actix_web::HttpRequest) -> Result<actix_web::HttpResponse, ApiError> {
+    Err(ApiError::not_found(format!(
+        "no resource at {} {}; see /openapi.json for the routes",
+        req.method(),
+        req.path()
+    )))
+}
+
+/// A bound, not yet running service.
+pub struct Application {
+    port: u16,
+    server: Server,
+    state: AppState,
+    watcher: Option<tokio::task::JoinHandle<()>>,
+}
+
+impl Application {
+    /// Opens the catalogue store (`config.database_url`, default embedded
+    /// SQLite; migrations and seed applied), starts the watcher that keeps
+    /// the in-memory catalogue current, binds `config.listen` and prepares
+    /// the server.
+    pub async fn build(config: Config) -> Result<Self, StartupError> {
+        let wiring =
+            CatalogueWiring::open(config.database_url.as_deref(), config.anonymous_reads).await?;
+        let metrics = Metrics::new()?;
+        let openapi_json: Arc<str> = openapi::document_json()?.into();
+        let state = AppState::new(
+            config,
+            metrics,
+            openapi_json,
+            wiring.service.clone(),
+            wiring.auth.clone(),
+        );
+        let mut app = Self::build_with_state(state)?;
+        app.watcher = Some(wiring.watcher);
+        Ok(app)
+    }
+
+    /// Binds and prepares the server for prepared state (tests and store
+    /// wiring use it).
+    pub fn build_with_state(state: AppState) -> Result<Self, StartupError> {
+        let config = Arc::clone(&state.config);
+        let listener = TcpListener::bind(&config.listen).map_err(|source| StartupError::Bind {
+            addr: config.listen.clone(),
+            source,
+        })?;
+        let port = listener
+            .local_addr()
+            .map_err(|source| StartupError::Bind {
+                addr: config.listen.clone(),
+                source,
+            })?
+            .port();
+        let factory_state = state.clone();
+        let mut server = HttpServer::new(move || app(factory_state.clone()))
+            .shutdown_timeout(config.shutdown_timeout_secs)
+            .client_request_timeout(Duration::from_secs(30));
+        if config.workers > 0 {
+            server = server.workers(config.workers);
+        }
+        let server = server
+            .listen(listener)
+            .map_err(|source| StartupError::Bind {
+                addr: config.listen.clone(),
+                source,
+            })?
+            .run();
+        tracing::info!(port, "listening");
+        Ok(Self {
+            port,
+            server,
+            state,
+            watcher: None,
+        })
+    }
+
+    /// The port actually bound.
+    pub fn port(&self) -> u16 {
+        self.port
+    }
+
+    /// The shared state (catalogue, metrics, config).
+    pub fn state(&self) -> &AppState {
+        &self.state
+    }
+
+    /// A handle to stop the server (tests stop instances with it).
+    pub fn server_handle(&self) -> actix_web::dev::ServerHandle {
+        self.server.handle()
+    }
+
+    /// Serves until SIGTERM/SIGINT (actix handles both signals and stops
+    /// gracefully), then stops the catalogue watcher.
+    pub async fn run_until_stopped(self) -> std::io::Result<()> {
+        let result = self.server.await;
+        if let Some(watcher) = self.watcher {
+            watcher.abort();
+        }
+        result
+    }
+}
+
+/// Logging: human-readable by default, JSON lines with
+/// `TIGHTSPEC_LOG_FORMAT=json`; filter by `RUST_LOG` (default `info`).
+/// Safe to call more than once (later calls do nothing).
+pub fn init_logging() {
+    init_logging_with(
+        tracing_subscriber::EnvFilter::try_from_default_env().unwrap_or_else(|_| "info".into()),
+    );
+}
+
+/// Logging with an explicit filter (tests pass their own).
+pub fn init_logging_with(filter: tracing_subscriber::EnvFilter) {
+    let json = std::env::var("TIGHTSPEC_LOG_FORMAT").is_ok_and(|v| v.eq_ignore_ascii_case("json"));
+    let builder = tracing_subscriber::fmt().with_env_filter(filter);
+    let _ = if json {
+        builder.json().with_current_span(true).try_init()
+    } else {
+        builder.try_init()
+    };
+}

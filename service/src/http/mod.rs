@@ -1,2 +1,19 @@
-//! http
+//! The HTTP layer (actix-web): thin handlers over the engine and the
+//! catalogue. Infrastructure: `error` (problem responses), `extract`
+//! (extractor error handlers), `request_id`, `metrics`, `state`,
+//! `quantity` (wire quantities), `openapi`. Routes: `health`, `reference`,
+//! and the feature modules, all registered in `crate::startup::routes`.
+
+pub mod auth;
+pub mod catalogue;
+pub mod error;
+pub mod extract;
 pub mod friction_tests;
+pub mod health;
+pub mod metrics;
+pub mod openapi;
+pub mod quantity;
+pub mod reference;
+pub mod request_id;
+pub mod specs;
+pub mod state;

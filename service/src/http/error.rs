@@ -1,0 +1,391 @@
+//! One crate-wide HTTP error, rendered as RFC 9457 problem details
+//! (`application/problem+json`).
+//!
+//! Problem `type` values are relative URI references of the form
+//! `/problems/<slug>` (RFC 9457 §3.1.1 allows relative references; they
+//! resolve against the service's own base URL). Every body carries
+//! `type`, `title`, `status`, `detail`, `instance` (the request path),
+//! `request_id` (the same value as the `X-Request-Id` response header) and
+//! `errors`: one entry per bad field with the reason and, for unknown
+//! names, the nearest known ones.
+//!
+//! 5xx errors are logged with their cause; the client only ever sees a
+//! generic detail.
+
+use actix_web::http::header::{self, HeaderValue};
+use actix_web::http::StatusCode;
+use actix_web::{HttpResponse, ResponseError};
+use serde::Serialize;
+use utoipa::ToSchema;
+
+use crate::engine::EngineError;
+
+/// Media type of every error body (RFC 9457 §3).
+pub const PROBLEM_JSON: &str = "application/problem+json";
+
+/// One bad field and why.
+#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
+pub struct FieldError {
+    /// The request field, as the client wrote it (`thread`, `body`,
+    /// `torque_unit`, a JSON path such as `thread_friction.min`, ...).
+    pub field: String,
+    /// Why the value was refused, in plain words.
+    pub reason: String,
+    /// Nearest known names, best first (only for unknown names).
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub suggestions: Vec<String>,
+}
+
+impl FieldError {
+    pub fn new(field: impl Into<String>, reason: impl Into<String>) -> Self {
+        Self {
+            field: field.into(),
+            reason: reason.into(),
+            suggestions: Vec::new(),
+        }
+    }
+
+    pub fn with_suggestions(mut self, suggestions: Vec<String>) -> Self {
+        self.suggestions = suggestions;
+        self
+    }
+}
+
+/// An RFC 9457 problem details object. Also used in place of a result
+/// inside batch responses.
+#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
+pub struct Problem {
+    /// Relative URI reference `/problems/<slug>` identifying the problem type.
+    #[serde(rename = "type")]
+    pub problem_type: String,
+    /// Short, fixed summary of the problem type.
+    pub title: String,
+    /// The HTTP status code.
+    pub status: u16,
+    /// What went wrong with this request.
+    pub detail: String,
+    /// The request path this problem occurred on.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub instance: Option<String>,
+    /// The request id (same as the `X-Request-Id` header).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub request_id: Option<String>,
+    /// Every bad field and why.
+    pub errors: Vec<FieldError>,
+    /// For 412: the current state of the resource, so the client can merge.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    #[schema(value_type = Option<Object>)]
+    pub current: Option<serde_json::Value>,
+}
+
+/// Every way a request can fail.
+#[derive(Debug, thiserror::Error)]
+pub enum ApiError {
+    /// 400: the request cannot be read (bad JSON, bad number, bad unit).
+    #[error("malformed request: {detail}")]
+    Malformed {
+        detail: String,
+        errors: Vec<FieldError>,
+    },
+    /// 400: a query parameter the endpoint does not know (a typo such as
+    /// `thred=` must never be silently ignored).
+    #[error("unknown query parameter '{name}'")]
+    UnknownParameter {
+        name: String,
+        suggestions: Vec<String>,
+    },
+    /// 401: no credentials or credentials not accepted.
+    #[error("unauthorized: {detail}")]
+    Unauthorized { detail: String },
+    /// 403: authenticated but not allowed.
+    #[error("forbidden: {detail}")]
+    Forbidden { detail: String },
+    /// 404: the resource or a named thing does not exist.
+    #[error("not found: {detail}")]
+    NotFound {
+        detail: String,
+        errors: Vec<FieldError>,
+    },
+    /// 406: no acceptable representation for the `Accept` header.
+    #[error("not acceptable: {detail}")]
+    NotAcceptable { detail: String },
+    /// 409: the change conflicts with the current state.
+    #[error("conflict: {detail}")]
+    Conflict {
+        detail: String,
+        errors: Vec<FieldError>,
+    },
+    /// 412: `If-Match` did not match; `current` may carry the current state.
+    #[error("precondition failed: {detail}")]
+    PreconditionFailed {
+        detail: String,
+        current: Option<serde_json::Value>,
+    },
+    /// 413: the body is larger than the stated limit.
+    #[error("payload too large: limit {limit_bytes} bytes")]
+    PayloadTooLarge { limit_bytes: usize },
+    /// 415: the body's media type is not accepted.
+    #[error("unsupported media type: {detail}")]
+    UnsupportedMediaType { detail: String },
+    /// 422: well-formed but invalid (engineering) input; every problem listed.
+    #[error("unprocessable: {detail}")]
+    Unprocessable {
+        detail: String,
+        errors: Vec<FieldError>,
+    },
+    /// 428: the request must be conditional (`If-Match` missing).
+    #[error("precondition required: {detail}")]
+    PreconditionRequired { detail: String },
+    /// 503: a dependency (the database) is unavailable; retry later.
+    #[error("service unavailable: {detail}")]
+    Unavailable {
+        detail: String,
+        retry_after_secs: u64,
+    },
+    /// 500: a fault on our side. The message is logged, never sent.
+    #[error("internal error: {0}")]
+    Internal(String),
+}
+
+impl ApiError {
+    /// 400 for one field.
+    pub fn malformed(field: impl Into<String>, reason: impl Into<String>) -> Self {
+        let e = FieldError::new(field, reason);
+        Self::Malformed {
+            detail: format!("{}: {}", e.field, e.reason),
+            errors: vec![e],
+        }
+    }
+
+    /// 422 for one field.
+    pub fn invalid(field: impl Into<String>, reason: impl Into<String>) -> Self {
+        Self::unprocessable(vec![FieldError::new(field, reason)])
+    }
+
+    /// 422 listing every problem found.
+    pub fn unprocessable(errors: Vec<FieldError>) -> Self {
+        let detail = summarise("the request is not valid", &errors);
+        Self::Unprocessable { detail, errors }
+    }
+
+    /// 404 for an unknown name in a field, with the nearest known names.
+    pub fn unknown(
+        field: impl Into<String>,
+        kind: &str,
+        given: &str,
+        suggestions: Vec<String>,
+    ) -> Self {
+        let field = field.into();
+        let reason = format!("unknown {kind} '{given}'");
+        Self::NotFound {
+            detail: format!("{field}: {reason}"),
+            errors: vec![FieldError::new(field, reason).with_suggestions(suggestions)],
+        }
+    }
+
+    /// 404 for a resource addressed by the path.
+    pub fn not_found(detail: impl Into<String>) -> Self {
+        Self::NotFound {
+            detail: detail.into(),
+            errors: Vec::new(),
+        }
+    }
+
+    fn slug_and_title(&self) -> (&'static str, &'static str) {
+        match self {
+            Self::Malformed { .. } => ("malformed-request", "Malformed request"),
+            Self::UnknownParameter { .. } => ("unknown-parameter", "Unknown query parameter"),
+            Self::Unauthorized { .. } => ("unauthorized", "Authentication required"),
+            Self::Forbidden { .. } => ("forbidden", "Not allowed"),
+            Self::NotFound { .. } => ("not-found", "Not found"),
+            Self::NotAcceptable { .. } => ("not-acceptable", "Not acceptable"),
+            Self::Conflict { .. } => ("conflict", "Conflict"),
+            Self::PreconditionFailed { .. } => ("precondition-failed", "Precondition failed"),
+            Self::PayloadTooLarge { .. } => ("payload-too-large", "Payload too large"),
+            Self::UnsupportedMediaType { .. } => {
+                ("unsupported-media-type", "Unsupported media type")
+            }
+            Self::Unprocessable { .. } => ("invalid-input", "Invalid input"),
+            Self::PreconditionRequired { .. } => ("precondition-required", "Precondition required"),
+            Self::Unavailable { .. } => ("unavailable", "Service unavailable"),
+            Self::Internal(_) => ("internal-error", "Internal error"),
+        }
+    }
+
+    /// The problem object for this error, without request context. Batch
+    /// endpoints put it in place of a failed item.
+    pub fn problem(&self) -> Problem {
+        let (slug, title) = self.slug_and_title();
+        let status = self.status_code().as_u16();
+        let mut errors = Vec::new();
+        let mut current = None;
+        let detail = match self {
+            Self::Malformed { detail, errors: e }
+            | Self::NotFound { detail, errors: e }
+            | Self::Conflict { detail, errors: e }
+            | Self::Unprocessable { detail, errors: e } => {
+                errors = e.clone();
+                detail.clone()
+            }
+            Self::UnknownParameter { name, suggestions } => {
+                let reason = "unknown query parameter; it would be ignored, so it is refused";
+                errors.push(
+                    FieldError::new(name.clone(), reason).with_suggestions(suggestions.clone()),
+                );
+                format!("unknown query parameter '{name}'")
+            }
+            Self::Unauthorized { detail }
+            | Self::Forbidden { detail }
+            | Self::NotAcceptable { detail }
+            | Self::UnsupportedMediaType { detail }
+            | Self::PreconditionRequired { detail } => detail.clone(),
+            Self::PreconditionFailed { detail, current: c } => {
+                current = c.clone();
+                detail.clone()
+            }
+            Self::PayloadTooLarge { limit_bytes } => {
+                errors.push(FieldError::new(
+                    "body",
+                    format!("larger than the limit of {limit_bytes} bytes"),
+                ));
+                format!("the request body is larger than the limit of {limit_bytes} bytes")
+            }
+            Self::Unavailable { detail, .. } => detail.clone(),
+            Self::Internal(_) => {
+                "an internal error occurred; it has been logged with the request id".to_string()
+            }
+        };
+        Problem {
+            problem_type: format!("/problems/{slug}"),
+            title: title.to_string(),
+            status,
+            detail,
+            instance: None,
+            request_id: None,
+            errors,
+            current,
+        }
+    }
+}
+
+fn summarise(lead: &str, errors: &[FieldError]) -> String {
+    if errors.is_empty() {
+        return lead.to_string();
+    }
+    let parts: Vec<String> = errors
+        .iter()
+        .map(|e| format!("{}: {}", e.field, e.reason))
+        .collect();
+    format!("{lead}: {}", parts.join("; "))
+}
+
+impl ResponseError for ApiError {
+    fn status_code(&self) -> StatusCode {
+        match self {
+            Self::Malformed { .. } | Self::UnknownParameter { .. } => StatusCode::BAD_REQUEST,
+            Self::Unauthorized { .. } => StatusCode::UNAUTHORIZED,
+            Self::Forbidden { .. } => StatusCode::FORBIDDEN,
+            Self::NotFound { .. } => StatusCode::NOT_FOUND,
+            Self::NotAcceptable { .. } => StatusCode::NOT_ACCEPTABLE,
+            Self::Conflict { .. } => StatusCode::CONFLICT,
+            Self::PreconditionFailed { .. } => StatusCode::PRECONDITION_FAILED,
+            Self::PayloadTooLarge { .. } => StatusCode::PAYLOAD_TOO_LARGE,
+            Self::UnsupportedMediaType { .. } => StatusCode::UNSUPPORTED_MEDIA_TYPE,
+            Self::Unprocessable { .. } => StatusCode::UNPROCESSABLE_ENTITY,
+            Self::PreconditionRequired { .. } => StatusCode::PRECONDITION_REQUIRED,
+            Self::Unavailable { .. } => StatusCode::SERVICE_UNAVAILABLE,
+            Self::Internal(_) => StatusCode::INTERNAL_SERVER_ERROR,
+        }
+    }
+
+    fn error_response(&self) -> HttpResponse {
+        let ctx = super::request_id::current();
+        if let Self::Internal(cause) = self {
+            tracing::error!(request_id = ctx.as_ref().map(|c| c.id.as_str()), %cause, "internal error");
+        } else if let Self::Unavailable { detail, .. } = self {
+            tracing::warn!(request_id = ctx.as_ref().map(|c| c.id.as_str()), %detail, "unavailable");
+        }
+        let mut problem = self.problem();
+        if let Some(ctx) = ctx {
+            problem.instance = Some(ctx.path);
+            problem.request_id = Some(ctx.id);
+        }
+        let mut builder = HttpResponse::build(self.status_code());
+        builder.insert_header((header::CONTENT_TYPE, HeaderValue::from_static(PROBLEM_JSON)));
+        match self {
+            Self::Unavailable {
+                retry_after_secs, ..
+            } => {
+                builder.insert_header((header::RETRY_AFTER, retry_after_secs.to_string()));
+            }
+            Self::Unauthorized { .. } => {
+                builder.insert_header((header::WWW_AUTHENTICATE, "Bearer"));
+            }
+            _ => {}
+        }
+        match serde_json::to_vec(&problem) {
+            Ok(body) => builder.body(body),
+            // Serialising a struct of strings cannot fail; answer plainly if it ever does.
+            Err(_) => builder.body(r#"{"type":"/problems/internal-error","title":"Internal error","status":500,"detail":"","errors":[]}"#),
+        }
+    }
+}
+
+impl From<EngineError> for ApiError {
+    fn from(e: EngineError) -> Self {
+        match e {
+            EngineError::Malformed { field, reason } => Self::malformed(field, reason),
+            EngineError::Unknown {
+                field,
+                kind,
+                given,
+                suggestions,
+            } => Self::unknown(field, kind, &given, suggestions),
+            EngineError::Invalid {
+                field,
+                reason,
+                suggestions,
+            } => Self::unprocessable(vec![
+                FieldError::new(field, reason).with_suggestions(suggestions)
+            ]),
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn engine_errors_map_to_their_status() {
+        let bad: ApiError = EngineError::malformed("thread", "no size").into();
+        assert_eq!(bad.status_code(), StatusCode::BAD_REQUEST);
+        let unknown: ApiError = EngineError::Unknown {
+            field: "thread".into(),
+            kind: "thread",
+            given: "M11".into(),
+            suggestions: vec!["M10".into(), "M12".into()],
+        }
+        .into();
+        assert_eq!(unknown.status_code(), StatusCode::NOT_FOUND);
+        let p = unknown.problem();
+        assert_eq!(p.errors[0].field, "thread");
+        assert_eq!(p.errors[0].suggestions, vec!["M10", "M12"]);
+        let invalid: ApiError = EngineError::invalid("property_class", "outside size range").into();
+        assert_eq!(invalid.status_code(), StatusCode::UNPROCESSABLE_ENTITY);
+        assert_eq!(invalid.problem().problem_type, "/problems/invalid-input");
+    }
+
+    #[test]
+    fn internal_detail_is_generic() {
+        let p = ApiError::Internal("db password wrong at host x".into()).problem();
+        assert!(!p.detail.contains("password"));
+        assert_eq!(p.status, 500);
+    }
+
+    #[test]
+    fn payload_limit_is_stated() {
+        let p = ApiError::PayloadTooLarge { limit_bytes: 1024 }.problem();
+        assert!(p.detail.contains("1024"));
+    }
+}

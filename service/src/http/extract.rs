@@ -1,0 +1,158 @@
+//! Error handlers for actix's JSON, query and path extractors, so that
+//! every deserialisation failure becomes a problem response naming the
+//! field: 400 for unreadable input and unknown query parameters, 413 for
+//! bodies over the limit (stated), 415 for a wrong media type.
+//!
+//! Query structs use `#[serde(deny_unknown_fields)]`; serde then reports
+//! "unknown field `thred`, expected one of `thread`, ...", which is turned
+//! into a 400 naming `thred` and suggesting `thread`.
+
+use actix_web::error::{JsonPayloadError, PathError, QueryPayloadError};
+use actix_web::{web, HttpRequest};
+
+use super::error::{ApiError, FieldError};
+
+/// JSON body extractor settings with the body limit and our error handler.
+pub fn json_config(limit_bytes: usize) -> web::JsonConfig {
+    web::JsonConfig::default()
+        .limit(limit_bytes)
+        .error_handler(move |err, _req: &HttpRequest| json_error(err, limit_bytes).into())
+}
+
+/// Query-string extractor settings with our error handler.
+pub fn query_config() -> web::QueryConfig {
+    web::QueryConfig::default().error_handler(|err, _req: &HttpRequest| query_error(err).into())
+}
+
+/// Path-segment extractor settings with our error handler.
+pub fn path_config() -> web::PathConfig {
+    web::PathConfig::default().error_handler(|err, _req: &HttpRequest| path_error(err).into())
+}
+
+/// Body-size limit for raw `web::Bytes`/`String` bodies.
+pub fn payload_config(limit_bytes: usize) -> web::PayloadConfig {
+    web::PayloadConfig::new(limit_bytes)
+}
+
+pub fn json_error(err: JsonPayloadError, limit_bytes: usize) -> ApiError {
+    match err {
+        JsonPayloadError::Overflow { limit }
+        | JsonPayloadError::OverflowKnownLength { limit, .. } => {
+            ApiError::PayloadTooLarge { limit_bytes: limit }
+        }
+        JsonPayloadError::ContentType => ApiError::UnsupportedMediaType {
+            detail: "the request body must be JSON: send Content-Type: application/json".into(),
+        },
+        JsonPayloadError::Deserialize(e) => {
+            let message = e.to_string();
+            let field = field_in_message(&message).unwrap_or_else(|| "body".to_string());
+            ApiError::malformed(field, message)
+        }
+        JsonPayloadError::Payload(e) => {
+            if matches!(e, actix_web::error::PayloadError::Overflow) {
+                ApiError::PayloadTooLarge { limit_bytes }
+            } else {
+                ApiError::malformed("body", format!("could not read the body: {e}"))
+            }
+        }
+        other => ApiError::malformed("body", other.to_string()),
+    }
+}
+
+pub fn query_error(err: QueryPayloadError) -> ApiError {
+    let message = match err {
+        QueryPayloadError::Deserialize(e) => e.to_string(),
+        other => other.to_string(),
+    };
+    if let Some(rest) = message.strip_prefix("unknown field `") {
+        let name = rest.split('`').next().unwrap_or_default().to_string();
+        let expected = backticked(rest.split_once("expected").map(|x| x.1).unwrap_or(""));
+        return ApiError::UnknownParameter {
+            suggestions: suggest(&name, &expected),
+            name,
+        };
+    }
+    let field = field_in_message(&message).unwrap_or_else(|| "query".to_string());
+    ApiError::Malformed {
+        detail: format!("the query string cannot be read: {message}"),
+        errors: vec![FieldError::new(field, message)],
+    }
+}
+
+pub fn path_error(err: PathError) -> ApiError {
+    let message = match err {
+        PathError::Deserialize(e) => e.to_string(),
+        other => other.to_string(),
+    };
+    ApiError::malformed("path", message)
+}
+
+/// The field a serde message names: "missing field `thread`",
+/// "unknown field `thred`, ...", "unknown variant `x`" (no field), ...
+fn field_in_message(message: &str) -> Option<String> {
+    for lead in ["missing field `", "unknown field `", "duplicate field `"] {
+        if let Some(rest) = message.split(lead).nth(1) {
+            return rest.split('`').next().map(str::to_owned);
+        }
+    }
+    None
+}
+
+/// All names written in backticks.
+fn backticked(text: &str) -> Vec<String> {
+    text.split('`')
+        .enumerate()
+        .filter(|(i, _)| i % 2 == 1)
+        .map(|(_, s)| s.to_string())
+        .collect()
+}
+
+/// Known names close to `given` (Jaro-Winkler ≥ 0.8, best first, at most 3).
+pub fn suggest(given: &str, known: &[String]) -> Vec<String> {
+    let mut scored: Vec<(f64, &String)> = known
+        .iter()
+        .map(|k| (strsim::jaro_winkler(given, k), k))
+        .filter(|(s, _)| *s >= 0.8)
+        .collect();
+    scored.sort_by(|a, b| b.0.total_cmp(&a.0));
+    scored.into_iter().take(3).map(|(_, k)| k.clone()).collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use serde::Deserialize;
+
+    #[derive(Debug, Deserialize)]
+    #[serde(deny_unknown_fields)]
+    #[allow(dead_code)]
+    struct Q {
+        thread: String,
+        property_class: Option<String>,
+    }
+
+    #[test]
+    fn unknown_query_parameter_is_named_with_suggestion() {
+        let err = serde_urlencoded::from_str::<Q>("thred=M10").expect_err("unknown field");
+        let api = query_error(QueryPayloadError::Deserialize(err));
+        let p = api.problem();
+        assert_eq!(p.status, 400);
+        assert_eq!(p.errors[0].field, "thred");
+        assert_eq!(p.errors[0].suggestions, vec!["thread"]);
+    }
+
+    #[test]
+    fn missing_field_is_named() {
+        let err = serde_urlencoded::from_str::<Q>("property_class=8.8").expect_err("missing");
+        let p = query_error(QueryPayloadError::Deserialize(err)).problem();
+        assert_eq!(p.errors[0].field, "thread");
+    }
+
+    #[test]
+    fn json_unknown_field_is_named() {
+        let err = serde_json::from_str::<Q>(r#"{"thread":"M10","grade":"8.8"}"#).expect_err("x");
+        let p = json_error(JsonPayloadError::Deserialize(err), 10).problem();
+        assert_eq!(p.status, 400);
+        assert_eq!(p.errors[0].field, "grade");
+    }
+}

@@ -1,0 +1,423 @@
+//! Physical quantities on the wire: `{"value": number, "unit": "..."}`.
+//!
+//! Outgoing: SI by default (N, N·m, mm, mm², MPa, degrees); `units=us`
+//! gives lbf, lbf·ft (or lbf·in where asked), in, in², ksi. Incoming: a
+//! value with its unit, read into a uom quantity; a unit that is unknown or
+//! of the wrong kind is refused naming the field.
+//!
+//! Conversion factors are uom's (exact definitions: 1 in = 25.4 mm,
+//! 1 lbf = 4.448 222 N per NIST SP 811 Appendix B); ksi = 1000 psi.
+
+use serde::{Deserialize, Serialize};
+use uom::si::f64::{Angle, Area, Force, Length, Pressure, Torque};
+use uom::si::{angle, area, force, length, pressure, torque};
+use utoipa::ToSchema;
+
+use super::error::ApiError;
+
+/// A physical quantity with its unit.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
+pub struct Quantity {
+    /// The number, in `unit`.
+    pub value: f64,
+    /// The unit symbol, e.g. `N`, `N·m`, `mm`, `mm²`, `MPa`, `degrees`,
+    /// `lbf`, `lbf·ft`, `lbf·in`, `in`, `in²`, `ksi`.
+    pub unit: String,
+}
+
+/// Which unit system responses use.
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, Deserialize, ToSchema)]
+#[serde(rename_all = "lowercase")]
+pub enum Units {
+    /// N, N·m, mm, mm², MPa, degrees.
+    #[default]
+    Si,
+    /// lbf, lbf·ft, in, in², ksi, degrees.
+    Us,
+}
+
+/// Unit for torques given to tool controllers.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum TorqueUnit {
+    NewtonMetre,
+    PoundForceFoot,
+    PoundForceInch,
+}
+
+impl TorqueUnit {
+    /// The symbol used in responses.
+    pub fn symbol(self) -> &'static str {
+        match self {
+            Self::NewtonMetre => "N·m",
+            Self::PoundForceFoot => "lbf·ft",
+            Self::PoundForceInch => "lbf·in",
+        }
+    }
+
+    /// The default torque unit of a unit system.
+    pub fn of(units: Units) -> Self {
+        match units {
+            Units::Si => Self::NewtonMetre,
+            Units::Us => Self::PoundForceFoot,
+        }
+    }
+
+    /// Reads a torque unit (`N·m`, `N*m`, `N.m`, `Nm`, `lbf·ft`, `lbf.ft`,
+    /// `ft·lbf`, `lbf·in`, `lbf.in`, `in·lbf`, ...).
+    pub fn parse(field: &str, text: &str) -> Result<Self, ApiError> {
+        match lookup(text) {
+            Some(Unit::Torque(u, 1.0)) => Ok(u),
+            _ => Err(unknown_unit(field, text, "a torque", "N·m, lbf·ft, lbf·in")),
+        }
+    }
+
+    fn value_of(self, t: Torque) -> f64 {
+        match self {
+            Self::NewtonMetre => t.get::<torque::newton_meter>(),
+            Self::PoundForceFoot => t.get::<torque::pound_force_foot>(),
+            Self::PoundForceInch => t.get::<torque::pound_force_inch>(),
+        }
+    }
+
+    fn to_torque(self, v: f64) -> Torque {
+        match self {
+            Self::NewtonMetre => Torque::new::<torque::newton_meter>(v),
+            Self::PoundForceFoot => Torque::new::<torque::pound_force_foot>(v),
+            Self::PoundForceInch => Torque::new::<torque::pound_force_inch>(v),
+        }
+    }
+}
+
+impl Quantity {
+    /// A quantity; the value is kept to 12 significant digits so unit
+    /// conversions print as `60` rather than `59.99999999999999`.
+    pub fn new(value: f64, unit: &str) -> Self {
+        Self {
+            value: tidy(value),
+            unit: unit.to_string(),
+        }
+    }
+
+    pub fn force(f: Force, units: Units) -> Self {
+        match units {
+            Units::Si => Self::new(f.get::<force::newton>(), "N"),
+            Units::Us => Self::new(f.get::<force::pound_force>(), "lbf"),
+        }
+    }
+
+    /// A torque in the unit system's default unit (N·m or lbf·ft).
+    pub fn torque(t: Torque, units: Units) -> Self {
+        Self::torque_in(t, TorqueUnit::of(units))
+    }
+
+    pub fn torque_in(t: Torque, unit: TorqueUnit) -> Self {
+        Self::new(unit.value_of(t), unit.symbol())
+    }
+
+    pub fn length(l: Length, units: Units) -> Self {
+        match units {
+            Units::Si => Self::new(l.get::<length::millimeter>(), "mm"),
+            Units::Us => Self::new(l.get::<length::inch>(), "in"),
+        }
+    }
+
+    pub fn area(a: Area, units: Units) -> Self {
+        match units {
+            Units::Si => Self::new(a.get::<area::square_millimeter>(), "mm²"),
+            Units::Us => Self::new(a.get::<area::square_inch>(), "in²"),
+        }
+    }
+
+    /// A stress or surface pressure (MPa or ksi).
+    pub fn stress(p: Pressure, units: Units) -> Self {
+        match units {
+            Units::Si => Self::new(p.get::<pressure::megapascal>(), "MPa"),
+            Units::Us => Self::new(
+                p.get::<pressure::pound_force_per_square_inch>() / 1000.0,
+                "ksi",
+            ),
+        }
+    }
+
+    /// Angles are in degrees in both systems.
+    pub fn angle(a: Angle) -> Self {
+        Self::new(a.get::<angle::degree>(), "degrees")
+    }
+
+    fn checked_value(&self, field: &str) -> Result<f64, ApiError> {
+        if self.value.is_finite() {
+            Ok(self.value)
+        } else {
+            Err(ApiError::malformed(
+                format!("{field}.value"),
+                "must be a finite number",
+            ))
+        }
+    }
+
+    /// Reads a length (mm, cm, m, in).
+    pub fn to_length(&self, field: &str) -> Result<Length, ApiError> {
+        let v = self.checked_value(field)?;
+        match lookup(&self.unit) {
+            Some(Unit::Length(f)) => Ok(Length::new::<length::millimeter>(v * f)),
+            _ => Err(unknown_unit(field, &self.unit, "a length", "mm, cm, m, in")),
+        }
+    }
+
+    /// Reads an area (mm², in²).
+    pub fn to_area(&self, field: &str) -> Result<Area, ApiError> {
+        let v = self.checked_value(field)?;
+        match lookup(&self.unit) {
+            Some(Unit::Area(f)) => Ok(Area::new::<area::square_millimeter>(v * f)),
+            _ => Err(unknown_unit(field, &self.unit, "an area", "mm², in²")),
+        }
+    }
+
+    /// Reads a force (N, kN, lbf, kip).
+    pub fn to_force(&self, field: &str) -> Result<Force, ApiError> {
+        let v = self.checked_value(field)?;
+        match lookup(&self.unit) {
+            Some(Unit::Force(f)) => Ok(Force::new::<force::newton>(v * f)),
+            _ => Err(unknown_unit(
+                field,
+                &self.unit,
+                "a force",
+                "N, kN, lbf, kip",
+            )),
+        }
+    }
+
+    /// Reads a torque (N·m, kN·m, N·mm, lbf·ft, lbf·in).
+    pub fn to_torque(&self, field: &str) -> Result<Torque, ApiError> {
+        let v = self.checked_value(field)?;
+        match lookup(&self.unit) {
+            Some(Unit::Torque(u, scale)) => Ok(u.to_torque(v * scale)),
+            _ => Err(unknown_unit(
+                field,
+                &self.unit,
+                "a torque",
+                "N·m, N·mm, kN·m, lbf·ft, lbf·in",
+            )),
+        }
+    }
+
+    /// Reads a stress (MPa, N/mm², GPa, ksi, psi).
+    pub fn to_stress(&self, field: &str) -> Result<Pressure, ApiError> {
+        let v = self.checked_value(field)?;
+        match lookup(&self.unit) {
+            Some(Unit::Stress(f)) => Ok(Pressure::new::<pressure::megapascal>(v * f)),
+            _ => Err(unknown_unit(
+                field,
+                &self.unit,
+                "a stress",
+                "MPa, N/mm², GPa, ksi, psi",
+            )),
+        }
+    }
+
+    /// Reads an angle (degrees, rad).
+    pub fn to_angle(&self, field: &str) -> Result<Angle, ApiError> {
+        let v = self.checked_value(field)?;
+        match lookup(&self.unit) {
+            Some(Unit::Angle(f)) => Ok(Angle::new::<angle::degree>(v * f)),
+            _ => Err(unknown_unit(field, &self.unit, "an angle", "degrees, rad")),
+        }
+    }
+}
+
+/// Rounds to 12 significant digits (far below any measurement's
+/// resolution; removes binary floating-point noise from conversions).
+fn tidy(v: f64) -> f64 {
+    if v == 0.0 || !v.is_finite() {
+        return v;
+    }
+    let digits = 11 - v.abs().log10().floor() as i32;
+    if !(-300..=300).contains(&digits) {
+        return v;
+    }
+    let scale = 10f64.powi(digits);
+    let rounded = (v * scale).round() / scale;
+    if rounded.is_finite() {
+        rounded
+    } else {
+        v
+    }
+}
+
+fn unknown_unit(field: &str, given: &str, kind: &str, accepted: &str) -> ApiError {
+    ApiError::malformed(
+        format!("{field}.unit"),
+        format!("'{given}' is not a unit of {kind}; use one of {accepted}"),
+    )
+}
+
+/// A recognised unit with its factor to the canonical unit of its kind
+/// (mm, mm², N, MPa, degrees; torques keep their own unit and a scale).
+#[derive(Debug, Clone, Copy, PartialEq)]
+enum Unit {
+    Length(f64),
+    Area(f64),
+    Force(f64),
+    Torque(TorqueUnit, f64),
+    Stress(f64),
+    Angle(f64),
+}
+
+/// Looks a unit up after removing the separators people write between
+/// factors (`·`, `⋅`, `*`, `.`, `-`, space) and writing `²` as `2`.
+fn lookup(text: &str) -> Option<Unit> {
+    let key: String = text
+        .trim()
+        .chars()
+        .filter(|c| !matches!(c, '·' | '⋅' | '*' | '.' | '-' | ' ' | '_'))
+        .map(|c| if c == '²' { '2' } else { c })
+        .collect();
+    // 1 in = 25.4 mm exactly (NIST SP 811 Appendix B); ksi = 1000 psi and
+    // 1 psi = 0.006 894 757 MPa (NIST SP 811 Appendix B); 1 lbf = 4.448 222 N.
+    let psi_in_mpa =
+        Pressure::new::<pressure::pound_force_per_square_inch>(1.0).get::<pressure::megapascal>();
+    let lbf_in_n = Force::new::<force::pound_force>(1.0).get::<force::newton>();
+    Some(match key.as_str() {
+        "mm" => Unit::Length(1.0),
+        "cm" => Unit::Length(10.0),
+        "m" => Unit::Length(1000.0),
+        "in" | "inch" | "inches" | "\"" => Unit::Length(25.4),
+        "mm2" | "sqmm" => Unit::Area(1.0),
+        "in2" | "sqin" => Unit::Area(25.4 * 25.4),
+        "N" => Unit::Force(1.0),
+        "kN" => Unit::Force(1000.0),
+        "lbf" | "lb" => Unit::Force(lbf_in_n),
+        "kip" | "kips" | "klbf" => Unit::Force(1000.0 * lbf_in_n),
+        "Nm" => Unit::Torque(TorqueUnit::NewtonMetre, 1.0),
+        "Nmm" => Unit::Torque(TorqueUnit::NewtonMetre, 0.001),
+        "kNm" => Unit::Torque(TorqueUnit::NewtonMetre, 1000.0),
+        "lbfft" | "lbft" | "ftlbf" | "ftlb" | "ftlbs" => {
+            Unit::Torque(TorqueUnit::PoundForceFoot, 1.0)
+        }
+        "lbfin" | "lbin" | "inlbf" | "inlb" | "inlbs" => {
+            Unit::Torque(TorqueUnit::PoundForceInch, 1.0)
+        }
+        "MPa" | "N/mm2" => Unit::Stress(1.0),
+        "GPa" | "kN/mm2" => Unit::Stress(1000.0),
+        "ksi" => Unit::Stress(1000.0 * psi_in_mpa),
+        "psi" => Unit::Stress(psi_in_mpa),
+        "deg" | "degree" | "degrees" | "°" => Unit::Angle(1.0),
+        "rad" => Unit::Angle(180.0 / std::f64::consts::PI),
+        _ => return None,
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn close(a: f64, b: f64) -> bool {
+        (a - b).abs() <= 1e-9 * b.abs().max(1.0)
+    }
+
+    #[test]
+    fn torque_spellings_are_accepted() {
+        for s in ["N·m", "N*m", "Nm", "N.m", "N m", "N⋅m"] {
+            assert_eq!(
+                TorqueUnit::parse("torque_unit", s).ok(),
+                Some(TorqueUnit::NewtonMetre),
+                "{s}"
+            );
+        }
+        for s in ["lbf·ft", "lbf.ft", "ft-lbf", "lbf*ft"] {
+            assert_eq!(
+                TorqueUnit::parse("torque_unit", s).ok(),
+                Some(TorqueUnit::PoundForceFoot),
+                "{s}"
+            );
+        }
+        for s in ["lbf·in", "lbf.in", "in-lbf"] {
+            assert_eq!(
+                TorqueUnit::parse("torque_unit", s).ok(),
+                Some(TorqueUnit::PoundForceInch),
+                "{s}"
+            );
+        }
+        assert!(TorqueUnit::parse("torque_unit", "N·mm").is_err());
+    }
+
+    #[test]
+    fn exact_inch_definition_round_trips() {
+        // 1 in = 25.4 mm exactly (NIST SP 811 Appendix B).
+        let l = Quantity::new(1.0, "in")
+            .to_length("clamp_length")
+            .expect("length");
+        assert!(close(Quantity::length(l, Units::Si).value, 25.4));
+        let q = Quantity::length(l, Units::Us);
+        assert_eq!(q.unit, "in");
+        assert!(close(q.value, 1.0));
+    }
+
+    #[test]
+    fn force_and_torque_conversions() {
+        // 1 lbf = 4.448 222 N (NIST SP 811 Appendix B).
+        let f = Quantity::new(1.0, "lbf")
+            .to_force("required_clamp_load")
+            .expect("force");
+        assert!((Quantity::force(f, Units::Si).value - 4.448_222).abs() < 1e-6);
+        let k = Quantity::new(20.0, "kN").to_force("f").expect("kN");
+        assert!(close(Quantity::force(k, Units::Si).value, 20_000.0));
+        // 1 lbf·ft = 12 lbf·in exactly.
+        let t = Quantity::new(1.0, "lbf·ft").to_torque("t").expect("torque");
+        assert!(close(
+            Quantity::torque_in(t, TorqueUnit::PoundForceInch).value,
+            12.0
+        ));
+        let nm = Quantity::new(1500.0, "N·mm").to_torque("t").expect("N·mm");
+        assert!(close(Quantity::torque(nm, Units::Si).value, 1.5));
+        assert_eq!(Quantity::torque(nm, Units::Us).unit, "lbf·ft");
+    }
+
+    #[test]
+    fn stress_area_angle() {
+        // 1 ksi = 6.894 757 MPa (NIST SP 811 Appendix B, 1 psi = 6.894 757 kPa).
+        let s = Quantity::new(1.0, "ksi").to_stress("s").expect("ksi");
+        assert!((Quantity::stress(s, Units::Si).value - 6.894_757).abs() < 1e-5);
+        let n = Quantity::new(640.0, "N/mm²").to_stress("s").expect("N/mm²");
+        assert!(close(Quantity::stress(n, Units::Si).value, 640.0));
+        let a = Quantity::new(1.0, "in²").to_area("a").expect("in²");
+        assert!(close(Quantity::area(a, Units::Si).value, 645.16));
+        assert_eq!(Quantity::area(a, Units::Si).unit, "mm²");
+        let r = Quantity::new(std::f64::consts::PI, "rad")
+            .to_angle("a")
+            .expect("rad");
+        assert!(close(Quantity::angle(r).value, 180.0));
+    }
+
+    #[test]
+    fn wrong_kind_or_unknown_unit_names_the_field() {
+        let e = Quantity::new(10.0, "N")
+            .to_length("clamp_length")
+            .expect_err("N is no length");
+        let p = e.problem();
+        assert_eq!(p.status, 400);
+        assert_eq!(p.errors[0].field, "clamp_length.unit");
+        let e = Quantity::new(10.0, "furlong")
+            .to_length("clamp_length")
+            .expect_err("unknown");
+        assert!(e.problem().errors[0].reason.contains("furlong"));
+        let e = Quantity::new(f64::NAN, "mm")
+            .to_length("clamp_length")
+            .expect_err("nan");
+        assert_eq!(e.problem().errors[0].field, "clamp_length.value");
+    }
+
+    #[test]
+    fn conversion_noise_is_removed() {
+        assert_eq!(Quantity::new(59.99999999999999, "degrees").value, 60.0);
+        assert_eq!(Quantity::new(0.450037, "in").value, 0.450037);
+        assert_eq!(Quantity::new(-1.5e-7, "mm").value, -1.5e-7);
+    }
+
+    #[test]
+    fn units_serialise_lowercase() {
+        assert_eq!(serde_json::to_string(&Units::Us).expect("json"), "\"us\"");
+        let u: Units = serde_json::from_str("\"si\"").expect("json");
+        assert_eq!(u, Units::Si);
+    }
+}
