@@ -53,7 +53,7 @@ pub(super) fn evaluate(
                 field("thread_torque"),
                 format!("{context}thread torque must be a finite value above zero"),
             ));
-        } else if t.is_finite() && th > t {
+        } else if t.is_finite() && t > 0.0 && th > t {
             errors.push(EngineError::invalid(
                 field("thread_torque"),
                 format!(

@@ -371,7 +371,6 @@ mod tests {
             Basis::Observed,
             UnitSystem::Si,
         )
-        .unwrap()
         .unwrap();
         let r = &p.response;
         assert_eq!(

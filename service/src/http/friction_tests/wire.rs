@@ -39,7 +39,7 @@ pub struct SeriesRequest {
     pub bearing: Option<BearingRequest>,
     /// A thrust bearing under the turned part: the measured torque is thread
     /// torque and bearing friction is not measured.
-    #[serde(default)]
+    #[serde(default, skip_serializing_if = "std::ops::Not::not")]
     pub thrust_bearing: bool,
     /// Clamp force at which curves are read; default 75 % of the proof load.
     #[serde(default, skip_serializing_if = "Option::is_none")]
