@@ -297,4 +297,6 @@ pub fn shigley_torque_coefficient(thread: &ThreadGeometry, f: f64, fc: f64) -> f
 #[cfg(test)]
 pub(crate) mod fixtures;
 #[cfg(test)]
+mod published_fine;
+#[cfg(test)]
 mod tests;
