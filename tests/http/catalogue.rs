@@ -42,7 +42,13 @@ async fn engineer_changes_an_entry_and_reads_history_diff_and_past_revision(db: 
     let new_etag = r.headers()["etag"].to_str().unwrap().to_string();
     assert_ne!(new_etag, etag);
     let after: Value = r.json().await.unwrap();
-    assert_eq!((after["catalogue_revision"].as_i64(), after["revision"].as_i64()), (Some(2), Some(2)));
+    assert_eq!(
+        (
+            after["catalogue_revision"].as_i64(),
+            after["revision"].as_i64()
+        ),
+        (Some(2), Some(2))
+    );
     assert_eq!(after["thread_friction"]["min"], 0.12);
 
     // the old ETag is stale now: 412 with the current state
@@ -52,11 +58,16 @@ async fn engineer_changes_an_entry_and_reads_history_diff_and_past_revision(db: 
     assert_eq!(p["current"]["thread_friction"]["min"], 0.12);
 
     // history names the token as author and the reason
-    let h = app.get_json(&format!("/v1/friction-entries/{id}/history")).await;
+    let h = app
+        .get_json(&format!("/v1/friction-entries/{id}/history"))
+        .await;
     let items = h["history"].as_array().unwrap();
     assert_eq!(items.len(), 2);
     assert_eq!(items[1]["actor"], "hollowmere-quality");
-    assert_eq!(items[1]["reason"], "Hollowmere Works test series HW-17 (demo data)");
+    assert_eq!(
+        items[1]["reason"],
+        "Hollowmere Works test series HW-17 (demo data)"
+    );
     assert_eq!(items[1]["before"]["thread_friction"]["min"], 0.14);
     assert_eq!(items[1]["after"]["thread_friction"]["min"], 0.12);
 
@@ -72,10 +83,14 @@ async fn engineer_changes_an_entry_and_reads_history_diff_and_past_revision(db: 
     assert_eq!(d["changes"][0]["fields"], json!(["thread_friction"]));
 
     // the past stays readable exactly
-    let old = app.get_json(&format!("/v1/friction-entries/{id}?catalogue_revision=1")).await;
+    let old = app
+        .get_json(&format!("/v1/friction-entries/{id}?catalogue_revision=1"))
+        .await;
     assert_eq!(old["thread_friction"]["min"], 0.14);
     assert_eq!(old["catalogue_revision"], 1);
-    let old_list = app.get_json("/v1/friction-entries?catalogue_revision=1").await;
+    let old_list = app
+        .get_json("/v1/friction-entries?catalogue_revision=1")
+        .await;
     assert_eq!(old_list["catalogue_revision"], 1);
     let r = app.get("/v1/friction-entries?catalogue_revision=99").await;
     assert_eq!(r.status(), StatusCode::NOT_FOUND);
@@ -92,7 +107,13 @@ async fn engineer_changes_an_entry_and_reads_history_diff_and_past_revision(db: 
         .unwrap();
     assert_eq!(r.status(), StatusCode::OK);
     let (retired, _) = app.entry(id).await;
-    assert_eq!((retired["status"].as_str(), retired["catalogue_revision"].as_i64()), (Some("retired"), Some(3)));
+    assert_eq!(
+        (
+            retired["status"].as_str(),
+            retired["catalogue_revision"].as_i64()
+        ),
+        (Some("retired"), Some(3))
+    );
 
     // create a replacement
     let r = app
@@ -118,7 +139,11 @@ async fn refused_changes_are_listed_and_write_nothing(db: &TestDb) {
     let app = start(&db.url, true).await;
     let editor = token(db, "hollowmere-editor", Role::Editor).await;
     let post = |body: Value| {
-        app.client.post(app.url("/v1/friction-entries")).bearer_auth(&editor).json(&body).send()
+        app.client
+            .post(app.url("/v1/friction-entries"))
+            .bearer_auth(&editor)
+            .json(&body)
+            .send()
     };
     // every problem listed at once
     let r = post(json!({
@@ -132,16 +157,32 @@ async fn refused_changes_are_listed_and_write_nothing(db: &TestDb) {
     assert_eq!(r.headers()["content-type"], "application/problem+json");
     let p: Value = r.json().await.unwrap();
     let fields = problem_fields(&p);
-    for f in ["finish", "lubricant", "thread_friction.min", "thread_friction.max"] {
+    for f in [
+        "finish",
+        "lubricant",
+        "thread_friction.min",
+        "thread_friction.max",
+    ] {
         assert!(fields.contains(&f.to_string()), "{f} not in {fields:?}");
     }
-    let finish = p["errors"].as_array().unwrap().iter().find(|e| e["field"] == "finish").unwrap();
+    let finish = p["errors"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|e| e["field"] == "finish")
+        .unwrap();
     assert_eq!(finish["suggestions"][0], "zinc-electroplated");
     // missing fields and reason
     let r = post(json!({"finish": "plain"})).await.unwrap();
     assert_eq!(r.status(), StatusCode::UNPROCESSABLE_ENTITY);
     let fields = problem_fields(&r.json().await.unwrap());
-    for f in ["lubricant", "thread_friction", "bearing_friction", "source", "reason"] {
+    for f in [
+        "lubricant",
+        "thread_friction",
+        "bearing_friction",
+        "source",
+        "reason",
+    ] {
         assert!(fields.contains(&f.to_string()), "{f} not in {fields:?}");
     }
     // duplicate active key
@@ -154,7 +195,10 @@ async fn refused_changes_are_listed_and_write_nothing(db: &TestDb) {
     .unwrap();
     assert_eq!(r.status(), StatusCode::UNPROCESSABLE_ENTITY);
     let p: Value = r.json().await.unwrap();
-    assert!(p["detail"].as_str().unwrap().contains("already exists"), "{p}");
+    assert!(
+        p["detail"].as_str().unwrap().contains("already exists"),
+        "{p}"
+    );
     // malformed JSON → 400, unknown query parameter → 400
     let r = app
         .client
@@ -166,9 +210,16 @@ async fn refused_changes_are_listed_and_write_nothing(db: &TestDb) {
         .await
         .unwrap();
     assert_eq!(r.status(), StatusCode::BAD_REQUEST);
-    assert_eq!(app.get("/v1/friction-entries?catalog_revision=1").await.status(), StatusCode::BAD_REQUEST);
+    assert_eq!(
+        app.get("/v1/friction-entries?catalog_revision=1")
+            .await
+            .status(),
+        StatusCode::BAD_REQUEST
+    );
     // an ETag of another entry never matches
-    let r = app.put_thread_min(&editor, 1, Some("\"entry-2-r1\""), 0.1).await;
+    let r = app
+        .put_thread_min(&editor, 1, Some("\"entry-2-r1\""), 0.1)
+        .await;
     assert_eq!(r.status(), StatusCode::PRECONDITION_FAILED);
     // unknown entry
     let r = app.client.put(app.url("/v1/friction-entries/999")).bearer_auth(&editor).header("If-Match", "\"entry-999-r1\"")
@@ -187,7 +238,11 @@ async fn finishes_and_lubricants_are_versioned_items(db: &TestDb) {
     let editor = token(db, "hollowmere-editor", Role::Editor).await;
     let list = app.get_json("/v1/finishes").await;
     assert_eq!(list["catalogue_revision"], 1);
-    assert!(list["finishes"].as_array().unwrap().iter().any(|f| f["id"] == "zinc-flake-lubricated"));
+    assert!(list["finishes"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .any(|f| f["id"] == "zinc-flake-lubricated"));
     let r = app.get("/v1/finishes/zinc-nickle").await;
     assert_eq!(r.status(), StatusCode::NOT_FOUND);
     let p: Value = r.json().await.unwrap();
@@ -205,13 +260,23 @@ async fn finishes_and_lubricants_are_versioned_items(db: &TestDb) {
     let h = app.get_json("/v1/finishes/hw-blue-flake/history").await;
     assert_eq!(h["history"].as_array().unwrap().len(), 2);
     let lubes = app.get_json("/v1/lubricants").await;
-    assert!(lubes["lubricants"].as_array().unwrap().iter().any(|l| l["id"] == "none" && l["dry"] == true));
+    assert!(lubes["lubricants"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .any(|l| l["id"] == "none" && l["dry"] == true));
     // retiring a lubricant still used by active entries is refused
     let r = app.get("/v1/lubricants/wax").await;
     let etag = r.headers()["etag"].to_str().unwrap().to_string();
-    let r = app.client.put(app.url("/v1/lubricants/wax")).bearer_auth(&editor).header("If-Match", &etag)
+    let r = app
+        .client
+        .put(app.url("/v1/lubricants/wax"))
+        .bearer_auth(&editor)
+        .header("If-Match", &etag)
         .json(&json!({"name": "Wax", "status": "retired", "reason": "no longer used"}))
-        .send().await.unwrap();
+        .send()
+        .await
+        .unwrap();
     assert_eq!(r.status(), StatusCode::UNPROCESSABLE_ENTITY);
     assert_eq!(app.revision().await, 3);
 }
@@ -223,11 +288,20 @@ async fn export_json_and_csv(db: &TestDb) {
     assert_eq!(j["finishes"].as_array().unwrap().len(), 8);
     let r = app.get("/v1/catalogue/export?format=csv").await;
     assert_eq!(r.status(), StatusCode::OK);
-    assert!(r.headers()["content-type"].to_str().unwrap().starts_with("text/csv"));
+    assert!(r.headers()["content-type"]
+        .to_str()
+        .unwrap()
+        .starts_with("text/csv"));
     let text = r.text().await.unwrap();
     assert!(text.starts_with("id,finish,lubricant,bearing_surface,thread_friction_min"));
-    assert_eq!(text.lines().count(), 1 + j["entries"].as_array().unwrap().len());
-    assert_eq!(app.get("/v1/catalogue/export?format=xml").await.status(), StatusCode::BAD_REQUEST);
+    assert_eq!(
+        text.lines().count(),
+        1 + j["entries"].as_array().unwrap().len()
+    );
+    assert_eq!(
+        app.get("/v1/catalogue/export?format=xml").await.status(),
+        StatusCode::BAD_REQUEST
+    );
 }
 
 async fn fifty_concurrent_editors_one_wins_each_round(db: &TestDb) {
@@ -245,8 +319,15 @@ async fn fifty_concurrent_editors_one_wins_each_round(db: &TestDb) {
             body["thread_friction"]["min"] = json!(0.100 + 0.01 * round as f64 + 0.0001 * i as f64);
             body["reason"] = json!(format!("editor {i}, round {round}"));
             tasks.push(tokio::spawn(async move {
-                let r = app.client.put(app.url(&format!("/v1/friction-entries/{id}")))
-                    .bearer_auth(&editor).header("If-Match", etag).json(&body).send().await.unwrap();
+                let r = app
+                    .client
+                    .put(app.url(&format!("/v1/friction-entries/{id}")))
+                    .bearer_auth(&editor)
+                    .header("If-Match", etag)
+                    .json(&body)
+                    .send()
+                    .await
+                    .unwrap();
                 let status = r.status();
                 let reason = body["reason"].as_str().unwrap().to_string();
                 (status, reason)
@@ -262,9 +343,15 @@ async fn fifty_concurrent_editors_one_wins_each_round(db: &TestDb) {
             }
         }
         assert_eq!(winners.len(), 1, "round {round}: exactly one editor wins");
-        let h = app.get_json(&format!("/v1/friction-entries/{id}/history")).await;
+        let h = app
+            .get_json(&format!("/v1/friction-entries/{id}/history"))
+            .await;
         let items = h["history"].as_array().unwrap();
-        assert_eq!(items.len(), 2 + round, "history holds exactly the accepted changes");
+        assert_eq!(
+            items.len(),
+            2 + round,
+            "history holds exactly the accepted changes"
+        );
         assert_eq!(items.last().unwrap()["reason"], winners[0].as_str());
     }
     assert_eq!(app.revision().await, 4);

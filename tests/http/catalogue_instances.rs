@@ -25,15 +25,26 @@ async fn a_second_instance_uses_a_change_within_one_second() {
             assert_eq!(e["thread_friction"]["min"], 0.125);
             break;
         }
-        assert!(changed.elapsed() < Duration::from_secs(1), "instance b still on revision 1 after 1 s");
+        assert!(
+            changed.elapsed() < Duration::from_secs(1),
+            "instance b still on revision 1 after 1 s"
+        );
         tokio::time::sleep(Duration::from_millis(25)).await;
     }
     // and the other way round
     let (_, etag) = b.entry(7).await;
-    assert_eq!(b.put_thread_min(&editor, 7, Some(&etag), 0.126).await.status(), StatusCode::OK);
+    assert_eq!(
+        b.put_thread_min(&editor, 7, Some(&etag), 0.126)
+            .await
+            .status(),
+        StatusCode::OK
+    );
     let changed = Instant::now();
     while a.revision().await < 3 {
-        assert!(changed.elapsed() < Duration::from_secs(1), "instance a did not follow within 1 s");
+        assert!(
+            changed.elapsed() < Duration::from_secs(1),
+            "instance a did not follow within 1 s"
+        );
         tokio::time::sleep(Duration::from_millis(25)).await;
     }
 }
@@ -42,7 +53,12 @@ macro_rules! wait_until {
     ($what:expr, $limit:expr, $cond:expr) => {{
         let started = Instant::now();
         while !$cond {
-            assert!(started.elapsed() < $limit, "{}: not within {:?}", $what, $limit);
+            assert!(
+                started.elapsed() < $limit,
+                "{}: not within {:?}",
+                $what,
+                $limit
+            );
             tokio::time::sleep(Duration::from_millis(100)).await;
         }
     }};
@@ -56,21 +72,44 @@ async fn database_outage_reads_continue_writes_503_then_recovery() {
     let app = start(&url, true).await;
     let editor = token(&db, "hollowmere-editor", Role::Editor).await;
     let (_, etag) = app.entry(7).await;
-    assert_eq!(app.put_thread_min(&editor, 7, Some(&etag), 0.121).await.status(), StatusCode::OK);
+    assert_eq!(
+        app.put_thread_min(&editor, 7, Some(&etag), 0.121)
+            .await
+            .status(),
+        StatusCode::OK
+    );
 
     relay.cut();
     // reads go on from memory and say the catalogue may be stale
-    wait_until!("stale flag", Duration::from_secs(10), app.get_json("/v1/friction-entries").await["catalogue_may_be_stale"] == true);
+    wait_until!(
+        "stale flag",
+        Duration::from_secs(10),
+        app.get_json("/v1/friction-entries").await["catalogue_may_be_stale"] == true
+    );
     let (e, etag) = app.entry(7).await;
-    assert_eq!((e["thread_friction"]["min"].as_f64(), e["catalogue_may_be_stale"].as_bool()), (Some(0.121), Some(true)));
+    assert_eq!(
+        (
+            e["thread_friction"]["min"].as_f64(),
+            e["catalogue_may_be_stale"].as_bool()
+        ),
+        (Some(0.121), Some(true))
+    );
     // writes are refused with 503 and Retry-After
     let r = app.put_thread_min(&editor, 7, Some(&etag), 0.122).await;
     assert_eq!(r.status(), StatusCode::SERVICE_UNAVAILABLE);
-    let retry: u64 = r.headers()["retry-after"].to_str().unwrap().parse().unwrap();
+    let retry: u64 = r.headers()["retry-after"]
+        .to_str()
+        .unwrap()
+        .parse()
+        .unwrap();
     assert!(retry >= 1);
 
     relay.restore().await;
-    wait_until!("recovery", Duration::from_secs(15), app.get_json("/v1/friction-entries").await["catalogue_may_be_stale"] == false);
+    wait_until!(
+        "recovery",
+        Duration::from_secs(15),
+        app.get_json("/v1/friction-entries").await["catalogue_may_be_stale"] == false
+    );
     let r = app.put_thread_min(&editor, 7, Some(&etag), 0.122).await;
     assert_eq!(r.status(), StatusCode::OK);
     assert_eq!(app.revision().await, 3);

@@ -35,7 +35,12 @@ pub async fn start(database_url: &str, anonymous_reads: bool) -> Instance {
     let base = format!("http://127.0.0.1:{}", app.port());
     let server = app.server_handle();
     let task = tokio::spawn(app.run_until_stopped());
-    Instance { base, client: Client::new(), server: Some(server), task }
+    Instance {
+        base,
+        client: Client::new(),
+        server: Some(server),
+        task,
+    }
 }
 
 /// A token with `role`, made directly in the database (like `tightspec token create`).
@@ -75,7 +80,13 @@ impl Instance {
     }
 
     /// PUT an entry back with `thread_friction.min` changed.
-    pub async fn put_thread_min(&self, token: &str, id: i64, etag: Option<&str>, min: f64) -> Response {
+    pub async fn put_thread_min(
+        &self,
+        token: &str,
+        id: i64,
+        etag: Option<&str>,
+        min: f64,
+    ) -> Response {
         let (mut body, _) = self.entry(id).await;
         body["thread_friction"]["min"] = min.into();
         body["reason"] = "Hollowmere Works test series HW-17 (demo data)".into();
@@ -102,7 +113,11 @@ impl Instance {
 pub fn problem_fields(v: &Value) -> Vec<String> {
     v["errors"]
         .as_array()
-        .map(|a| a.iter().filter_map(|e| e["field"].as_str().map(String::from)).collect())
+        .map(|a| {
+            a.iter()
+                .filter_map(|e| e["field"].as_str().map(String::from))
+                .collect()
+        })
         .unwrap_or_default()
 }
 

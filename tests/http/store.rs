@@ -39,7 +39,9 @@ both!(
 );
 
 async fn open(db: &TestDb) -> Store {
-    Store::open(Some(&db.url)).await.unwrap_or_else(|e| panic!("open {}: {e}", db.url))
+    Store::open(Some(&db.url))
+        .await
+        .unwrap_or_else(|e| panic!("open {}: {e}", db.url))
 }
 
 fn update(entry: i64, expected: i64, min: f64, max: f64, seed: &Snapshot) -> Change {
@@ -47,7 +49,11 @@ fn update(entry: i64, expected: i64, min: f64, max: f64, seed: &Snapshot) -> Cha
     e.thread_friction.min = min;
     e.thread_friction.max = max;
     e.status = None;
-    Change::UpdateEntry { id: entry, expected_revision: Some(expected), entry: e }
+    Change::UpdateEntry {
+        id: entry,
+        expected_revision: Some(expected),
+        entry: e,
+    }
 }
 
 async fn seed_is_revision_one_and_reopening_changes_nothing(db: &TestDb) {
@@ -60,7 +66,10 @@ async fn seed_is_revision_one_and_reopening_changes_nothing(db: &TestDb) {
     let revs = store.revisions(None, 10).await.unwrap();
     assert_eq!(revs.len(), 1);
     assert_eq!(revs[0].actor, "seed");
-    assert_eq!(revs[0].changes as usize, seed.finishes.len() + seed.lubricants.len() + seed.entries.len());
+    assert_eq!(
+        revs[0].changes as usize,
+        seed.finishes.len() + seed.lubricants.len() + seed.entries.len()
+    );
     let h = store.history(EntityKind::FrictionEntry, "1").await.unwrap();
     assert_eq!(h.len(), 1);
     assert_eq!(h[0].action, Action::Create);
@@ -75,7 +84,11 @@ async fn seed_is_revision_one_and_reopening_changes_nothing(db: &TestDb) {
 async fn update_makes_one_revision_and_past_revisions_stay_readable(db: &TestDb) {
     let store = open(db).await;
     let seed = Snapshot::seed();
-    let set = ChangeSet::single("hollowmere-editor", "test series HW-17 (demo data)", update(7, 1, 0.12, 0.18, &seed));
+    let set = ChangeSet::single(
+        "hollowmere-editor",
+        "test series HW-17 (demo data)",
+        update(7, 1, 0.12, 0.18, &seed),
+    );
     let applied = store.apply(&set).await.unwrap();
     assert_eq!(applied.snapshot.revision, 2);
     let now = store.load_current().await.unwrap();
@@ -90,26 +103,58 @@ async fn update_makes_one_revision_and_past_revisions_stay_readable(db: &TestDb)
         reason: "retire and replace".into(),
         evidence: Some("friction-test:3".into()),
         items: vec![
-            ChangeItem { at: "changes[0].".into(), change: Change::RetireEntry { id: 1, expected_revision: Some(1) } },
-            ChangeItem { at: "changes[1].".into(), change: Change::CreateEntry(EntryInput::from(seed.entry(1).unwrap())) },
+            ChangeItem {
+                at: "changes[0].".into(),
+                change: Change::RetireEntry {
+                    id: 1,
+                    expected_revision: Some(1),
+                },
+            },
+            ChangeItem {
+                at: "changes[1].".into(),
+                change: Change::CreateEntry(EntryInput::from(seed.entry(1).unwrap())),
+            },
         ],
     };
     let r3 = store.apply(&batch).await.unwrap();
     assert_eq!(r3.snapshot.revision, 3);
     let (info, changes) = store.revision(3).await.unwrap();
-    assert_eq!((info.actor.as_str(), info.changes, info.evidence.as_deref()), ("hollowmere-editor", 2, Some("friction-test:3")));
+    assert_eq!(
+        (info.actor.as_str(), info.changes, info.evidence.as_deref()),
+        ("hollowmere-editor", 2, Some("friction-test:3"))
+    );
     assert_eq!(changes.len(), 2);
     assert_eq!(changes[0].action, Action::Retire);
     let h = store.history(EntityKind::FrictionEntry, "7").await.unwrap();
     assert_eq!(h.len(), 2);
-    assert_eq!(h[1].before.as_ref().unwrap()["thread_friction"]["min"], 0.14);
+    assert_eq!(
+        h[1].before.as_ref().unwrap()["thread_friction"]["min"],
+        0.14
+    );
     assert_eq!(h[1].after["thread_friction"]["min"], 0.12);
     assert_eq!(h[1].reason, "test series HW-17 (demo data)");
-    assert_eq!(store.load_at(2).await.unwrap().entry(1).unwrap().status, tightspec::catalogue::Status::Active);
-    assert!(matches!(store.load_at(4).await, Err(StoreError::Catalogue(CatalogueError::UnknownRevision { current: 3, .. }))));
-    assert!(matches!(store.load_at(0).await, Err(StoreError::Catalogue(CatalogueError::UnknownRevision { .. }))));
+    assert_eq!(
+        store.load_at(2).await.unwrap().entry(1).unwrap().status,
+        tightspec::catalogue::Status::Active
+    );
+    assert!(matches!(
+        store.load_at(4).await,
+        Err(StoreError::Catalogue(CatalogueError::UnknownRevision {
+            current: 3,
+            ..
+        }))
+    ));
+    assert!(matches!(
+        store.load_at(0).await,
+        Err(StoreError::Catalogue(
+            CatalogueError::UnknownRevision { .. }
+        ))
+    ));
     let revs = store.revisions(Some(3), 10).await.unwrap();
-    assert_eq!(revs.iter().map(|r| r.revision).collect::<Vec<_>>(), vec![2, 1]);
+    assert_eq!(
+        revs.iter().map(|r| r.revision).collect::<Vec<_>>(),
+        vec![2, 1]
+    );
     store.close().await;
 }
 
@@ -119,15 +164,24 @@ async fn refused_changes_write_nothing(db: &TestDb) {
     let before = store.load_current().await.unwrap();
     // stale
     let stale = ChangeSet::single("e", "r", update(7, 5, 0.1, 0.2, &seed));
-    assert!(matches!(store.apply(&stale).await, Err(StoreError::Catalogue(CatalogueError::Stale { .. }))));
+    assert!(matches!(
+        store.apply(&stale).await,
+        Err(StoreError::Catalogue(CatalogueError::Stale { .. }))
+    ));
     // invalid (second item bad): the good first item is not written either
     let batch = ChangeSet {
         actor: "e".into(),
         reason: "r".into(),
         evidence: None,
         items: vec![
-            ChangeItem { at: "changes[0].".into(), change: update(7, 1, 0.1, 0.2, &seed) },
-            ChangeItem { at: "changes[1].".into(), change: update(8, 1, 0.5, 0.1, &seed) },
+            ChangeItem {
+                at: "changes[0].".into(),
+                change: update(7, 1, 0.1, 0.2, &seed),
+            },
+            ChangeItem {
+                at: "changes[1].".into(),
+                change: update(8, 1, 0.5, 0.1, &seed),
+            },
         ],
     };
     match store.apply(&batch).await {
@@ -137,8 +191,15 @@ async fn refused_changes_write_nothing(db: &TestDb) {
         other => panic!("{other:?}"),
     }
     // duplicate active key
-    let dup = ChangeSet::single("e", "r", Change::CreateEntry(EntryInput::from(seed.entry(1).unwrap())));
-    assert!(matches!(store.apply(&dup).await, Err(StoreError::Catalogue(CatalogueError::Invalid { .. }))));
+    let dup = ChangeSet::single(
+        "e",
+        "r",
+        Change::CreateEntry(EntryInput::from(seed.entry(1).unwrap())),
+    );
+    assert!(matches!(
+        store.apply(&dup).await,
+        Err(StoreError::Catalogue(CatalogueError::Invalid { .. }))
+    ));
     assert_eq!(store.head().await.unwrap(), 1);
     assert_eq!(store.load_current().await.unwrap(), before);
     assert_eq!(store.revisions(None, 10).await.unwrap().len(), 1);
@@ -162,7 +223,10 @@ async fn history_is_append_only_in_the_database(db: &TestDb) {
         assert!(err.contains("append-only"), "{sql}: {err}");
     }
     if let Store::Postgres(p) = &store {
-        let err = sqlx::query("TRUNCATE catalogue_history CASCADE").execute(p).await.expect_err("truncate");
+        let err = sqlx::query("TRUNCATE catalogue_history CASCADE")
+            .execute(p)
+            .await
+            .expect_err("truncate");
         assert!(err.to_string().contains("append-only"), "{err}");
     }
     let h = store.history(EntityKind::FrictionEntry, "1").await.unwrap();
@@ -172,7 +236,10 @@ async fn history_is_append_only_in_the_database(db: &TestDb) {
 
 async fn tokens_are_hashed_expire_and_revoke(db: &TestDb) {
     let store = open(db).await;
-    let (info, secret) = store.create_token("hollowmere-line-3", Role::Editor, None).await.unwrap();
+    let (info, secret) = store
+        .create_token("hollowmere-line-3", Role::Editor, None)
+        .await
+        .unwrap();
     assert_eq!(info.role, Role::Editor);
     assert!(secret.len() >= 4 + 64, "256-bit secret as hex");
     let found = store.find_token(&secret).await.unwrap().expect("found");
@@ -180,17 +247,34 @@ async fn tokens_are_hashed_expire_and_revoke(db: &TestDb) {
     assert!(store.find_token("tsk_wrong").await.unwrap().is_none());
     // only the hash is stored
     let stored: Vec<String> = match &store {
-        Store::Postgres(p) => sqlx::query_scalar("SELECT secret_hash FROM api_tokens").fetch_all(p).await.unwrap(),
-        Store::Sqlite(p) => sqlx::query_scalar("SELECT secret_hash FROM api_tokens").fetch_all(p).await.unwrap(),
+        Store::Postgres(p) => sqlx::query_scalar("SELECT secret_hash FROM api_tokens")
+            .fetch_all(p)
+            .await
+            .unwrap(),
+        Store::Sqlite(p) => sqlx::query_scalar("SELECT secret_hash FROM api_tokens")
+            .fetch_all(p)
+            .await
+            .unwrap(),
     };
     assert_eq!(stored, vec![tightspec::store::tokens::hash_secret(&secret)]);
     assert!(!stored[0].contains(&secret[4..]));
     // names are unique
-    assert!(matches!(store.create_token("hollowmere-line-3", Role::Reader, None).await, Err(StoreError::Conflict { .. })));
-    assert!(store.create_token("bad name", Role::Reader, None).await.is_err());
+    assert!(matches!(
+        store
+            .create_token("hollowmere-line-3", Role::Reader, None)
+            .await,
+        Err(StoreError::Conflict { .. })
+    ));
+    assert!(store
+        .create_token("bad name", Role::Reader, None)
+        .await
+        .is_err());
     // expiry
     let past = chrono::Utc::now() - chrono::Duration::minutes(1);
-    let (_, old) = store.create_token("expired", Role::Admin, Some(past)).await.unwrap();
+    let (_, old) = store
+        .create_token("expired", Role::Admin, Some(past))
+        .await
+        .unwrap();
     let t = store.find_token(&old).await.unwrap().unwrap();
     assert_eq!(t.refusal(chrono::Utc::now()), Some("the token has expired"));
     // revoke by name, then by id; twice is harmless
@@ -198,8 +282,17 @@ async fn tokens_are_hashed_expire_and_revoke(db: &TestDb) {
     assert!(r.revoked_at.is_some());
     let again = store.revoke_token(&r.id.to_string()).await.unwrap();
     assert_eq!(again.revoked_at, r.revoked_at);
-    assert!(store.find_token(&secret).await.unwrap().unwrap().refusal(chrono::Utc::now()).is_some());
-    assert!(matches!(store.revoke_token("nobody").await, Err(StoreError::NotFound { .. })));
+    assert!(store
+        .find_token(&secret)
+        .await
+        .unwrap()
+        .unwrap()
+        .refusal(chrono::Utc::now())
+        .is_some());
+    assert!(matches!(
+        store.revoke_token("nobody").await,
+        Err(StoreError::NotFound { .. })
+    ));
     assert_eq!(store.list_tokens().await.unwrap().len(), 2);
     store.close().await;
 }
@@ -212,9 +305,17 @@ async fn concurrent_writers_never_lose_an_update(db: &TestDb) {
         let mut tasks = Vec::new();
         for i in 0..10 {
             let store = store.clone();
-            let change = update(7, expected, 0.10 + 0.02 * round as f64 + 0.001 * i as f64, 0.2, &seed);
+            let change = update(
+                7,
+                expected,
+                0.10 + 0.02 * round as f64 + 0.001 * i as f64,
+                0.2,
+                &seed,
+            );
             tasks.push(tokio::spawn(async move {
-                store.apply(&ChangeSet::single(&format!("writer-{i}"), "race", change)).await
+                store
+                    .apply(&ChangeSet::single(&format!("writer-{i}"), "race", change))
+                    .await
             }));
         }
         let mut won = 0;
@@ -242,11 +343,19 @@ async fn second_instance_sees_change_within_one_second(db: &TestDb) {
     tokio::time::sleep(Duration::from_millis(300)).await;
     let live_a = Live::new(a.load_current().await.unwrap());
     let seed = Snapshot::seed();
-    a.apply_live(&live_a, &ChangeSet::single("e", "r", update(7, 1, 0.11, 0.2, &seed))).await.unwrap();
+    a.apply_live(
+        &live_a,
+        &ChangeSet::single("e", "r", update(7, 1, 0.11, 0.2, &seed)),
+    )
+    .await
+    .unwrap();
     assert_eq!(live_a.revision(), 2);
     let started = Instant::now();
     while live_b.revision() < 2 {
-        assert!(started.elapsed() < Duration::from_secs(1), "second instance did not see revision 2 within 1 s");
+        assert!(
+            started.elapsed() < Duration::from_secs(1),
+            "second instance did not see revision 2 within 1 s"
+        );
         tokio::time::sleep(Duration::from_millis(20)).await;
     }
     assert_eq!(live_b.current().entry(7).unwrap().thread_friction.min, 0.11);

@@ -64,7 +64,11 @@ impl Authenticator {
 
     /// The caller for a request needing `needed`, from its `Authorization`
     /// header value (if any).
-    pub async fn check(&self, authorization: Option<&str>, needed: Role) -> Result<Caller, ApiError> {
+    pub async fn check(
+        &self,
+        authorization: Option<&str>,
+        needed: Role,
+    ) -> Result<Caller, ApiError> {
         let Some(value) = authorization else {
             if needed == Role::Reader && self.anonymous_reads {
                 return Ok(Caller::anonymous());
@@ -143,7 +147,10 @@ fn bearer(value: &str) -> Result<&str, ApiError> {
     Ok(secret)
 }
 
-fn extract(req: &HttpRequest, needed: Role) -> Pin<Box<dyn Future<Output = Result<Caller, ApiError>>>> {
+fn extract(
+    req: &HttpRequest,
+    needed: Role,
+) -> Pin<Box<dyn Future<Output = Result<Caller, ApiError>>>> {
     let auth = req.app_data::<web::Data<Authenticator>>().cloned();
     let header = match req.headers().get(header::AUTHORIZATION).map(|v| v.to_str()) {
         None => Ok(None),
@@ -154,7 +161,9 @@ fn extract(req: &HttpRequest, needed: Role) -> Pin<Box<dyn Future<Output = Resul
     };
     Box::pin(async move {
         let Some(auth) = auth else {
-            return Err(ApiError::Internal("no Authenticator registered as app data".into()));
+            return Err(ApiError::Internal(
+                "no Authenticator registered as app data".into(),
+            ));
         };
         auth.check(header?.as_deref(), needed).await
     })

@@ -63,7 +63,10 @@ fn server_url() -> String {
 fn start_container() -> String {
     let (tx, rx) = std::sync::mpsc::channel();
     std::thread::spawn(move || {
-        let rt = match tokio::runtime::Builder::new_current_thread().enable_all().build() {
+        let rt = match tokio::runtime::Builder::new_current_thread()
+            .enable_all()
+            .build()
+        {
             Ok(rt) => rt,
             Err(e) => {
                 let _ = tx.send(Err(e.to_string()));
@@ -169,15 +172,20 @@ impl Drop for TestDb {
                 let server = server.clone();
                 let name = name.clone();
                 let done = std::thread::spawn(move || {
-                    let Ok(rt) = tokio::runtime::Builder::new_current_thread().enable_all().build() else {
+                    let Ok(rt) = tokio::runtime::Builder::new_current_thread()
+                        .enable_all()
+                        .build()
+                    else {
                         return;
                     };
                     rt.block_on(async move {
                         use sqlx::Connection;
                         if let Ok(mut conn) = sqlx::PgConnection::connect(&server).await {
-                            let _ = sqlx::query(&format!("DROP DATABASE IF EXISTS {name} WITH (FORCE)"))
-                                .execute(&mut conn)
-                                .await;
+                            let _ = sqlx::query(&format!(
+                                "DROP DATABASE IF EXISTS {name} WITH (FORCE)"
+                            ))
+                            .execute(&mut conn)
+                            .await;
                             let _ = conn.close().await;
                         }
                     });
@@ -213,9 +221,15 @@ pub struct Relay {
 impl Relay {
     /// Relays 127.0.0.1:<free port> to `target` (`host:port`).
     pub async fn start(target: &str) -> Relay {
-        let listener = tokio::net::TcpListener::bind("127.0.0.1:0").await.expect("bind relay");
+        let listener = tokio::net::TcpListener::bind("127.0.0.1:0")
+            .await
+            .expect("bind relay");
         let port = listener.local_addr().expect("relay address").port();
-        let relay = Relay { port, target: target.to_string(), tasks: Default::default() };
+        let relay = Relay {
+            port,
+            target: target.to_string(),
+            tasks: Default::default(),
+        };
         relay.serve(listener);
         relay
     }
@@ -290,7 +304,10 @@ pub fn host_port(url: &str) -> String {
 pub fn via_port(url: &str, port: u16) -> String {
     let hp = host_port(url);
     let original = url.split_once("://").map(|(_, r)| r).unwrap_or(url);
-    let original_hp = original.rsplit_once('@').map(|(_, r)| r).unwrap_or(original);
+    let original_hp = original
+        .rsplit_once('@')
+        .map(|(_, r)| r)
+        .unwrap_or(original);
     let original_hp = original_hp.split(['/', '?']).next().unwrap_or(original_hp);
     let _ = hp;
     url.replacen(original_hp, &format!("127.0.0.1:{port}"), 1)
@@ -298,7 +315,13 @@ pub fn via_port(url: &str, port: u16) -> String {
 
 #[test]
 fn relay_url_rewriting() {
-    assert_eq!(host_port("postgres://postgres@127.0.0.1:5432/test"), "127.0.0.1:5432");
+    assert_eq!(
+        host_port("postgres://postgres@127.0.0.1:5432/test"),
+        "127.0.0.1:5432"
+    );
     assert_eq!(host_port("postgres://u:p@db/x"), "db:5432");
-    assert_eq!(via_port("postgres://postgres@127.0.0.1:5432/tightspec_test_1", 6000), "postgres://postgres@127.0.0.1:6000/tightspec_test_1");
+    assert_eq!(
+        via_port("postgres://postgres@127.0.0.1:5432/tightspec_test_1", 6000),
+        "postgres://postgres@127.0.0.1:6000/tightspec_test_1"
+    );
 }

@@ -4,7 +4,10 @@
 use actix_web::http::header;
 use actix_web::{delete, get, post, put, web, HttpRequest, HttpResponse};
 
-use super::wire::{EntryList, EntryListQuery, EntryView, EntryWrite, HistoryView, ReasonBody, RetireQuery, RevisionQuery, StatusFilter};
+use super::wire::{
+    EntryList, EntryListQuery, EntryView, EntryWrite, HistoryView, ReasonBody, RetireQuery,
+    RevisionQuery, StatusFilter,
+};
 use super::{if_match, CatalogueService};
 use crate::catalogue::{Change, ChangeSet, EntityKind, FrictionEntry};
 use crate::http::auth::{Editor, Reader};
@@ -19,15 +22,25 @@ pub fn configure(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
         .service(entry_history);
 }
 
-fn view(svc: &CatalogueService, entry: FrictionEntry, catalogue_revision: i64, status: actix_web::http::StatusCode) -> HttpResponse {
+fn view(
+    svc: &CatalogueService,
+    entry: FrictionEntry,
+    catalogue_revision: i64,
+    status: actix_web::http::StatusCode,
+) -> HttpResponse {
     let etag = entry.etag();
     let id = entry.id;
     let mut b = HttpResponse::build(status);
-    b.insert_header((header::ETAG, etag)).insert_header((header::CACHE_CONTROL, "no-cache"));
+    b.insert_header((header::ETAG, etag))
+        .insert_header((header::CACHE_CONTROL, "no-cache"));
     if status == actix_web::http::StatusCode::CREATED {
         b.insert_header((header::LOCATION, format!("/v1/friction-entries/{id}")));
     }
-    b.json(EntryView { entry, catalogue_revision, catalogue_may_be_stale: svc.stale() })
+    b.json(EntryView {
+        entry,
+        catalogue_revision,
+        catalogue_may_be_stale: svc.stale(),
+    })
 }
 
 /// The friction catalogue (current, or as it was at `catalogue_revision`).
@@ -42,7 +55,11 @@ fn view(svc: &CatalogueService, entry: FrictionEntry, catalogue_revision: i64, s
     )
 )]
 #[get("/v1/friction-entries")]
-async fn list_entries(svc: web::Data<CatalogueService>, _who: Reader, q: web::Query<EntryListQuery>) -> Result<HttpResponse, ApiError> {
+async fn list_entries(
+    svc: web::Data<CatalogueService>,
+    _who: Reader,
+    q: web::Query<EntryListQuery>,
+) -> Result<HttpResponse, ApiError> {
     let q = q.into_inner();
     let snap = svc.snapshot(q.catalogue_revision).await?;
     let entries = snap
@@ -59,7 +76,11 @@ async fn list_entries(svc: web::Data<CatalogueService>, _who: Reader, q: web::Qu
         .collect();
     Ok(HttpResponse::Ok()
         .insert_header((header::CACHE_CONTROL, "no-cache"))
-        .json(EntryList { catalogue_revision: snap.revision, catalogue_may_be_stale: svc.stale(), entries }))
+        .json(EntryList {
+            catalogue_revision: snap.revision,
+            catalogue_may_be_stale: svc.stale(),
+            entries,
+        }))
 }
 
 trait NoneOrEq {
@@ -82,10 +103,20 @@ impl NoneOrEq for Option<&String> {
     )
 )]
 #[get("/v1/friction-entries/{id}")]
-async fn get_entry(svc: web::Data<CatalogueService>, _who: Reader, id: web::Path<i64>, q: web::Query<RevisionQuery>) -> Result<HttpResponse, ApiError> {
+async fn get_entry(
+    svc: web::Data<CatalogueService>,
+    _who: Reader,
+    id: web::Path<i64>,
+    q: web::Query<RevisionQuery>,
+) -> Result<HttpResponse, ApiError> {
     let snap = svc.snapshot(q.catalogue_revision).await?;
     let entry = snap.entry(*id)?.clone();
-    Ok(view(&svc, entry, snap.revision, actix_web::http::StatusCode::OK))
+    Ok(view(
+        &svc,
+        entry,
+        snap.revision,
+        actix_web::http::StatusCode::OK,
+    ))
 }
 
 /// Creates a friction entry (editor). Becomes one new catalogue revision.
@@ -102,17 +133,33 @@ async fn get_entry(svc: web::Data<CatalogueService>, _who: Reader, id: web::Path
     )
 )]
 #[post("/v1/friction-entries")]
-async fn create_entry(svc: web::Data<CatalogueService>, who: Editor, body: web::Json<EntryWrite>) -> Result<HttpResponse, ApiError> {
+async fn create_entry(
+    svc: web::Data<CatalogueService>,
+    who: Editor,
+    body: web::Json<EntryWrite>,
+) -> Result<HttpResponse, ApiError> {
     let body = body.into_inner();
     if body.id.is_some() {
-        return Err(ApiError::invalid("id", "ids are assigned by the catalogue; leave it out when creating"));
+        return Err(ApiError::invalid(
+            "id",
+            "ids are assigned by the catalogue; leave it out when creating",
+        ));
     }
     let (input, reason) = body.into_input()?;
     let set = ChangeSet::single(&who.0.name, &reason, Change::CreateEntry(input));
     let applied = svc.store.apply_live(&svc.live, &set).await?;
-    let id = applied.records.first().and_then(|r| r.entity_id.parse::<i64>().ok()).unwrap_or_default();
+    let id = applied
+        .records
+        .first()
+        .and_then(|r| r.entity_id.parse::<i64>().ok())
+        .unwrap_or_default();
     let entry = applied.snapshot.entry(id)?.clone();
-    Ok(view(&svc, entry, applied.snapshot.revision, actix_web::http::StatusCode::CREATED))
+    Ok(view(
+        &svc,
+        entry,
+        applied.snapshot.revision,
+        actix_web::http::StatusCode::CREATED,
+    ))
 }
 
 /// Replaces a friction entry (editor): the entry as GET returned it,
@@ -133,18 +180,40 @@ async fn create_entry(svc: web::Data<CatalogueService>, who: Editor, body: web::
     )
 )]
 #[put("/v1/friction-entries/{id}")]
-async fn update_entry(svc: web::Data<CatalogueService>, who: Editor, id: web::Path<i64>, req: HttpRequest, body: web::Json<EntryWrite>) -> Result<HttpResponse, ApiError> {
+async fn update_entry(
+    svc: web::Data<CatalogueService>,
+    who: Editor,
+    id: web::Path<i64>,
+    req: HttpRequest,
+    body: web::Json<EntryWrite>,
+) -> Result<HttpResponse, ApiError> {
     let id = id.into_inner();
     let expected = if_match(req.headers(), &format!("entry-{id}"))?;
     let body = body.into_inner();
     if let Some(b) = body.id.filter(|b| *b != id) {
-        return Err(ApiError::unprocessable(vec![FieldError::new("id", format!("{b} differs from the id in the path ({id})"))]));
+        return Err(ApiError::unprocessable(vec![FieldError::new(
+            "id",
+            format!("{b} differs from the id in the path ({id})"),
+        )]));
     }
     let (entry, reason) = body.into_input()?;
-    let set = ChangeSet::single(&who.0.name, &reason, Change::UpdateEntry { id, expected_revision: Some(expected), entry });
+    let set = ChangeSet::single(
+        &who.0.name,
+        &reason,
+        Change::UpdateEntry {
+            id,
+            expected_revision: Some(expected),
+            entry,
+        },
+    );
     let applied = svc.store.apply_live(&svc.live, &set).await?;
     let entry = applied.snapshot.entry(id)?.clone();
-    Ok(view(&svc, entry, applied.snapshot.revision, actix_web::http::StatusCode::OK))
+    Ok(view(
+        &svc,
+        entry,
+        applied.snapshot.revision,
+        actix_web::http::StatusCode::OK,
+    ))
 }
 
 /// Retires a friction entry (editor) as a new revision; it stays in
@@ -163,14 +232,37 @@ async fn update_entry(svc: web::Data<CatalogueService>, who: Editor, id: web::Pa
     )
 )]
 #[delete("/v1/friction-entries/{id}")]
-async fn retire_entry(svc: web::Data<CatalogueService>, who: Editor, id: web::Path<i64>, req: HttpRequest, q: web::Query<RetireQuery>, body: Option<web::Json<ReasonBody>>) -> Result<HttpResponse, ApiError> {
+async fn retire_entry(
+    svc: web::Data<CatalogueService>,
+    who: Editor,
+    id: web::Path<i64>,
+    req: HttpRequest,
+    q: web::Query<RetireQuery>,
+    body: Option<web::Json<ReasonBody>>,
+) -> Result<HttpResponse, ApiError> {
     let id = id.into_inner();
     let expected = if_match(req.headers(), &format!("entry-{id}"))?;
-    let reason = q.into_inner().reason.or(body.map(|b| b.into_inner().reason)).unwrap_or_default();
-    let set = ChangeSet::single(&who.0.name, &reason, Change::RetireEntry { id, expected_revision: Some(expected) });
+    let reason = q
+        .into_inner()
+        .reason
+        .or(body.map(|b| b.into_inner().reason))
+        .unwrap_or_default();
+    let set = ChangeSet::single(
+        &who.0.name,
+        &reason,
+        Change::RetireEntry {
+            id,
+            expected_revision: Some(expected),
+        },
+    );
     let applied = svc.store.apply_live(&svc.live, &set).await?;
     let entry = applied.snapshot.entry(id)?.clone();
-    Ok(view(&svc, entry, applied.snapshot.revision, actix_web::http::StatusCode::OK))
+    Ok(view(
+        &svc,
+        entry,
+        applied.snapshot.revision,
+        actix_web::http::StatusCode::OK,
+    ))
 }
 
 /// Every change to one entry, oldest first: revision, before, after, who,
@@ -185,11 +277,23 @@ async fn retire_entry(svc: web::Data<CatalogueService>, who: Editor, id: web::Pa
     )
 )]
 #[get("/v1/friction-entries/{id}/history")]
-async fn entry_history(svc: web::Data<CatalogueService>, _who: Reader, id: web::Path<i64>) -> Result<HttpResponse, ApiError> {
+async fn entry_history(
+    svc: web::Data<CatalogueService>,
+    _who: Reader,
+    id: web::Path<i64>,
+) -> Result<HttpResponse, ApiError> {
     let id = id.into_inner();
-    let history = svc.store.history(EntityKind::FrictionEntry, &id.to_string()).await?;
+    let history = svc
+        .store
+        .history(EntityKind::FrictionEntry, &id.to_string())
+        .await?;
     if history.is_empty() {
-        return Err(crate::catalogue::CatalogueError::NotFound { field: "id".into(), kind: "friction entry", id: id.to_string() }.into());
+        return Err(crate::catalogue::CatalogueError::NotFound {
+            field: "id".into(),
+            kind: "friction entry",
+            id: id.to_string(),
+        }
+        .into());
     }
     Ok(HttpResponse::Ok().json(HistoryView {
         entity: EntityKind::FrictionEntry.as_str().into(),

@@ -85,9 +85,12 @@ fn field_errors(e: &CatalogueError) -> Vec<FieldError> {
 impl From<CatalogueError> for ApiError {
     fn from(e: CatalogueError) -> Self {
         match &e {
-            CatalogueError::Unknown { field, kind, given, suggestions } => {
-                ApiError::unknown(field.clone(), kind, given, suggestions.clone())
-            }
+            CatalogueError::Unknown {
+                field,
+                kind,
+                given,
+                suggestions,
+            } => ApiError::unknown(field.clone(), kind, given, suggestions.clone()),
             CatalogueError::NoFrictionEntry { .. }
             | CatalogueError::NotFound { .. }
             | CatalogueError::UnknownRevision { .. } => ApiError::NotFound {
@@ -95,7 +98,9 @@ impl From<CatalogueError> for ApiError {
                 errors: field_errors(&e),
             },
             CatalogueError::Stale { current, .. } => ApiError::PreconditionFailed {
-                detail: format!("{e}; the current state is in `current`: merge and resend with its ETag"),
+                detail: format!(
+                    "{e}; the current state is in `current`: merge and resend with its ETag"
+                ),
                 current: current_json(current),
             },
             CatalogueError::Invalid { .. } => ApiError::unprocessable(field_errors(&e)),
@@ -146,14 +151,27 @@ pub struct CatalogueWiring {
 impl CatalogueWiring {
     /// Opens the store (migrations, seed), loads the current catalogue and
     /// starts the watcher. `database_url` `None` → embedded SQLite.
-    pub async fn open(database_url: Option<&str>, anonymous_reads: bool) -> Result<Self, StoreError> {
+    pub async fn open(
+        database_url: Option<&str>,
+        anonymous_reads: bool,
+    ) -> Result<Self, StoreError> {
         let store = Store::open(database_url).await?;
         let live = Arc::new(Live::new(store.load_current().await?));
         let watcher = crate::store::watch::spawn(store.clone(), Arc::clone(&live));
-        tracing::info!(backend = store.backend(), revision = live.revision(), "catalogue loaded");
+        tracing::info!(
+            backend = store.backend(),
+            revision = live.revision(),
+            "catalogue loaded"
+        );
         Ok(Self {
-            service: actix_web::web::Data::new(CatalogueService { store: store.clone(), live }),
-            auth: actix_web::web::Data::new(super::auth::Authenticator::new(store, anonymous_reads)),
+            service: actix_web::web::Data::new(CatalogueService {
+                store: store.clone(),
+                live,
+            }),
+            auth: actix_web::web::Data::new(super::auth::Authenticator::new(
+                store,
+                anonymous_reads,
+            )),
             watcher,
         })
     }

@@ -6,7 +6,8 @@ use serde::{Deserialize, Serialize};
 use utoipa::{IntoParams, ToSchema};
 
 use crate::catalogue::{
-    DiffItem, EntryInput, Finish, FinishInput, FrictionEntry, Lubricant, LubricantInput, RangeInput, Status,
+    DiffItem, EntryInput, Finish, FinishInput, FrictionEntry, Lubricant, LubricantInput,
+    RangeInput, Status,
 };
 use crate::http::error::{ApiError, FieldError};
 use crate::store::{HistoryItem, RevisionInfo};
@@ -204,27 +205,32 @@ impl EntryWrite {
         let bearing = required(self.bearing_friction, "bearing_friction", &mut missing);
         let source = required(self.source, "source", &mut missing);
         if self.reason.trim().is_empty() {
-            missing.push(FieldError::new("reason", "a reason is required for every catalogue change"));
+            missing.push(FieldError::new(
+                "reason",
+                "a reason is required for every catalogue change",
+            ));
         }
         match (finish, lubricant, thread, bearing, source) {
-            (Some(finish), Some(lubricant), Some(thread_friction), Some(bearing_friction), Some(source))
-                if missing.is_empty() =>
-            {
-                Ok((
-                    EntryInput {
-                        finish,
-                        lubricant,
-                        bearing_surface: self.bearing_surface,
-                        thread_friction,
-                        bearing_friction,
-                        total_friction: self.total_friction,
-                        source,
-                        notes: self.notes,
-                        status: self.status,
-                    },
-                    self.reason,
-                ))
-            }
+            (
+                Some(finish),
+                Some(lubricant),
+                Some(thread_friction),
+                Some(bearing_friction),
+                Some(source),
+            ) if missing.is_empty() => Ok((
+                EntryInput {
+                    finish,
+                    lubricant,
+                    bearing_surface: self.bearing_surface,
+                    thread_friction,
+                    bearing_friction,
+                    total_friction: self.total_friction,
+                    source,
+                    notes: self.notes,
+                    status: self.status,
+                },
+                self.reason,
+            )),
             _ => Err(ApiError::unprocessable(missing)),
         }
     }
@@ -254,7 +260,14 @@ impl FinishWrite {
     pub fn into_input(self, path_id: Option<&str>) -> Result<(FinishInput, String), ApiError> {
         let (id, name) = id_and_name(self.id, self.name, path_id, &self.reason)?;
         Ok((
-            FinishInput { id, name, electroplated: self.electroplated, stainless: self.stainless, notes: self.notes, status: self.status },
+            FinishInput {
+                id,
+                name,
+                electroplated: self.electroplated,
+                stainless: self.stainless,
+                notes: self.notes,
+                status: self.status,
+            },
             self.reason,
         ))
     }
@@ -281,15 +294,32 @@ pub struct LubricantWrite {
 impl LubricantWrite {
     pub fn into_input(self, path_id: Option<&str>) -> Result<(LubricantInput, String), ApiError> {
         let (id, name) = id_and_name(self.id, self.name, path_id, &self.reason)?;
-        Ok((LubricantInput { id, name, dry: self.dry, notes: self.notes, status: self.status }, self.reason))
+        Ok((
+            LubricantInput {
+                id,
+                name,
+                dry: self.dry,
+                notes: self.notes,
+                status: self.status,
+            },
+            self.reason,
+        ))
     }
 }
 
-fn id_and_name(id: Option<String>, name: Option<String>, path_id: Option<&str>, reason: &str) -> Result<(String, String), ApiError> {
+fn id_and_name(
+    id: Option<String>,
+    name: Option<String>,
+    path_id: Option<&str>,
+    reason: &str,
+) -> Result<(String, String), ApiError> {
     let mut problems = Vec::new();
     let id = match (id, path_id) {
         (Some(b), Some(p)) if b != p => {
-            problems.push(FieldError::new("id", format!("'{b}' differs from the id in the path '{p}'")));
+            problems.push(FieldError::new(
+                "id",
+                format!("'{b}' differs from the id in the path '{p}'"),
+            ));
             None
         }
         (_, Some(p)) => Some(p.to_string()),
@@ -297,7 +327,10 @@ fn id_and_name(id: Option<String>, name: Option<String>, path_id: Option<&str>, 
     };
     let name = required(name, "name", &mut problems);
     if reason.trim().is_empty() {
-        problems.push(FieldError::new("reason", "a reason is required for every catalogue change"));
+        problems.push(FieldError::new(
+            "reason",
+            "a reason is required for every catalogue change",
+        ));
     }
     match (id, name) {
         (Some(id), Some(name)) if problems.is_empty() => Ok((id, name)),
