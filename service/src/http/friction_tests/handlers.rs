@@ -169,7 +169,7 @@ async fn record(
     let req = body.into_inner();
     let missing: Vec<FieldError> = [("finish", &req.finish), ("lubricant", &req.lubricant)]
         .into_iter()
-        .filter(|(_, v)| v.as_deref().is_none_or(|s| s.trim().is_empty()))
+        .filter(|(_, v)| v.as_deref().map_or(true, |s| s.trim().is_empty()))
         .map(|(f, _)| {
             FieldError::new(
                 f,
@@ -242,7 +242,7 @@ async fn proposal_for(
         .map_err(|e| ApiError::Internal(format!("stored friction test {id} unreadable: {e}")))?;
     let (_, eval) = super::run(&req)?;
     let snap = svc.live.current();
-    Ok(proposal::build(
+    proposal::build(
         &snap,
         id,
         &stored.finish,
@@ -251,7 +251,7 @@ async fn proposal_for(
         eval.specimens.len(),
         basis,
         units,
-    )?)
+    )
 }
 
 /// The catalogue change a stored series supports: new ranges for the
