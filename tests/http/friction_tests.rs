@@ -116,7 +116,10 @@ async fn engineer_evaluates_stores_proposes_applies_and_traces_a_series(db: &Tes
     assert!(close(&st["mean"], mean(&thread_mu)));
     assert!(close(&st["min"], 0.11) && close(&st["max"], 0.128));
     assert!(st["std_dev"].as_f64().unwrap() > 0.0);
-    assert!(eval["method"]["std_dev"].as_str().unwrap().contains("n − 1"));
+    assert!(eval["method"]["std_dev"]
+        .as_str()
+        .unwrap()
+        .contains("n − 1"));
     assert!(eval["cautions"].as_array().unwrap().len() >= 2);
     assert!(app.get("/v1/friction-tests/1").await.status() == StatusCode::NOT_FOUND);
 
@@ -129,8 +132,14 @@ async fn engineer_evaluates_stores_proposes_applies_and_traces_a_series(db: &Tes
         rq.send()
     };
     assert_eq!(post(None).await.unwrap().status(), StatusCode::UNAUTHORIZED);
-    assert_eq!(post(Some(&reader)).await.unwrap().status(), StatusCode::FORBIDDEN);
-    assert_eq!(app.get("/v1/friction-tests/1").await.status(), StatusCode::NOT_FOUND);
+    assert_eq!(
+        post(Some(&reader)).await.unwrap().status(),
+        StatusCode::FORBIDDEN
+    );
+    assert_eq!(
+        app.get("/v1/friction-tests/1").await.status(),
+        StatusCode::NOT_FOUND
+    );
     let r = post(Some(&editor)).await.unwrap();
     assert_eq!(r.status(), StatusCode::CREATED);
     let location = r.headers()["location"].to_str().unwrap().to_owned();
@@ -152,15 +161,24 @@ async fn engineer_evaluates_stores_proposes_applies_and_traces_a_series(db: &Tes
         .await;
     let entry_id = p["entry_id"].as_i64().unwrap();
     let (entry, etag) = app.entry(entry_id).await;
-    assert_eq!((entry["finish"].as_str(), entry["lubricant"].as_str()), (Some("zinc-flake"), Some("none")));
+    assert_eq!(
+        (entry["finish"].as_str(), entry["lubricant"].as_str()),
+        (Some("zinc-flake"), Some("none"))
+    );
     assert_eq!(p["entry_etag"], etag);
     let thread = &p["changes"][0];
     assert_eq!(thread["coefficient"], "thread_friction");
     assert_eq!(thread["current"], entry["thread_friction"]);
     assert_eq!(thread["proposed"], json!({"min": 0.11, "max": 0.128}));
-    assert_eq!(p["changes"][1]["proposed"], json!({"min": 0.123, "max": 0.15}));
+    assert_eq!(
+        p["changes"][1]["proposed"],
+        json!({"min": 0.123, "max": 0.15})
+    );
     let effect = p["effect"].as_array().unwrap();
-    let threads: Vec<&str> = effect.iter().map(|e| e["thread"].as_str().unwrap()).collect();
+    let threads: Vec<&str> = effect
+        .iter()
+        .map(|e| e["thread"].as_str().unwrap())
+        .collect();
     assert_eq!(threads, ["M8", "M10", "M12"]);
     for e in effect {
         assert_eq!(e["property_class"], "8.8");
@@ -168,7 +186,9 @@ async fn engineer_evaluates_stores_proposes_applies_and_traces_a_series(db: &Tes
         assert!(e["torque_target_change"].as_f64().unwrap() < 0.0, "{e}");
     }
     let sigma = app
-        .get_json(&format!("/v1/friction-tests/{id}/proposal?basis=three_sigma"))
+        .get_json(&format!(
+            "/v1/friction-tests/{id}/proposal?basis=three_sigma"
+        ))
         .await;
     assert_eq!(sigma["basis"], "three_sigma");
 
@@ -184,23 +204,36 @@ async fn engineer_evaluates_stores_proposes_applies_and_traces_a_series(db: &Tes
         }
         rq.send()
     };
-    let good = json!({"basis": "observed", "reason": "Rig 2 series on Kestrel K4 deck bolts (demo)"});
+    let good =
+        json!({"basis": "observed", "reason": "Rig 2 series on Kestrel K4 deck bolts (demo)"});
     let r = apply(None, good.clone()).await.unwrap();
     assert_eq!(r.status(), StatusCode::PRECONDITION_REQUIRED);
-    let r = apply(Some(etag.clone()), json!({"basis": "observed"})).await.unwrap();
+    let r = apply(Some(etag.clone()), json!({"basis": "observed"}))
+        .await
+        .unwrap();
     assert_eq!(r.status(), StatusCode::UNPROCESSABLE_ENTITY);
     let problem: Value = r.json().await.unwrap();
     assert_eq!(problem_fields(&problem), ["reason"]);
-    assert_eq!(app.entry(entry_id).await.1, etag, "refused applies change nothing");
+    assert_eq!(
+        app.entry(entry_id).await.1,
+        etag,
+        "refused applies change nothing"
+    );
     let r = apply(Some(etag.clone()), good.clone()).await.unwrap();
     assert_eq!(r.status(), StatusCode::OK);
     let applied: Value = r.json().await.unwrap();
     let revision = applied["catalogue_revision"].as_i64().unwrap();
     assert_eq!(revision, 2);
-    assert_eq!(applied["entry"]["thread_friction"], json!({"min": 0.11, "max": 0.128}));
+    assert_eq!(
+        applied["entry"]["thread_friction"],
+        json!({"min": 0.11, "max": 0.128})
+    );
     let (after, new_etag) = app.entry(entry_id).await;
     assert_ne!(new_etag, etag);
-    assert!(after["source"].as_str().unwrap().contains(&format!("friction test series {id}")));
+    assert!(after["source"]
+        .as_str()
+        .unwrap()
+        .contains(&format!("friction test series {id}")));
     // The stale ETag is refused now.
     assert_eq!(
         apply(Some(etag), good).await.unwrap().status(),
@@ -261,7 +294,10 @@ async fn bad_series_are_refused_with_every_field_named_and_nothing_stored(db: &T
             "{problem}"
         );
     }
-    assert_eq!(app.get("/v1/friction-tests/1").await.status(), StatusCode::NOT_FOUND);
+    assert_eq!(
+        app.get("/v1/friction-tests/1").await.status(),
+        StatusCode::NOT_FOUND
+    );
 
     // Unknown names: 404 with suggestions; a stored series needs finish and lubricant.
     let (mut unknown, _, _) = demo_series();
@@ -300,7 +336,10 @@ async fn bad_series_are_refused_with_every_field_named_and_nothing_stored(db: &T
         .await
         .unwrap();
     assert_eq!(r.status(), StatusCode::BAD_REQUEST);
-    assert_eq!(app.get("/v1/friction-tests/1").await.status(), StatusCode::NOT_FOUND);
+    assert_eq!(
+        app.get("/v1/friction-tests/1").await.status(),
+        StatusCode::NOT_FOUND
+    );
 }
 
 async fn us_customary_thrust_bearing_series(db: &TestDb) {
@@ -330,8 +369,14 @@ async fn us_customary_thrust_bearing_series(db: &TestDb) {
     assert_eq!(s["clamp_force"]["unit"], "lbf");
     assert!((s["clamp_force"]["value"].as_f64().unwrap() - 3100.0).abs() < 1e-6);
     assert_eq!(s["total_torque"]["unit"], "lbf·in");
-    assert!((s["efficiency"].as_f64().unwrap() - 0.18).abs() < 0.005, "{s}");
-    assert!((s["thread_friction"].as_f64().unwrap() - 0.18).abs() < 0.005, "{s}");
+    assert!(
+        (s["efficiency"].as_f64().unwrap() - 0.18).abs() < 0.005,
+        "{s}"
+    );
+    assert!(
+        (s["thread_friction"].as_f64().unwrap() - 0.18).abs() < 0.005,
+        "{s}"
+    );
     assert_eq!(s["bearing_friction"], Value::Null);
     assert_eq!(s["total_friction"], Value::Null);
     assert_eq!(eval["geometry"]["pitch"]["unit"], "in");

@@ -50,7 +50,10 @@ async fn a_series_is_stored_and_read_back(db: &TestDb) {
     assert_eq!(read, stored);
     assert_eq!(read.series_json, series().series_json);
     let missing = store.friction_test(stored.id + 100).await.unwrap_err();
-    assert!(matches!(missing, StoreError::NotFound { .. }), "{missing:?}");
+    assert!(
+        matches!(missing, StoreError::NotFound { .. }),
+        "{missing:?}"
+    );
     assert!(store
         .friction_test_applications(stored.id)
         .await
