@@ -3,24 +3,24 @@
 
 use reqwest::{Client, Response};
 use serde_json::Value;
-use tightspec::config::Config;
-use tightspec::startup::Application;
+
+use crate::support::TestApp;
 
 pub struct SpecApp {
     pub base: String,
     pub client: Client,
+    /// Keeps the server and its temporary database alive.
+    _app: TestApp,
 }
 
-/// Starts the real server on a free loopback port with the seed catalogue.
+/// Starts the real server (its own temporary SQLite catalogue at the seed
+/// revision) through the shared `TestApp`.
 pub async fn spawn() -> SpecApp {
-    let app = Application::build(Config::local())
-        .await
-        .expect("the service starts");
-    let base = format!("http://127.0.0.1:{}", app.port());
-    tokio::spawn(app.run_until_stopped());
+    let app = TestApp::spawn().await;
     SpecApp {
-        base,
-        client: Client::new(),
+        base: app.base.clone(),
+        client: app.client.clone(),
+        _app: app,
     }
 }
 

@@ -232,7 +232,11 @@ pub fn table(s: &SpecResponse) -> String {
     let mut o = String::new();
     let t = &s.fastener.thread;
     let g = &s.fastener.property_class;
-    let _ = writeln!(o, "Tightening specification: {} {} ({})", t.designation, g.id, g.standard);
+    let _ = writeln!(
+        o,
+        "Tightening specification: {} {} ({})",
+        t.designation, g.id, g.standard
+    );
     let _ = writeln!(o, "{}", "-".repeat(72));
     let _ = writeln!(
         o,
@@ -250,7 +254,12 @@ pub fn table(s: &SpecResponse) -> String {
     );
     if s.angle.computed {
         if let (Some(min), Some(max)) = (&s.angle.min, &s.angle.max) {
-            let snug = s.angle.snug_torque.as_ref().map(|v| q(v, 2)).unwrap_or_default();
+            let snug = s
+                .angle
+                .snug_torque
+                .as_ref()
+                .map(|v| q(v, 2))
+                .unwrap_or_default();
             let _ = writeln!(
                 o,
                 "Angle       {:.0}° to {:.0}° from snug torque {snug} ({})",
@@ -266,7 +275,11 @@ pub fn table(s: &SpecResponse) -> String {
             s.angle.reason.as_deref().unwrap_or("")
         );
     }
-    let _ = writeln!(o, "Tightening factor α_A {:.2}   ({})", s.tightening_factor, s.governing);
+    let _ = writeln!(
+        o,
+        "Tightening factor α_A {:.2}   ({})",
+        s.tightening_factor, s.governing
+    );
     let _ = writeln!(
         o,
         "Method      {} ({}), tool scatter ±{:.1} % ({})",
@@ -345,14 +358,28 @@ mod tests {
     }
 
     fn args(extra: &[&str]) -> SpecArgs {
-        let mut v = vec!["t", "--thread", "M12", "--property-class", "8.8", "--builtin-catalogue"];
+        let mut v = vec![
+            "t",
+            "--thread",
+            "M12",
+            "--property-class",
+            "8.8",
+            "--builtin-catalogue",
+        ];
         v.extend_from_slice(extra);
         T::parse_from(v).args
     }
 
     #[tokio::test]
     async fn table_and_json_from_the_same_computation() {
-        let a = args(&["--thread-friction", "0.14", "--bearing-friction", "0.14", "--tool-scatter", "0"]);
+        let a = args(&[
+            "--thread-friction",
+            "0.14",
+            "--bearing-friction",
+            "0.14",
+            "--tool-scatter",
+            "0",
+        ]);
         let text = run(&a).await.unwrap();
         assert!(text.contains("Tightening specification: M12 8.8"), "{text}");
         assert!(text.contains("ISO 16047"), "{text}");
@@ -374,6 +401,9 @@ mod tests {
         assert!(e.contains("finish: unknown finish 'zinc-plated'"), "{e}");
         assert!(e.contains("did you mean"), "{e}");
         let e = run(&args(&[])).await.unwrap_err();
-        assert!(e.contains("(422)") && e.contains("finish") && e.contains("lubricant"), "{e}");
+        assert!(
+            e.contains("(422)") && e.contains("finish") && e.contains("lubricant"),
+            "{e}"
+        );
     }
 }

@@ -138,3 +138,87 @@ fn explicit_bearing_replaces_tables() {
     let e = resolve(&r, &snap).unwrap_err();
     assert!(fields(&e)[0].starts_with("bearing."), "{e:?}");
 }
+
+mod no_panic {
+    use super::*;
+    use crate::engine::spec::compute;
+    use proptest::prelude::*;
+
+    fn text() -> impl Strategy<Value = String> {
+        prop_oneof![
+            Just("M10".to_string()),
+            Just("1/2-13 UNC".to_string()),
+            Just("8.8".to_string()),
+            Just("zinc-electroplated".to_string()),
+            Just("none".to_string()),
+            "\\PC{0,12}",
+        ]
+    }
+
+    fn number() -> impl Strategy<Value = f64> {
+        prop_oneof![
+            Just(f64::NAN),
+            Just(f64::INFINITY),
+            Just(-0.0),
+            Just(0.12),
+            -1e6f64..1e6,
+            0.0f64..1.0,
+        ]
+    }
+
+    fn quantity() -> impl Strategy<Value = Option<Quantity>> {
+        proptest::option::of(
+            (
+                number(),
+                prop_oneof![Just("mm"), Just("N·m"), Just("kN"), Just("x")],
+            )
+                .prop_map(|(value, unit)| Quantity {
+                    value,
+                    unit: unit.to_string(),
+                }),
+        )
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(400))]
+        /// Whatever a client sends, reading and computing it gives a spec or
+        /// typed problems, never a panic.
+        #[test]
+        fn arbitrary_requests_never_panic(
+            thread in text(),
+            grade in text(),
+            finish in proptest::option::of(text()),
+            lubricant in proptest::option::of(text()),
+            th in proptest::option::of((number(), number())),
+            b in proptest::option::of(number()),
+            scatter in proptest::option::of(number()),
+            nu in proptest::option::of(number()),
+            clamp in quantity(),
+            snug in quantity(),
+            load in quantity(),
+            method in proptest::option::of(prop_oneof![Just("torque-angle".to_string()), text()]),
+        ) {
+            let req = SpecRequest {
+                thread,
+                property_class: grade,
+                finish,
+                lubricant,
+                thread_friction: th.map(|(min, max)| FrictionInput::Range { min, max }),
+                bearing_friction: b.map(FrictionInput::Single),
+                tool_scatter: scatter,
+                utilisation: nu,
+                clamp_length: clamp,
+                joint_outer_diameter: Some(mm(30.0)),
+                snug_torque: snug,
+                required_clamp_load: load,
+                tightening_method: method,
+                ..SpecRequest::default()
+            };
+            let snap = Snapshot::seed();
+            match resolve(&req, &snap) {
+                Ok(r) => { let _ = compute(&r.input); }
+                Err(e) => prop_assert!(!e.0.is_empty()),
+            }
+        }
+    }
+}
