@@ -28,6 +28,13 @@ use crate::http::friction_tests::wire::{
 #[derive(Debug, Clone, clap::Subcommand)]
 pub enum FrictionCommand {
     /// Evaluate a test series from a CSV file (ISO 16047 method).
+    ///
+    /// The CSV has one header row, then one row per specimen in test order.
+    /// Columns, each with its unit in square brackets: `clamp_force [kN]`
+    /// (or N, lbf), `total_torque [N·m]` (or N*m, Nm, lbf·in, lbf·ft) and,
+    /// optionally, `thread_torque [N·m]` (an empty cell: not measured).
+    /// Without a thread-torque reading a row is a shop-form record (total
+    /// friction only); with --thrust-bearing the torque is thread torque.
     Evaluate(EvaluateArgs),
 }
 
