@@ -124,7 +124,12 @@ async fn threads(query: web::Query<ThreadsQuery>) -> Result<HttpResponse, ApiErr
         }
     }
     let list: Vec<Thread> = thread::standard_threads()
-        .filter(|t| query.series.as_deref().map_or(true, |s| slug(&t.series) == s))
+        .filter(|t| {
+            query
+                .series
+                .as_deref()
+                .map_or(true, |s| slug(&t.series) == s)
+        })
         .map(|t| wire_thread(&t, units))
         .collect();
     Ok(cached(list))
