@@ -394,3 +394,50 @@ async fn us_customary_thrust_bearing_series(db: &TestDb) {
         .unwrap();
     assert_eq!(r.status(), StatusCode::BAD_REQUEST);
 }
+
+#[tokio::test(flavor = "multi_thread", worker_threads = 2)]
+async fn curves_are_read_at_75_percent_of_the_proof_load() {
+    // M10 8.8: the evaluation point is 0.75·F_p (ISO 16047); the curve is
+    // sampled every 4 kN with torques from the ISO 16047 relations, so the
+    // interpolated point gives back the frictions it was made with.
+    let db = TestDb::sqlite();
+    let app = start(&db.url, true).await;
+    let curve: Vec<Value> = (0..=10)
+        .map(|i| {
+            let f = 4000.0 * f64::from(i);
+            let (t_th, t) = m10_torques(f, 0.12, 0.16);
+            json!({
+                "clamp_force": {"value": f, "unit": "N"},
+                "total_torque": {"value": t, "unit": "N·m"},
+                "thread_torque": {"value": t_th, "unit": "N·m"},
+                "angle": {"value": 9.0 * f64::from(i), "unit": "degrees"}
+            })
+        })
+        .collect();
+    let body = json!({
+        "thread": "M10",
+        "property_class": "8.8",
+        "bearing": {
+            "outer_diameter": {"value": 16.0, "unit": "mm"},
+            "inner_diameter": {"value": 11.0, "unit": "mm"}
+        },
+        "specimens": [{"curve": curve}]
+    });
+    let r = app
+        .client
+        .post(app.url("/v1/friction-tests/evaluate"))
+        .json(&body)
+        .send()
+        .await
+        .unwrap();
+    assert_eq!(r.status(), StatusCode::OK);
+    let eval: Value = r.json().await.unwrap();
+    let proof = eval["geometry"]["proof_load"]["value"].as_f64().unwrap();
+    let fe = eval["evaluation_clamp_force"]["value"].as_f64().unwrap();
+    assert!(((fe / proof) - 0.75).abs() < 1e-12, "{fe} of {proof}");
+    let s = &eval["specimens"][0];
+    assert_eq!(s["from_curve"], true);
+    assert!(close(&s["thread_friction"], 0.12), "{s}");
+    assert!(close(&s["bearing_friction"], 0.16), "{s}");
+    assert!(close(&s["angle"]["value"], 9.0 * fe / 4000.0), "{s}");
+}
