@@ -172,10 +172,10 @@ fn friction_words(f: &ResolvedFriction, revision: i64) -> String {
         FrictionOrigin::Catalogue {
             entry_id,
             entry_revision,
-            reference,
+            ..
         } => format!(
             "from catalogue revision {revision}, entry {entry_id} (changed in revision \
-             {entry_revision}): {reference}"
+             {entry_revision}; its source is in friction.catalogue_entry)"
         ),
     };
     if f.thread_origin == f.bearing_origin {

@@ -147,10 +147,9 @@ pub struct CatalogueEntryRef {
 pub struct FrictionSideOut {
     pub min: f64,
     pub max: f64,
-    /// `catalogue` or `request` ("given in the request").
+    /// `catalogue` (the entry in `friction.catalogue_entry`) or `request`
+    /// (given in the request).
     pub origin: &'static str,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub catalogue_entry: Option<CatalogueEntryRef>,
 }
 
 #[derive(Debug, Clone, Serialize, ToSchema)]
@@ -163,6 +162,10 @@ pub struct FrictionOut {
     pub finish: Option<String>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub lubricant: Option<String>,
+    /// The catalogue entry the `catalogue` values came from (one entry
+    /// gives both thread and bearing friction).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub catalogue_entry: Option<CatalogueEntryRef>,
     /// The catalogue revision the look-up used.
     pub catalogue_revision: i64,
     /// Provenance in words.
@@ -288,27 +291,28 @@ fn source(v: ValueSource) -> &'static str {
 }
 
 fn side(min: f64, max: f64, origin: &FrictionOrigin) -> FrictionSideOut {
-    match origin {
-        FrictionOrigin::Request => FrictionSideOut {
-            min,
-            max,
-            origin: "request",
-            catalogue_entry: None,
+    FrictionSideOut {
+        min,
+        max,
+        origin: match origin {
+            FrictionOrigin::Request => "request",
+            FrictionOrigin::Catalogue { .. } => "catalogue",
         },
+    }
+}
+
+fn entry_ref(origin: &FrictionOrigin) -> Option<CatalogueEntryRef> {
+    match origin {
+        FrictionOrigin::Request => None,
         FrictionOrigin::Catalogue {
             entry_id,
             entry_revision,
             reference,
-        } => FrictionSideOut {
-            min,
-            max,
-            origin: "catalogue",
-            catalogue_entry: Some(CatalogueEntryRef {
-                id: *entry_id,
-                revision: *entry_revision,
-                source: reference.clone(),
-            }),
-        },
+        } => Some(CatalogueEntryRef {
+            id: *entry_id,
+            revision: *entry_revision,
+            source: reference.clone(),
+        }),
     }
 }
 
@@ -491,6 +495,7 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
             ),
             finish: f.finish.clone(),
             lubricant: f.lubricant.clone(),
+            catalogue_entry: entry_ref(&f.thread_origin).or_else(|| entry_ref(&f.bearing_origin)),
             catalogue_revision: resolved.revision,
             source: spec.friction_source.clone(),
         },
