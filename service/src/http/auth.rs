@@ -216,3 +216,24 @@ mod tests {
         assert!(bearer("Bearer ").is_err());
     }
 }
+
+/// Adds the `bearer` security scheme (RFC 6750) the write routes name.
+pub struct BearerScheme;
+
+impl utoipa::Modify for BearerScheme {
+    fn modify(&self, openapi: &mut utoipa::openapi::OpenApi) {
+        use utoipa::openapi::security::{HttpAuthScheme, HttpBuilder, SecurityScheme};
+        let components = openapi.components.get_or_insert_with(Default::default);
+        components.add_security_scheme(
+            "bearer",
+            SecurityScheme::Http(
+                HttpBuilder::new()
+                    .scheme(HttpAuthScheme::Bearer)
+                    .description(Some(
+                        "API token (tightspec token create); roles reader < editor < admin",
+                    ))
+                    .build(),
+            ),
+        );
+    }
+}

@@ -7,6 +7,7 @@ use actix_web::{web, App, HttpResponse};
 use utoipa::OpenApi;
 use utoipa_actix_web::AppExt;
 
+use super::auth::BearerScheme;
 use super::error::{FieldError, Problem};
 use super::quantity::{Quantity, Units};
 use super::state::AppState;
@@ -24,8 +25,10 @@ Errors are RFC 9457 problem details (application/problem+json) with type `/probl
     ),
     tags(
         (name = "operations", description = "Health, readiness, metrics"),
-        (name = "reference", description = "Threads, property classes, methods, materials, finishes, lubricants")
+        (name = "reference", description = "Threads, property classes, methods, materials, finishes, lubricants"),
+        (name = "catalogue", description = "The versioned friction catalogue: entries, finishes, lubricants, revisions, history, diff, export")
     ),
+    modifiers(&BearerScheme),
     components(schemas(Problem, FieldError, Quantity, Units))
 )]
 pub struct ApiDoc;
