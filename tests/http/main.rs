@@ -14,6 +14,7 @@ mod batch;
 mod catalogue;
 mod catalogue_cli;
 mod catalogue_instances;
+mod catalogue_specs;
 mod catalogue_support;
 mod friction_tests;
 mod friction_tests_store;
