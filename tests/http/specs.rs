@@ -375,3 +375,45 @@ async fn etag_304_and_cache_control() {
         (404, vec!["catalogue_revision".to_string()])
     );
 }
+
+#[tokio::test]
+async fn post_carries_an_etag_but_is_never_304() {
+    let app = spawn().await;
+    let body = json!({"thread": "M10", "property_class": "8.8", "thread_friction": 0.12, "bearing_friction": 0.12});
+    let r = app.post_json("/v1/tightening-specs", &body).await;
+    assert_eq!(r.status().as_u16(), 200);
+    let tag = r.headers()["etag"].to_str().unwrap().to_string();
+    let r = app
+        .client
+        .post(format!("{}/v1/tightening-specs", app.base))
+        .header("if-none-match", &tag)
+        .json(&body)
+        .send()
+        .await
+        .unwrap();
+    assert_eq!(r.status().as_u16(), 200);
+    // The same spec asked by GET has the same tag.
+    let r = app
+        .get("/v1/tightening-specs?thread=M10&property_class=8.8&thread_friction=0.12&bearing_friction=0.12")
+        .await;
+    assert_eq!(r.headers()["etag"].to_str().unwrap(), tag);
+}
+
+#[tokio::test]
+async fn reads_need_a_token_when_anonymous_reads_are_off() {
+    let app = crate::support::TestApp::builder()
+        .anonymous_reads(false)
+        .spawn()
+        .await;
+    for path in [
+        "/v1/tightening-specs?thread=M10&property_class=8.8&thread_friction=0.12&bearing_friction=0.12",
+        "/v1/setpoints?thread=M10&property_class=8.8&thread_friction=0.12&bearing_friction=0.12",
+    ] {
+        let r = app.get(path).await;
+        assert_eq!(r.status().as_u16(), 401, "{path}");
+    }
+    let r = app
+        .post_json("/v1/tightening-specs/batch", &json!({"items": []}))
+        .await;
+    assert_eq!(r.status().as_u16(), 401);
+}

@@ -12,8 +12,8 @@ use utoipa::ToSchema;
 
 use crate::catalogue::Snapshot;
 use crate::engine::spec::{compute, Spec};
-use crate::http::catalogue::CatalogueService;
-use crate::http::error::{ApiError, FieldError, Problem};
+use crate::http::auth::Reader;
+use crate::http::error::{ApiError, Problem};
 use crate::http::quantity::{TorqueUnit, Units};
 use crate::http::state::AppState;
 
@@ -28,10 +28,8 @@ use super::setpoints::{setpoints, SetpointResponse};
 pub const BATCH_MAX_ITEMS: usize = 10_000;
 
 /// The catalogue snapshot a request is answered from: the live one, or the
-/// pinned revision (from the store when the service has one, else from the
-/// revisions held in memory).
+/// pinned revision (held in memory, else read from the store).
 pub async fn snapshot_for(
-    req: &HttpRequest,
     state: &AppState,
     revision: Option<i64>,
 ) -> Result<Arc<Snapshot>, ApiError> {
@@ -48,19 +46,7 @@ pub async fn snapshot_for(
             format!("catalogue revisions start at 1, got {r}"),
         ));
     }
-    if let Some(service) = req.app_data::<web::Data<CatalogueService>>() {
-        return service.snapshot(Some(r)).await;
-    }
-    state.catalogue.at(r).ok_or_else(|| ApiError::NotFound {
-        detail: format!(
-            "catalogue_revision: revision {r} does not exist (current is {})",
-            current.revision
-        ),
-        errors: vec![FieldError::new(
-            "catalogue_revision",
-            format!("no catalogue revision {r}; current is {}", current.revision),
-        )],
-    })
+    state.catalogue_service.snapshot(Some(r)).await
 }
 
 /// Resolve and compute one request against a snapshot.
@@ -77,7 +63,9 @@ fn units_tag(u: Units) -> &'static str {
     }
 }
 
-/// 200 with ETag and Cache-Control, or 304 when `If-None-Match` matches.
+/// 200 with ETag and Cache-Control, or (for GET) 304 when `If-None-Match`
+/// matches. POST answers carry the ETag too but are never 304 (RFC 9110
+/// §13.1.2 reserves 304 for GET and HEAD).
 fn cached<T: Serialize>(
     http: &HttpRequest,
     tag: String,
@@ -85,7 +73,8 @@ fn cached<T: Serialize>(
     body: impl FnOnce() -> Result<T, ItemErrors>,
 ) -> Result<HttpResponse, ApiError> {
     let cc = cache_control(pinned);
-    if not_modified(http.headers(), &tag) {
+    let get = http.method() == actix_web::http::Method::GET;
+    if get && not_modified(http.headers(), &tag) {
         return Ok(HttpResponse::NotModified()
             .insert_header((ETAG, tag))
             .insert_header((CACHE_CONTROL, cc))
@@ -103,7 +92,7 @@ async fn spec_for(
     state: &AppState,
     req: &SpecRequest,
 ) -> Result<HttpResponse, ApiError> {
-    let snapshot = snapshot_for(http, state, req.catalogue_revision).await?;
+    let snapshot = snapshot_for(state, req.catalogue_revision).await?;
     let (resolved, spec) = compute_one(req, &snapshot)?;
     let stale = state.catalogue.is_stale();
     let tag = etag(&resolved.content_hash, units_tag(resolved.units));
@@ -131,6 +120,7 @@ async fn spec_for(
 )]
 #[get("/v1/tightening-specs")]
 pub async fn get_spec(
+    _reader: Reader,
     http: HttpRequest,
     state: web::Data<AppState>,
     query: web::Query<SpecQuery>,
@@ -154,6 +144,7 @@ pub async fn get_spec(
 )]
 #[post("/v1/tightening-specs")]
 pub async fn post_spec(
+    _reader: Reader,
     http: HttpRequest,
     state: web::Data<AppState>,
     body: web::Json<SpecRequest>,
@@ -180,6 +171,7 @@ pub async fn post_spec(
 )]
 #[get("/v1/setpoints")]
 pub async fn get_setpoints(
+    _reader: Reader,
     http: HttpRequest,
     state: web::Data<AppState>,
     query: web::Query<SetpointQuery>,
@@ -205,7 +197,7 @@ pub async fn get_setpoints(
     let (Some(unit), Some(req)) = (unit, req) else {
         return Err(ItemErrors(problems).into());
     };
-    let snapshot = snapshot_for(&http, &state, req.catalogue_revision).await?;
+    let snapshot = snapshot_for(&state, req.catalogue_revision).await?;
     let (resolved, spec) = compute_one(&req, &snapshot)?;
     let stale = state.catalogue.is_stale();
     let presentation = format!(
@@ -286,7 +278,7 @@ fn failed(index: usize, e: ApiError) -> BatchItem {
 )]
 #[post("/v1/tightening-specs/batch")]
 pub async fn post_batch(
-    http: HttpRequest,
+    _reader: Reader,
     state: web::Data<AppState>,
     body: web::Json<BatchRequest>,
 ) -> Result<HttpResponse, ApiError> {
@@ -315,7 +307,7 @@ pub async fn post_batch(
     let mut snapshots: HashMap<Option<i64>, Result<Arc<Snapshot>, ApiError>> = HashMap::new();
     for r in requests.iter().flatten() {
         if let Entry::Vacant(slot) = snapshots.entry(r.catalogue_revision) {
-            slot.insert(snapshot_for(&http, &state, r.catalogue_revision).await);
+            slot.insert(snapshot_for(&state, r.catalogue_revision).await);
         }
     }
     let stale = state.catalogue.is_stale();

@@ -95,7 +95,8 @@ pub fn setpoints(
                 let r = round_window(lo, (lo + hi) / 2.0, hi, angle_res)
                     .map_err(|e| ItemErrors::from(rounding_problem("angle_resolution", e)))?;
                 let snug = value(a.snug_torque);
-                let steps = (snug / res).round();
+                // Nearest step, but never zero: a snug torque is always some torque.
+                let steps = (snug / res).round().max(1.0);
                 let d = super::rounding::decimals(res) as i32;
                 let scale = 10f64.powi(d);
                 Some(SetpointAngle {
