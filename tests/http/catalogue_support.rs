@@ -129,12 +129,12 @@ macro_rules! on_both_backends {
         mod $name {
             #[tokio::test(flavor = "multi_thread", worker_threads = 4)]
             async fn sqlite() {
-                let db = crate::support::db::TestDb::sqlite();
+                let db = $crate::support::db::TestDb::sqlite();
                 super::$name(&db).await;
             }
             #[tokio::test(flavor = "multi_thread", worker_threads = 4)]
             async fn postgres() {
-                let db = crate::support::db::TestDb::postgres().await;
+                let db = $crate::support::db::TestDb::postgres().await;
                 super::$name(&db).await;
             }
         }

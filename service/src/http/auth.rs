@@ -203,20 +203,6 @@ role_extractor!(
     Role::Admin
 );
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn bearer_header_forms() {
-        assert_eq!(bearer("Bearer abc").ok(), Some("abc"));
-        assert_eq!(bearer("bearer  abc ").ok(), Some("abc"));
-        assert!(bearer("Basic abc").is_err());
-        assert!(bearer("Bearer").is_err());
-        assert!(bearer("Bearer ").is_err());
-    }
-}
-
 /// Adds the `bearer` security scheme (RFC 6750) the write routes name.
 pub struct BearerScheme;
 
@@ -235,5 +221,19 @@ impl utoipa::Modify for BearerScheme {
                     .build(),
             ),
         );
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn bearer_header_forms() {
+        assert_eq!(bearer("Bearer abc").ok(), Some("abc"));
+        assert_eq!(bearer("bearer  abc ").ok(), Some("abc"));
+        assert!(bearer("Basic abc").is_err());
+        assert!(bearer("Bearer").is_err());
+        assert!(bearer("Bearer ").is_err());
     }
 }
