@@ -5,8 +5,8 @@ use actix_web::http::header;
 use actix_web::{delete, get, post, put, web, HttpRequest, HttpResponse};
 
 use super::wire::{
-    EntryList, EntryListQuery, EntryView, EntryWrite, HistoryView, ReasonBody, RetireQuery,
-    RevisionQuery, StatusFilter,
+    EntryList, EntryListQuery, EntryView, EntryWrite, HistoryView, NoQuery, ReasonBody,
+    RetireQuery, RevisionQuery, StatusFilter,
 };
 use super::{if_match, CatalogueService};
 use crate::catalogue::{Change, ChangeSet, EntityKind, FrictionEntry};
@@ -136,6 +136,7 @@ async fn get_entry(
 async fn create_entry(
     svc: web::Data<CatalogueService>,
     who: Editor,
+    _q: web::Query<NoQuery>,
     body: web::Json<EntryWrite>,
 ) -> Result<HttpResponse, ApiError> {
     let body = body.into_inner();
@@ -183,6 +184,7 @@ async fn create_entry(
 async fn update_entry(
     svc: web::Data<CatalogueService>,
     who: Editor,
+    _q: web::Query<NoQuery>,
     id: web::Path<i64>,
     req: HttpRequest,
     body: web::Json<EntryWrite>,
@@ -280,6 +282,7 @@ async fn retire_entry(
 async fn entry_history(
     svc: web::Data<CatalogueService>,
     _who: Reader,
+    _q: web::Query<NoQuery>,
     id: web::Path<i64>,
 ) -> Result<HttpResponse, ApiError> {
     let id = id.into_inner();

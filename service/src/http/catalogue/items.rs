@@ -8,7 +8,7 @@ use actix_web::{get, post, put, web, HttpRequest, HttpResponse};
 
 use super::wire::{
     FinishList, FinishView, FinishWrite, HistoryView, LubricantList, LubricantView, LubricantWrite,
-    RevisionQuery,
+    NoQuery, RevisionQuery,
 };
 use super::{if_match, CatalogueService};
 use crate::catalogue::{item_etag, Change, ChangeSet, EntityKind, Finish, Lubricant, Snapshot};
@@ -124,6 +124,7 @@ async fn get_finish(
 async fn create_finish(
     svc: web::Data<CatalogueService>,
     who: Editor,
+    _q: web::Query<NoQuery>,
     body: web::Json<FinishWrite>,
 ) -> Result<HttpResponse, ApiError> {
     let (input, reason) = body.into_inner().into_input(None)?;
@@ -144,6 +145,7 @@ async fn create_finish(
 async fn update_finish(
     svc: web::Data<CatalogueService>,
     who: Editor,
+    _q: web::Query<NoQuery>,
     id: web::Path<String>,
     req: HttpRequest,
     body: web::Json<FinishWrite>,
@@ -168,6 +170,7 @@ async fn update_finish(
 async fn finish_history(
     svc: web::Data<CatalogueService>,
     _who: Reader,
+    _q: web::Query<NoQuery>,
     id: web::Path<String>,
 ) -> Result<HttpResponse, ApiError> {
     history(&svc, EntityKind::Finish, &id).await
@@ -208,6 +211,7 @@ async fn get_lubricant(
 async fn create_lubricant(
     svc: web::Data<CatalogueService>,
     who: Editor,
+    _q: web::Query<NoQuery>,
     body: web::Json<LubricantWrite>,
 ) -> Result<HttpResponse, ApiError> {
     let (input, reason) = body.into_inner().into_input(None)?;
@@ -228,6 +232,7 @@ async fn create_lubricant(
 async fn update_lubricant(
     svc: web::Data<CatalogueService>,
     who: Editor,
+    _q: web::Query<NoQuery>,
     id: web::Path<String>,
     req: HttpRequest,
     body: web::Json<LubricantWrite>,
@@ -252,6 +257,7 @@ async fn update_lubricant(
 async fn lubricant_history(
     svc: web::Data<CatalogueService>,
     _who: Reader,
+    _q: web::Query<NoQuery>,
     id: web::Path<String>,
 ) -> Result<HttpResponse, ApiError> {
     history(&svc, EntityKind::Lubricant, &id).await

@@ -5,7 +5,8 @@ use actix_web::http::header;
 use actix_web::{get, web, HttpResponse};
 
 use super::wire::{
-    DiffQuery, DiffView, ExportFormat, ExportQuery, RevisionDetail, RevisionList, RevisionsQuery,
+    DiffQuery, DiffView, ExportFormat, ExportQuery, NoQuery, RevisionDetail, RevisionList,
+    RevisionsQuery,
 };
 use super::CatalogueService;
 use crate::catalogue::{diff, exchange};
@@ -50,6 +51,7 @@ async fn list_revisions(
 async fn get_revision(
     svc: web::Data<CatalogueService>,
     _who: Reader,
+    _q: web::Query<NoQuery>,
     n: web::Path<i64>,
 ) -> Result<HttpResponse, ApiError> {
     let (info, changes) = svc.store.revision(*n).await?;

@@ -111,6 +111,12 @@ pub struct EntryListQuery {
     pub lubricant: Option<String>,
 }
 
+/// For routes without query parameters: any parameter is refused (400)
+/// rather than silently ignored.
+#[derive(Debug, Deserialize, IntoParams)]
+#[serde(deny_unknown_fields)]
+pub struct NoQuery {}
+
 #[derive(Debug, Deserialize, IntoParams)]
 #[serde(deny_unknown_fields)]
 pub struct RevisionQuery {
