@@ -36,6 +36,7 @@ both!(
     tokens_are_hashed_expire_and_revoke,
     concurrent_writers_never_lose_an_update,
     second_instance_sees_change_within_one_second,
+    an_older_database_upgrades_in_place,
 );
 
 async fn open(db: &TestDb) -> Store {
@@ -363,4 +364,83 @@ async fn second_instance_sees_change_within_one_second(db: &TestDb) {
     watcher.abort();
     a.close().await;
     b.close().await;
+}
+
+async fn an_older_database_upgrades_in_place(db: &TestDb) {
+    // An "older version": only the first migration applied, seeded, changed.
+    let backend = if db.is_postgres() {
+        "postgres"
+    } else {
+        "sqlite"
+    };
+    let source = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("../migrations")
+        .join(backend);
+    let first = std::fs::read_dir(&source)
+        .expect("migrations dir")
+        .filter_map(|e| e.ok().map(|e| e.path()))
+        .filter(|p| p.extension().is_some_and(|x| x == "sql"))
+        .min()
+        .expect("a first migration");
+    let dir = std::env::temp_dir().join(format!(
+        "tightspec_old_migrations_{}_{backend}",
+        std::process::id()
+    ));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    std::fs::copy(&first, dir.join(first.file_name().unwrap())).unwrap();
+    let old = Store::connect(Some(&db.url)).await.unwrap();
+    let migrator = sqlx::migrate::Migrator::new(dir.as_path()).await.unwrap();
+    match &old {
+        Store::Postgres(p) => migrator.run(p).await.unwrap(),
+        Store::Sqlite(p) => migrator.run(p).await.unwrap(),
+    }
+    old.ensure_seeded().await.unwrap();
+    let seed = Snapshot::seed();
+    old.apply(&ChangeSet::single(
+        "e",
+        "before the upgrade",
+        update(7, 1, 0.13, 0.2, &seed),
+    ))
+    .await
+    .unwrap();
+    old.close().await;
+    let _ = std::fs::remove_dir_all(&dir);
+
+    // The current version opens it: pending migrations applied, data kept.
+    let store = open(db).await;
+    assert_eq!(store.head().await.unwrap(), 2);
+    assert_eq!(
+        store
+            .load_current()
+            .await
+            .unwrap()
+            .entry(7)
+            .unwrap()
+            .thread_friction
+            .min,
+        0.13
+    );
+    let applied: i64 = match &store {
+        Store::Postgres(p) => sqlx::query_scalar("SELECT COUNT(*) FROM _sqlx_migrations")
+            .fetch_one(p)
+            .await
+            .unwrap(),
+        Store::Sqlite(p) => sqlx::query_scalar("SELECT COUNT(*) FROM _sqlx_migrations")
+            .fetch_one(p)
+            .await
+            .unwrap(),
+    };
+    let available = std::fs::read_dir(&source)
+        .unwrap()
+        .filter(|e| {
+            e.as_ref()
+                .is_ok_and(|e| e.path().extension().is_some_and(|x| x == "sql"))
+        })
+        .count();
+    assert_eq!(
+        applied as usize, available,
+        "every migration applied after the upgrade"
+    );
+    store.close().await;
 }

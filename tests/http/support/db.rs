@@ -134,7 +134,6 @@ impl TestDb {
         }
     }
 
-    #[allow(dead_code)] // not every test binary layout uses it
     pub fn is_postgres(&self) -> bool {
         matches!(self.kind, Kind::Postgres { .. })
     }
