@@ -137,15 +137,6 @@ impl TestDb {
     pub fn is_postgres(&self) -> bool {
         matches!(self.kind, Kind::Postgres { .. })
     }
-
-    /// The server URL and database name (PostgreSQL only).
-    #[allow(dead_code)]
-    pub fn postgres_parts(&self) -> Option<(&str, &str)> {
-        match &self.kind {
-            Kind::Postgres { server, name } => Some((server, name)),
-            Kind::Sqlite { .. } => None,
-        }
-    }
 }
 
 async fn connect_admin(server: &str) -> sqlx::PgConnection {
