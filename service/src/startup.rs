@@ -23,7 +23,7 @@ use crate::http::catalogue::CatalogueWiring;
 use crate::http::error::ApiError;
 use crate::http::metrics::Metrics;
 use crate::http::state::AppState;
-use crate::http::{extract, health, metrics, openapi, reference, request_id};
+use crate::http::{accept, extract, health, metrics, openapi, reference, request_id};
 
 /// Why the service could not start.
 #[derive(Debug, thiserror::Error)]
@@ -80,6 +80,7 @@ pub fn app(
         .app_data(extract::payload_config(limit))
         .route("/openapi.json", web::get().to(openapi::serve))
         .default_service(web::to(not_found))
+        .wrap(from_fn(accept::middleware))
         .wrap(from_fn(metrics::middleware))
         .wrap(from_fn(request_id::middleware))
 }

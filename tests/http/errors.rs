@@ -139,3 +139,31 @@ async fn reads_without_token_are_401_when_anonymous_reads_are_off() {
     // Reference tables from the engine stay public.
     assert_eq!(app.get("/v1/threads/M10").await.status(), 200);
 }
+
+#[tokio::test]
+async fn accept_admitting_nothing_we_produce_is_406() {
+    let app = TestApp::spawn().await;
+    let r = app
+        .client
+        .get(app.url("/v1/threads/M10"))
+        .header("accept", "application/xml")
+        .send()
+        .await
+        .expect("GET");
+    let p = expect_problem(r, 406).await;
+    assert!(
+        p["detail"]
+            .as_str()
+            .unwrap_or("")
+            .contains("application/json"),
+        "{p}"
+    );
+    let r = app
+        .client
+        .get(app.url("/v1/threads/M10"))
+        .header("accept", "text/html,application/xml;q=0.9,*/*;q=0.8")
+        .send()
+        .await
+        .expect("GET");
+    assert_eq!(r.status(), 200);
+}

@@ -4,6 +4,7 @@
 //! `quantity` (wire quantities), `openapi`. Routes: `health`, `reference`,
 //! and the feature modules, all registered in `crate::startup::routes`.
 
+pub mod accept;
 pub mod auth;
 pub mod catalogue;
 pub mod error;
