@@ -21,7 +21,8 @@ pub fn json_config(limit_bytes: usize) -> web::JsonConfig {
 
 /// Query-string extractor settings with our error handler.
 pub fn query_config() -> web::QueryConfig {
-    web::QueryConfig::default().error_handler(|err, _req: &HttpRequest| query_error(err).into())
+    web::QueryConfig::default()
+        .error_handler(|err, req: &HttpRequest| query_error_in(err, req.query_string()).into())
 }
 
 /// Path-segment extractor settings with our error handler.
@@ -57,6 +58,27 @@ pub fn json_error(err: JsonPayloadError, limit_bytes: usize) -> ApiError {
         }
         other => ApiError::malformed("body", other.to_string()),
     }
+}
+
+/// [`query_error`], naming the parameter whose value serde refused when
+/// the message quotes the value (e.g. "unknown variant `imperial`").
+pub fn query_error_in(err: QueryPayloadError, query: &str) -> ApiError {
+    let api = query_error(err);
+    let ApiError::Malformed { detail, mut errors } = api else {
+        return api;
+    };
+    if let Some(e) = errors.first_mut().filter(|e| e.field == "query") {
+        let quoted = backticked(&e.reason);
+        let pairs: Vec<(String, String)> = serde_urlencoded::from_str(query).unwrap_or_default();
+        let named = pairs
+            .into_iter()
+            .find(|(_, v)| quoted.first() == Some(v))
+            .map(|(k, _)| k);
+        if let Some(name) = named {
+            e.field = name;
+        }
+    }
+    ApiError::Malformed { detail, errors }
 }
 
 pub fn query_error(err: QueryPayloadError) -> ApiError {
@@ -146,6 +168,21 @@ mod tests {
         let err = serde_urlencoded::from_str::<Q>("property_class=8.8").expect_err("missing");
         let p = query_error(QueryPayloadError::Deserialize(err)).problem();
         assert_eq!(p.errors[0].field, "thread");
+    }
+
+    #[derive(Debug, Deserialize)]
+    #[serde(deny_unknown_fields)]
+    #[allow(dead_code)]
+    struct U {
+        units: Option<crate::http::quantity::Units>,
+    }
+
+    #[test]
+    fn refused_value_names_its_parameter() {
+        let err = serde_urlencoded::from_str::<U>("units=imperial").expect_err("bad variant");
+        let p = query_error_in(QueryPayloadError::Deserialize(err), "units=imperial").problem();
+        assert_eq!(p.errors[0].field, "units");
+        assert!(p.errors[0].reason.contains("imperial"));
     }
 
     #[test]
