@@ -1,4 +1,5 @@
 use super::*;
+use crate::catalogue::{ChangeItem, EntryInput, FinishInput, RangeInput};
 
 fn input(finish: &str, lubricant: &str, min: f64, max: f64) -> EntryInput {
     EntryInput {

@@ -4,17 +4,20 @@
 //! a batch of them into one new revision (`change`), the live catalogue the
 //! service answers from (`live`), and typed errors (`error`).
 
+pub mod apply;
 pub mod change;
 pub mod diff;
 pub mod error;
 pub mod exchange;
 pub mod live;
+mod rules;
 pub mod seed;
 pub mod snapshot;
 pub mod types;
 
+pub use apply::apply;
 pub use change::{
-    apply, Action, Applied, Change, ChangeItem, ChangeSet, EntityKind, EntryInput, FinishInput,
+    Action, Applied, Change, ChangeItem, ChangeSet, EntityKind, EntryInput, FinishInput,
     HistoryRecord, LubricantInput,
 };
 pub use diff::{diff, DiffItem, DiffKind};
