@@ -6,6 +6,7 @@
 
 pub mod apply;
 pub mod change;
+mod csv_form;
 pub mod diff;
 pub mod error;
 pub mod exchange;
