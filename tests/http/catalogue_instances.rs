@@ -70,7 +70,17 @@ async fn database_outage_reads_continue_writes_503_then_recovery() {
     let relay = Relay::start(&host_port(&db.url)).await;
     let url = via_port(&db.url, relay.port);
     let app = start(&url, true).await;
+    let closed = start(&url, false).await;
     let editor = token(&db, "hollowmere-editor", Role::Editor).await;
+    let viewer = token(&db, "hollowmere-viewer", Role::Reader).await;
+    let read_as_viewer = || {
+        closed
+            .client
+            .get(closed.url("/v1/friction-entries"))
+            .bearer_auth(&viewer)
+            .send()
+    };
+    assert_eq!(read_as_viewer().await.unwrap().status(), StatusCode::OK);
     let (_, etag) = app.entry(7).await;
     assert_eq!(
         app.put_thread_min(&editor, 7, Some(&etag), 0.121)
@@ -94,6 +104,12 @@ async fn database_outage_reads_continue_writes_503_then_recovery() {
         ),
         (Some(0.121), Some(true))
     );
+    // a token already seen may still read on an instance without anonymous reads
+    wait_until!("stale flag (closed instance)", Duration::from_secs(10), {
+        let r = read_as_viewer().await.unwrap();
+        assert_eq!(r.status(), StatusCode::OK);
+        r.json::<serde_json::Value>().await.unwrap()["catalogue_may_be_stale"] == true
+    });
     // writes are refused with 503 and Retry-After
     let r = app.put_thread_min(&editor, 7, Some(&etag), 0.122).await;
     assert_eq!(r.status(), StatusCode::SERVICE_UNAVAILABLE);

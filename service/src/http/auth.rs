@@ -45,6 +45,9 @@ const CACHE_LIMIT: usize = 1024;
 pub struct Authenticator {
     store: Store,
     anonymous_reads: bool,
+    /// While the catalogue is flagged stale (database unreachable), known
+    /// tokens may read without waiting for the database.
+    live: Option<std::sync::Arc<crate::catalogue::Live>>,
     /// hash → token, as last read from the database.
     seen: Mutex<HashMap<String, TokenInfo>>,
 }
@@ -54,8 +57,16 @@ impl Authenticator {
         Self {
             store,
             anonymous_reads,
+            live: None,
             seen: Mutex::new(HashMap::new()),
         }
+    }
+
+    /// Lets reads with known tokens skip the database while `live` is
+    /// flagged stale (instead of waiting for the connection timeout).
+    pub fn with_live(mut self, live: std::sync::Arc<crate::catalogue::Live>) -> Self {
+        self.live = Some(live);
+        self
     }
 
     pub fn anonymous_reads(&self) -> bool {
@@ -109,6 +120,12 @@ impl Authenticator {
             detail: "the bearer token is not recognised".into(),
         };
         let hash = tokens::hash_secret(secret);
+        let cached = || self.seen.lock().ok().and_then(|s| s.get(&hash).cloned());
+        if needed == Role::Reader && self.live.as_ref().is_some_and(|l| l.is_stale()) {
+            if let Some(t) = cached() {
+                return Ok(t);
+            }
+        }
         match self.store.find_token(secret).await {
             Ok(Some(t)) => {
                 if let Ok(mut seen) = self.seen.lock() {
@@ -123,8 +140,7 @@ impl Authenticator {
             Err(e @ StoreError::Unavailable { .. }) => {
                 // Reads go on from memory during an outage, for tokens seen
                 // before; anything else must wait for the database.
-                let known = self.seen.lock().ok().and_then(|s| s.get(&hash).cloned());
-                match known {
+                match cached() {
                     Some(t) if needed == Role::Reader => Ok(t),
                     _ => Err(super::catalogue::store_error(e)),
                 }

@@ -163,15 +163,11 @@ impl CatalogueWiring {
             revision = live.revision(),
             "catalogue loaded"
         );
+        let auth = super::auth::Authenticator::new(store.clone(), anonymous_reads)
+            .with_live(Arc::clone(&live));
         Ok(Self {
-            service: actix_web::web::Data::new(CatalogueService {
-                store: store.clone(),
-                live,
-            }),
-            auth: actix_web::web::Data::new(super::auth::Authenticator::new(
-                store,
-                anonymous_reads,
-            )),
+            service: actix_web::web::Data::new(CatalogueService { store, live }),
+            auth: actix_web::web::Data::new(auth),
             watcher,
         })
     }
