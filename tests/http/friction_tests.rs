@@ -9,26 +9,10 @@ use serde_json::{json, Value};
 use tightspec::store::Role;
 
 use crate::catalogue_support::{problem_fields, start, token};
+use crate::on_both_backends;
 use crate::support::db::TestDb;
 
-macro_rules! both {
-    ($($name:ident),* $(,)?) => {$(
-        mod $name {
-            #[tokio::test(flavor = "multi_thread", worker_threads = 2)]
-            async fn sqlite() {
-                let db = crate::support::db::TestDb::sqlite();
-                super::$name(&db).await;
-            }
-            #[tokio::test(flavor = "multi_thread", worker_threads = 2)]
-            async fn postgres() {
-                let db = crate::support::db::TestDb::postgres().await;
-                super::$name(&db).await;
-            }
-        }
-    )*};
-}
-
-both!(
+on_both_backends!(
     engineer_evaluates_stores_proposes_applies_and_traces_a_series,
     bad_series_are_refused_with_every_field_named_and_nothing_stored,
     us_customary_thrust_bearing_series,

@@ -5,26 +5,10 @@ use chrono::Utc;
 use tightspec::store::friction_tests::{evidence, Application, NewSeries};
 use tightspec::store::{Store, StoreError};
 
+use crate::on_both_backends;
 use crate::support::db::TestDb;
 
-macro_rules! both {
-    ($($name:ident),* $(,)?) => {$(
-        mod $name {
-            #[tokio::test(flavor = "multi_thread", worker_threads = 2)]
-            async fn sqlite() {
-                let db = crate::support::db::TestDb::sqlite();
-                super::$name(&db).await;
-            }
-            #[tokio::test(flavor = "multi_thread", worker_threads = 2)]
-            async fn postgres() {
-                let db = crate::support::db::TestDb::postgres().await;
-                super::$name(&db).await;
-            }
-        }
-    )*};
-}
-
-both!(
+on_both_backends!(
     a_series_is_stored_and_read_back,
     stored_series_cannot_be_changed_or_deleted,
 );
