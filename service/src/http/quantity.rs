@@ -3,10 +3,14 @@
 //! Outgoing: SI by default (N, N·m, mm, mm², MPa, degrees); `units=us`
 //! gives lbf, lbf·ft (or lbf·in where asked), in, in², ksi. Incoming: a
 //! value with its unit, read into a uom quantity; a unit that is unknown or
-//! of the wrong kind is refused naming the field.
+//! of the wrong kind is refused naming the field. The `read_*` functions
+//! give the bare [`Misread`] so that a caller collecting many problems (the
+//! friction-test series) can word them as its own error type.
 //!
-//! Conversion factors are uom's (exact definitions: 1 in = 25.4 mm,
-//! 1 lbf = 4.448 222 N per NIST SP 811 Appendix B); ksi = 1000 psi.
+//! Conversion factors are the exact definitions of NIST SP 811 Appendix B:
+//! 1 lbf = 4.448 221 615 260 5 N and 1 in = 25.4 mm, rather than uom's
+//! rounded `pound_force` (4.448 222 N); lbf·in, lbf·ft and psi are derived
+//! from these two; ksi = 1000 psi.
 
 use serde::{Deserialize, Serialize};
 use uom::si::f64::{Angle, Area, Force, Length, Pressure, Torque};
@@ -14,6 +18,18 @@ use uom::si::{angle, area, force, length, pressure, torque};
 use utoipa::ToSchema;
 
 use super::error::ApiError;
+
+/// 1 lbf in N (exact by definition, NIST SP 811 Appendix B).
+pub const N_PER_LBF: f64 = 4.448_221_615_260_5;
+/// 1 in in mm (exact by definition, NIST SP 811 Appendix B).
+pub const MM_PER_IN: f64 = 25.4;
+/// 1 lbf·in in N·m: 4.448 221 615 260 5 N × 0.0254 m (NIST SP 811 Appendix B).
+const NM_PER_LBF_IN: f64 = N_PER_LBF * MM_PER_IN / 1000.0;
+/// 1 lbf·ft in N·m: 4.448 221 615 260 5 N × 0.3048 m (NIST SP 811 Appendix B).
+const NM_PER_LBF_FT: f64 = NM_PER_LBF_IN * 12.0;
+/// 1 psi in MPa: 1 lbf on 1 in² = 4.448 221 615 260 5 N / 645.16 mm²
+/// (about 0.006 894 757, NIST SP 811 Appendix B).
+const MPA_PER_PSI: f64 = N_PER_LBF / (MM_PER_IN * MM_PER_IN);
 
 /// A physical quantity with its unit.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
@@ -67,24 +83,84 @@ impl TorqueUnit {
     pub fn parse(field: &str, text: &str) -> Result<Self, ApiError> {
         match lookup(text) {
             Some(Unit::Torque(u, 1.0)) => Ok(u),
-            _ => Err(unknown_unit(field, text, "a torque", "N·m, lbf·ft, lbf·in")),
+            _ => {
+                Err(Misread::wrong_unit(text, "a torque", "N·m, lbf·ft, lbf·in")
+                    .into_api_error(field))
+            }
+        }
+    }
+
+    /// N·m in one of this unit.
+    fn newton_metres(self) -> f64 {
+        match self {
+            Self::NewtonMetre => 1.0,
+            Self::PoundForceFoot => NM_PER_LBF_FT,
+            Self::PoundForceInch => NM_PER_LBF_IN,
         }
     }
 
     fn value_of(self, t: Torque) -> f64 {
-        match self {
-            Self::NewtonMetre => t.get::<torque::newton_meter>(),
-            Self::PoundForceFoot => t.get::<torque::pound_force_foot>(),
-            Self::PoundForceInch => t.get::<torque::pound_force_inch>(),
-        }
+        t.get::<torque::newton_meter>() / self.newton_metres()
     }
 
     fn to_torque(self, v: f64) -> Torque {
-        match self {
-            Self::NewtonMetre => Torque::new::<torque::newton_meter>(v),
-            Self::PoundForceFoot => Torque::new::<torque::pound_force_foot>(v),
-            Self::PoundForceInch => Torque::new::<torque::pound_force_inch>(v),
+        Torque::new::<torque::newton_meter>(v * self.newton_metres())
+    }
+}
+
+/// Why a posted quantity could not be read, before it is tied to a field
+/// and to an error type.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Misread {
+    /// The value is NaN or infinite.
+    NotFinite,
+    /// The unit is unknown or of another kind of quantity.
+    WrongUnit {
+        given: String,
+        /// The kind asked for, with its article (`a force`, `an area`).
+        kind: &'static str,
+        accepted: &'static str,
+    },
+}
+
+impl Misread {
+    fn wrong_unit(given: &str, kind: &'static str, accepted: &'static str) -> Self {
+        Self::WrongUnit {
+            given: given.to_string(),
+            kind,
+            accepted,
         }
+    }
+
+    /// The part of the quantity at fault: `value` or `unit`.
+    pub fn part(&self) -> &'static str {
+        match self {
+            Self::NotFinite => "value",
+            Self::WrongUnit { .. } => "unit",
+        }
+    }
+
+    /// Why it was refused, in words for the client.
+    pub fn reason(&self) -> String {
+        match self {
+            Self::NotFinite => "the value must be a finite number".to_string(),
+            Self::WrongUnit {
+                given,
+                kind,
+                accepted,
+            } => format!("unit '{given}' is not {kind} unit; use one of {accepted}"),
+        }
+    }
+
+    /// The field at fault (`{field}.value` or `{field}.unit`) and the reason.
+    pub fn field_and_reason(&self, field: &str) -> (String, String) {
+        (format!("{field}.{}", self.part()), self.reason())
+    }
+
+    /// A 400 problem naming `{field}.value` or `{field}.unit`.
+    pub fn into_api_error(self, field: &str) -> ApiError {
+        let (field, reason) = self.field_and_reason(field);
+        ApiError::malformed(field, reason)
     }
 }
 
@@ -101,7 +177,7 @@ impl Quantity {
     pub fn force(f: Force, units: Units) -> Self {
         match units {
             Units::Si => Self::new(f.get::<force::newton>(), "N"),
-            Units::Us => Self::new(f.get::<force::pound_force>(), "lbf"),
+            Units::Us => Self::new(f.get::<force::newton>() / N_PER_LBF, "lbf"),
         }
     }
 
@@ -133,7 +209,7 @@ impl Quantity {
         match units {
             Units::Si => Self::new(p.get::<pressure::megapascal>(), "MPa"),
             Units::Us => Self::new(
-                p.get::<pressure::pound_force_per_square_inch>() / 1000.0,
+                p.get::<pressure::megapascal>() / (1000.0 * MPA_PER_PSI),
                 "ksi",
             ),
         }
@@ -144,56 +220,55 @@ impl Quantity {
         Self::new(a.get::<angle::degree>(), "degrees")
     }
 
-    fn checked_value(&self, field: &str) -> Result<f64, ApiError> {
+    fn checked_value(&self) -> Result<f64, Misread> {
         if self.value.is_finite() {
             Ok(self.value)
         } else {
-            Err(ApiError::malformed(
-                format!("{field}.value"),
-                "must be a finite number",
-            ))
+            Err(Misread::NotFinite)
         }
     }
 
-    /// Reads a length (mm, cm, m, in).
-    pub fn to_length(&self, field: &str) -> Result<Length, ApiError> {
-        let v = self.checked_value(field)?;
+    /// Reads a length (mm, cm, m, in, ft).
+    pub fn read_length(&self) -> Result<Length, Misread> {
+        let v = self.checked_value()?;
         match lookup(&self.unit) {
             Some(Unit::Length(f)) => Ok(Length::new::<length::millimeter>(v * f)),
-            _ => Err(unknown_unit(field, &self.unit, "a length", "mm, cm, m, in")),
+            _ => Err(Misread::wrong_unit(
+                &self.unit,
+                "a length",
+                "mm, cm, m, in, ft",
+            )),
         }
     }
 
     /// Reads an area (mm², in²).
-    pub fn to_area(&self, field: &str) -> Result<Area, ApiError> {
-        let v = self.checked_value(field)?;
+    pub fn read_area(&self) -> Result<Area, Misread> {
+        let v = self.checked_value()?;
         match lookup(&self.unit) {
             Some(Unit::Area(f)) => Ok(Area::new::<area::square_millimeter>(v * f)),
-            _ => Err(unknown_unit(field, &self.unit, "an area", "mm², in²")),
+            _ => Err(Misread::wrong_unit(&self.unit, "an area", "mm², in²")),
         }
     }
 
-    /// Reads a force (N, kN, lbf, kip).
-    pub fn to_force(&self, field: &str) -> Result<Force, ApiError> {
-        let v = self.checked_value(field)?;
+    /// Reads a force (N, kN, MN, lbf, kip).
+    pub fn read_force(&self) -> Result<Force, Misread> {
+        let v = self.checked_value()?;
         match lookup(&self.unit) {
             Some(Unit::Force(f)) => Ok(Force::new::<force::newton>(v * f)),
-            _ => Err(unknown_unit(
-                field,
+            _ => Err(Misread::wrong_unit(
                 &self.unit,
                 "a force",
-                "N, kN, lbf, kip",
+                "N, kN, MN, lbf, kip",
             )),
         }
     }
 
     /// Reads a torque (N·m, kN·m, N·mm, lbf·ft, lbf·in).
-    pub fn to_torque(&self, field: &str) -> Result<Torque, ApiError> {
-        let v = self.checked_value(field)?;
+    pub fn read_torque(&self) -> Result<Torque, Misread> {
+        let v = self.checked_value()?;
         match lookup(&self.unit) {
             Some(Unit::Torque(u, scale)) => Ok(u.to_torque(v * scale)),
-            _ => Err(unknown_unit(
-                field,
+            _ => Err(Misread::wrong_unit(
                 &self.unit,
                 "a torque",
                 "N·m, N·mm, kN·m, lbf·ft, lbf·in",
@@ -202,12 +277,11 @@ impl Quantity {
     }
 
     /// Reads a stress (MPa, N/mm², GPa, ksi, psi).
-    pub fn to_stress(&self, field: &str) -> Result<Pressure, ApiError> {
-        let v = self.checked_value(field)?;
+    pub fn read_stress(&self) -> Result<Pressure, Misread> {
+        let v = self.checked_value()?;
         match lookup(&self.unit) {
             Some(Unit::Stress(f)) => Ok(Pressure::new::<pressure::megapascal>(v * f)),
-            _ => Err(unknown_unit(
-                field,
+            _ => Err(Misread::wrong_unit(
                 &self.unit,
                 "a stress",
                 "MPa, N/mm², GPa, ksi, psi",
@@ -216,12 +290,42 @@ impl Quantity {
     }
 
     /// Reads an angle (degrees, rad).
-    pub fn to_angle(&self, field: &str) -> Result<Angle, ApiError> {
-        let v = self.checked_value(field)?;
+    pub fn read_angle(&self) -> Result<Angle, Misread> {
+        let v = self.checked_value()?;
         match lookup(&self.unit) {
             Some(Unit::Angle(f)) => Ok(Angle::new::<angle::degree>(v * f)),
-            _ => Err(unknown_unit(field, &self.unit, "an angle", "degrees, rad")),
+            _ => Err(Misread::wrong_unit(&self.unit, "an angle", "degrees, rad")),
         }
+    }
+
+    /// [`Self::read_length`], refused as a 400 naming the field.
+    pub fn to_length(&self, field: &str) -> Result<Length, ApiError> {
+        self.read_length().map_err(|m| m.into_api_error(field))
+    }
+
+    /// [`Self::read_area`], refused as a 400 naming the field.
+    pub fn to_area(&self, field: &str) -> Result<Area, ApiError> {
+        self.read_area().map_err(|m| m.into_api_error(field))
+    }
+
+    /// [`Self::read_force`], refused as a 400 naming the field.
+    pub fn to_force(&self, field: &str) -> Result<Force, ApiError> {
+        self.read_force().map_err(|m| m.into_api_error(field))
+    }
+
+    /// [`Self::read_torque`], refused as a 400 naming the field.
+    pub fn to_torque(&self, field: &str) -> Result<Torque, ApiError> {
+        self.read_torque().map_err(|m| m.into_api_error(field))
+    }
+
+    /// [`Self::read_stress`], refused as a 400 naming the field.
+    pub fn to_stress(&self, field: &str) -> Result<Pressure, ApiError> {
+        self.read_stress().map_err(|m| m.into_api_error(field))
+    }
+
+    /// [`Self::read_angle`], refused as a 400 naming the field.
+    pub fn to_angle(&self, field: &str) -> Result<Angle, ApiError> {
+        self.read_angle().map_err(|m| m.into_api_error(field))
     }
 }
 
@@ -244,13 +348,6 @@ fn tidy(v: f64) -> f64 {
     }
 }
 
-fn unknown_unit(field: &str, given: &str, kind: &str, accepted: &str) -> ApiError {
-    ApiError::malformed(
-        format!("{field}.unit"),
-        format!("'{given}' is not a unit of {kind}; use one of {accepted}"),
-    )
-}
-
 /// A recognised unit with its factor to the canonical unit of its kind
 /// (mm, mm², N, MPa, degrees; torques keep their own unit and a scale).
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -264,30 +361,28 @@ enum Unit {
 }
 
 /// Looks a unit up after removing the separators people write between
-/// factors (`·`, `⋅`, `*`, `.`, `-`, space) and writing `²` as `2`.
+/// factors (`·`, `⋅`, `*`, `.`, `-`, `_`, white space) and writing `²` as
+/// `2`. Case is kept (mN and MN differ).
 fn lookup(text: &str) -> Option<Unit> {
     let key: String = text
-        .trim()
         .chars()
-        .filter(|c| !matches!(c, '·' | '⋅' | '*' | '.' | '-' | ' ' | '_'))
+        .filter(|c| !(c.is_whitespace() || matches!(c, '·' | '⋅' | '*' | '.' | '-' | '_')))
         .map(|c| if c == '²' { '2' } else { c })
         .collect();
-    // 1 in = 25.4 mm exactly (NIST SP 811 Appendix B); ksi = 1000 psi and
-    // 1 psi = 0.006 894 757 MPa (NIST SP 811 Appendix B); 1 lbf = 4.448 222 N.
-    let psi_in_mpa =
-        Pressure::new::<pressure::pound_force_per_square_inch>(1.0).get::<pressure::megapascal>();
-    let lbf_in_n = Force::new::<force::pound_force>(1.0).get::<force::newton>();
+    // Factors from the exact definitions above (NIST SP 811 Appendix B).
     Some(match key.as_str() {
         "mm" => Unit::Length(1.0),
         "cm" => Unit::Length(10.0),
         "m" => Unit::Length(1000.0),
-        "in" | "inch" | "inches" | "\"" => Unit::Length(25.4),
+        "in" | "inch" | "inches" | "\"" => Unit::Length(MM_PER_IN),
+        "ft" => Unit::Length(12.0 * MM_PER_IN),
         "mm2" | "sqmm" => Unit::Area(1.0),
-        "in2" | "sqin" => Unit::Area(25.4 * 25.4),
+        "in2" | "sqin" => Unit::Area(MM_PER_IN * MM_PER_IN),
         "N" => Unit::Force(1.0),
         "kN" => Unit::Force(1000.0),
-        "lbf" | "lb" => Unit::Force(lbf_in_n),
-        "kip" | "kips" | "klbf" => Unit::Force(1000.0 * lbf_in_n),
+        "MN" => Unit::Force(1.0e6),
+        "lbf" | "lb" => Unit::Force(N_PER_LBF),
+        "kip" | "kips" | "klbf" => Unit::Force(1000.0 * N_PER_LBF),
         "Nm" => Unit::Torque(TorqueUnit::NewtonMetre, 1.0),
         "Nmm" => Unit::Torque(TorqueUnit::NewtonMetre, 0.001),
         "kNm" => Unit::Torque(TorqueUnit::NewtonMetre, 1000.0),
@@ -299,8 +394,8 @@ fn lookup(text: &str) -> Option<Unit> {
         }
         "MPa" | "N/mm2" => Unit::Stress(1.0),
         "GPa" | "kN/mm2" => Unit::Stress(1000.0),
-        "ksi" => Unit::Stress(1000.0 * psi_in_mpa),
-        "psi" => Unit::Stress(psi_in_mpa),
+        "ksi" => Unit::Stress(1000.0 * MPA_PER_PSI),
+        "psi" => Unit::Stress(MPA_PER_PSI),
         "deg" | "degree" | "degrees" | "°" => Unit::Angle(1.0),
         "rad" => Unit::Angle(180.0 / std::f64::consts::PI),
         _ => return None,
@@ -405,6 +500,22 @@ mod tests {
             .to_length("clamp_length")
             .expect_err("nan");
         assert_eq!(e.problem().errors[0].field, "clamp_length.value");
+    }
+
+    #[test]
+    fn exact_pound_force_and_the_bare_misread() {
+        // 1 lbf = 4.448 221 615 260 5 N exactly (NIST SP 811 Appendix B).
+        let f = Quantity::new(1.0, "lbf").read_force().expect("lbf");
+        assert!((f.get::<force::newton>() - 4.448_221_615_260_5).abs() < 1e-12);
+        // 1 ft = 304.8 mm and 1 MN = 10⁶ N (NIST SP 811 Appendix B).
+        let l = Quantity::new(2.0, "ft").read_length().expect("ft");
+        assert!(close(Quantity::length(l, Units::Si).value, 609.6));
+        let m = Quantity::new(f64::INFINITY, "N").read_force();
+        assert_eq!(m, Err(Misread::NotFinite));
+        let w = Quantity::new(3.0, "N·m").read_force().expect_err("torque");
+        let (field, reason) = w.field_and_reason("preload");
+        assert_eq!(field, "preload.unit");
+        assert!(reason.contains("'N·m' is not a force unit"), "{reason}");
     }
 
     #[test]
