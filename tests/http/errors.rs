@@ -27,6 +27,25 @@ async fn bad_query_value_is_400() {
 }
 
 #[tokio::test]
+async fn bad_number_in_query_is_400_naming_its_parameter() {
+    let app = TestApp::spawn().await;
+    let spec = "/v1/tightening-specs?thread=M10&property_class=8.8&bearing_friction=0.12";
+    let p = expect_problem(app.get(&format!("{spec}&thread_friction=abc")).await, 400).await;
+    assert_eq!(error_fields(&p), ["thread_friction"]);
+    let p = expect_problem(
+        app.get(&format!(
+            "{spec}&thread_friction=0.12&catalogue_revision=first"
+        ))
+        .await,
+        400,
+    )
+    .await;
+    assert_eq!(error_fields(&p), ["catalogue_revision"]);
+    let p = expect_problem(app.get("/v1/catalogue/diff?from=1&to=x").await, 400).await;
+    assert_eq!(error_fields(&p), ["to"]);
+}
+
+#[tokio::test]
 async fn unknown_path_is_404_problem() {
     let app = TestApp::spawn().await;
     let p = expect_problem(app.get("/v1/threadz").await, 404).await;

@@ -81,6 +81,51 @@ pub fn query_error_in(err: QueryPayloadError, query: &str) -> ApiError {
     ApiError::Malformed { detail, errors }
 }
 
+/// Query-string extractor used by every handler in place of `web::Query`:
+/// the same `serde_urlencoded` reading, but a refused value names its
+/// parameter (serde's own message for, say, a bad number names none), so the
+/// problem says `thread_friction: invalid float literal`, not `query`.
+pub struct Query<T>(pub T);
+
+impl<T> Query<T> {
+    pub fn into_inner(self) -> T {
+        self.0
+    }
+}
+
+impl<T> std::ops::Deref for Query<T> {
+    type Target = T;
+    fn deref(&self) -> &T {
+        &self.0
+    }
+}
+
+impl<T: serde::de::DeserializeOwned> actix_web::FromRequest for Query<T> {
+    type Error = ApiError;
+    type Future = std::future::Ready<Result<Self, ApiError>>;
+
+    fn from_request(req: &HttpRequest, _: &mut actix_web::dev::Payload) -> Self::Future {
+        std::future::ready(parse_query(req.query_string()).map(Query))
+    }
+}
+
+/// Reads a query string into `T`, naming the parameter of any refused value.
+pub fn parse_query<T: serde::de::DeserializeOwned>(query: &str) -> Result<T, ApiError> {
+    let pairs = serde_urlencoded::Deserializer::new(form_urlencoded::parse(query.as_bytes()));
+    serde_path_to_error::deserialize(pairs).map_err(|e| {
+        let path = e.path().to_string();
+        let mut api = query_error_in(QueryPayloadError::Deserialize(e.into_inner()), query);
+        if let ApiError::Malformed { errors, .. } = &mut api {
+            if let Some(first) = errors.first_mut().filter(|f| f.field == "query") {
+                if path != "." && !path.is_empty() {
+                    first.field = path;
+                }
+            }
+        }
+        api
+    })
+}
+
 pub fn query_error(err: QueryPayloadError) -> ApiError {
     let message = match err {
         QueryPayloadError::Deserialize(e) => e.to_string(),
@@ -183,6 +228,34 @@ mod tests {
         let p = query_error_in(QueryPayloadError::Deserialize(err), "units=imperial").problem();
         assert_eq!(p.errors[0].field, "units");
         assert!(p.errors[0].reason.contains("imperial"));
+    }
+
+    #[derive(Debug, Deserialize)]
+    #[serde(deny_unknown_fields)]
+    #[allow(dead_code)]
+    struct N {
+        thread: String,
+        thread_friction: Option<f64>,
+        catalogue_revision: Option<i64>,
+    }
+
+    #[test]
+    fn refused_number_names_its_parameter() {
+        let p = parse_query::<N>("thread=M10&thread_friction=abc")
+            .expect_err("not a number")
+            .problem();
+        assert_eq!(p.status, 400);
+        assert_eq!(p.errors[0].field, "thread_friction");
+        let p = parse_query::<N>("thread=M10&catalogue_revision=1.5")
+            .expect_err("not an integer")
+            .problem();
+        assert_eq!(p.errors[0].field, "catalogue_revision");
+        let p = parse_query::<N>("thred=M10")
+            .expect_err("unknown")
+            .problem();
+        assert_eq!(p.errors[0].field, "thred");
+        let ok = parse_query::<N>("thread=M10&thread_friction=0.12").expect("valid");
+        assert_eq!(ok.thread_friction, Some(0.12));
     }
 
     #[test]

@@ -3,7 +3,8 @@
 //! catalogue items, see `http::catalogue`). Thin handlers: look up,
 //! convert to wire types, answer.
 
-use actix_web::{get, web, HttpRequest, HttpResponse};
+use crate::http::extract::Query;
+use actix_web::{get, HttpRequest, HttpResponse};
 use serde::{Deserialize, Serialize};
 use utoipa::{IntoParams, ToSchema};
 use utoipa_actix_web::service_config::ServiceConfig;
@@ -107,7 +108,7 @@ fn wire_thread(t: &ThreadGeometry, units: Units) -> Thread {
     )
 )]
 #[get("/v1/threads")]
-async fn threads(query: web::Query<ThreadsQuery>) -> Result<HttpResponse, ApiError> {
+async fn threads(query: Query<ThreadsQuery>) -> Result<HttpResponse, ApiError> {
     let units = query.units.unwrap_or_default();
     const SERIES: [&str; 5] = ["coarse", "fine", "unc", "unf", "un8"];
     if let Some(s) = &query.series {
@@ -149,7 +150,7 @@ async fn threads(query: web::Query<ThreadsQuery>) -> Result<HttpResponse, ApiErr
 #[get("/v1/threads/{designation}")]
 async fn thread_detail(
     req: HttpRequest,
-    query: web::Query<UnitsQuery>,
+    query: Query<UnitsQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let designation = path_segment(&req, "designation");
     let t = thread::parse_designation(&designation)?;
@@ -246,7 +247,7 @@ fn wire_grade(g: &GradeInfo, units: Units) -> PropertyClass {
     responses((status = 200, description = "Property classes", body = Vec<PropertyClass>))
 )]
 #[get("/v1/property-classes")]
-async fn property_classes(query: web::Query<UnitsQuery>) -> HttpResponse {
+async fn property_classes(query: Query<UnitsQuery>) -> HttpResponse {
     let units = query.units.unwrap_or_default();
     let list: Vec<PropertyClass> = grade::property_classes()
         .iter()
@@ -267,7 +268,7 @@ async fn property_classes(query: web::Query<UnitsQuery>) -> HttpResponse {
 #[get("/v1/property-classes/{id}")]
 async fn property_class_detail(
     req: HttpRequest,
-    query: web::Query<UnitsQuery>,
+    query: Query<UnitsQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let id = path_segment(&req, "id");
     let g = grade::find_property_class(&id)?;
@@ -352,7 +353,7 @@ fn wire_material(m: &ClampedMaterial, units: Units) -> Material {
 /// Clamped-part materials with modulus and limiting surface pressure.
 #[utoipa::path(tag = "reference", params(UnitsQuery), responses((status = 200, description = "Materials", body = Vec<Material>)))]
 #[get("/v1/materials")]
-async fn materials(query: web::Query<UnitsQuery>) -> HttpResponse {
+async fn materials(query: Query<UnitsQuery>) -> HttpResponse {
     let units = query.units.unwrap_or_default();
     cached(
         material::clamped_materials()

@@ -1,6 +1,7 @@
 //! `/v1/friction-entries`: list, read (with ETag), create, replace
 //! (If-Match), retire (DELETE, If-Match), history.
 
+use crate::http::extract::Query;
 use actix_web::http::header;
 use actix_web::{delete, get, post, put, web, HttpRequest, HttpResponse};
 
@@ -58,7 +59,7 @@ fn view(
 async fn list_entries(
     svc: web::Data<CatalogueService>,
     _who: Reader,
-    q: web::Query<EntryListQuery>,
+    q: Query<EntryListQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let q = q.into_inner();
     let snap = svc.snapshot(q.catalogue_revision).await?;
@@ -107,7 +108,7 @@ async fn get_entry(
     svc: web::Data<CatalogueService>,
     _who: Reader,
     id: web::Path<i64>,
-    q: web::Query<RevisionQuery>,
+    q: Query<RevisionQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let snap = svc.snapshot(q.catalogue_revision).await?;
     let entry = snap.entry(*id)?.clone();
@@ -136,7 +137,7 @@ async fn get_entry(
 async fn create_entry(
     svc: web::Data<CatalogueService>,
     who: Editor,
-    _q: web::Query<NoQuery>,
+    _q: Query<NoQuery>,
     body: web::Json<EntryWrite>,
 ) -> Result<HttpResponse, ApiError> {
     let body = body.into_inner();
@@ -184,7 +185,7 @@ async fn create_entry(
 async fn update_entry(
     svc: web::Data<CatalogueService>,
     who: Editor,
-    _q: web::Query<NoQuery>,
+    _q: Query<NoQuery>,
     id: web::Path<i64>,
     req: HttpRequest,
     body: web::Json<EntryWrite>,
@@ -239,7 +240,7 @@ async fn retire_entry(
     who: Editor,
     id: web::Path<i64>,
     req: HttpRequest,
-    q: web::Query<RetireQuery>,
+    q: Query<RetireQuery>,
     body: Option<web::Json<ReasonBody>>,
 ) -> Result<HttpResponse, ApiError> {
     let id = id.into_inner();
@@ -282,7 +283,7 @@ async fn retire_entry(
 async fn entry_history(
     svc: web::Data<CatalogueService>,
     _who: Reader,
-    _q: web::Query<NoQuery>,
+    _q: Query<NoQuery>,
     id: web::Path<i64>,
 ) -> Result<HttpResponse, ApiError> {
     let id = id.into_inner();

@@ -3,6 +3,7 @@
 //! Retire one with PUT and `"status": "retired"` (refused while an active
 //! friction entry uses it).
 
+use crate::http::extract::Query;
 use actix_web::http::{header, StatusCode};
 use actix_web::{get, post, put, web, HttpRequest, HttpResponse};
 
@@ -95,7 +96,7 @@ async fn history(
 async fn list_finishes(
     svc: web::Data<CatalogueService>,
     _who: Reader,
-    q: web::Query<RevisionQuery>,
+    q: Query<RevisionQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let snap = svc.snapshot(q.catalogue_revision).await?;
     Ok(HttpResponse::Ok().json(FinishList {
@@ -112,7 +113,7 @@ async fn get_finish(
     svc: web::Data<CatalogueService>,
     _who: Reader,
     id: web::Path<String>,
-    q: web::Query<RevisionQuery>,
+    q: Query<RevisionQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let snap = svc.snapshot(q.catalogue_revision).await?;
     finish_response(&svc, &snap, &id, StatusCode::OK)
@@ -124,7 +125,7 @@ async fn get_finish(
 async fn create_finish(
     svc: web::Data<CatalogueService>,
     who: Editor,
-    _q: web::Query<NoQuery>,
+    _q: Query<NoQuery>,
     body: web::Json<FinishWrite>,
 ) -> Result<HttpResponse, ApiError> {
     let (input, reason) = body.into_inner().into_input(None)?;
@@ -145,7 +146,7 @@ async fn create_finish(
 async fn update_finish(
     svc: web::Data<CatalogueService>,
     who: Editor,
-    _q: web::Query<NoQuery>,
+    _q: Query<NoQuery>,
     id: web::Path<String>,
     req: HttpRequest,
     body: web::Json<FinishWrite>,
@@ -170,7 +171,7 @@ async fn update_finish(
 async fn finish_history(
     svc: web::Data<CatalogueService>,
     _who: Reader,
-    _q: web::Query<NoQuery>,
+    _q: Query<NoQuery>,
     id: web::Path<String>,
 ) -> Result<HttpResponse, ApiError> {
     history(&svc, EntityKind::Finish, &id).await
@@ -182,7 +183,7 @@ async fn finish_history(
 async fn list_lubricants(
     svc: web::Data<CatalogueService>,
     _who: Reader,
-    q: web::Query<RevisionQuery>,
+    q: Query<RevisionQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let snap = svc.snapshot(q.catalogue_revision).await?;
     Ok(HttpResponse::Ok().json(LubricantList {
@@ -199,7 +200,7 @@ async fn get_lubricant(
     svc: web::Data<CatalogueService>,
     _who: Reader,
     id: web::Path<String>,
-    q: web::Query<RevisionQuery>,
+    q: Query<RevisionQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let snap = svc.snapshot(q.catalogue_revision).await?;
     lubricant_response(&svc, &snap, &id, StatusCode::OK)
@@ -211,7 +212,7 @@ async fn get_lubricant(
 async fn create_lubricant(
     svc: web::Data<CatalogueService>,
     who: Editor,
-    _q: web::Query<NoQuery>,
+    _q: Query<NoQuery>,
     body: web::Json<LubricantWrite>,
 ) -> Result<HttpResponse, ApiError> {
     let (input, reason) = body.into_inner().into_input(None)?;
@@ -232,7 +233,7 @@ async fn create_lubricant(
 async fn update_lubricant(
     svc: web::Data<CatalogueService>,
     who: Editor,
-    _q: web::Query<NoQuery>,
+    _q: Query<NoQuery>,
     id: web::Path<String>,
     req: HttpRequest,
     body: web::Json<LubricantWrite>,
@@ -257,7 +258,7 @@ async fn update_lubricant(
 async fn lubricant_history(
     svc: web::Data<CatalogueService>,
     _who: Reader,
-    _q: web::Query<NoQuery>,
+    _q: Query<NoQuery>,
     id: web::Path<String>,
 ) -> Result<HttpResponse, ApiError> {
     history(&svc, EntityKind::Lubricant, &id).await

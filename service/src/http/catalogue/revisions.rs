@@ -1,6 +1,7 @@
 //! `/v1/catalogue/revisions`, `/v1/catalogue/revisions/{n}`,
 //! `/v1/catalogue/diff` and `/v1/catalogue/export`.
 
+use crate::http::extract::Query;
 use actix_web::http::header;
 use actix_web::{get, web, HttpResponse};
 
@@ -26,7 +27,7 @@ pub fn configure(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
 async fn list_revisions(
     svc: web::Data<CatalogueService>,
     _who: Reader,
-    q: web::Query<RevisionsQuery>,
+    q: Query<RevisionsQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let limit = q.limit.unwrap_or(100);
     if !(1..=1000).contains(&limit) {
@@ -51,7 +52,7 @@ async fn list_revisions(
 async fn get_revision(
     svc: web::Data<CatalogueService>,
     _who: Reader,
-    _q: web::Query<NoQuery>,
+    _q: Query<NoQuery>,
     n: web::Path<i64>,
 ) -> Result<HttpResponse, ApiError> {
     let (info, changes) = svc.store.revision(*n).await?;
@@ -66,7 +67,7 @@ async fn get_revision(
 async fn diff_revisions(
     svc: web::Data<CatalogueService>,
     _who: Reader,
-    q: web::Query<DiffQuery>,
+    q: Query<DiffQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let from = svc
         .snapshot(Some(q.from))
@@ -106,7 +107,7 @@ fn rename(e: ApiError, field: &str) -> ApiError {
 async fn export_catalogue(
     svc: web::Data<CatalogueService>,
     _who: Reader,
-    q: web::Query<ExportQuery>,
+    q: Query<ExportQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let snap = svc.snapshot(q.catalogue_revision).await?;
     let name = format!("tightspec-catalogue-r{}", snap.revision);

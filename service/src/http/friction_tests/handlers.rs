@@ -1,5 +1,6 @@
 //! Thin handlers: parse, call the engine or the store, render.
 
+use crate::http::extract::Query;
 use actix_web::http::header;
 use actix_web::{get, post, web, HttpRequest, HttpResponse};
 use serde::{Deserialize, Serialize};
@@ -120,7 +121,7 @@ fn basis(b: Option<&str>) -> Result<Basis, ApiError> {
 async fn evaluate(
     _who: Reader,
     svc: web::Data<CatalogueService>,
-    q: web::Query<UnitsQuery>,
+    q: Query<UnitsQuery>,
     body: web::Json<SeriesRequest>,
 ) -> Result<HttpResponse, ApiError> {
     check_names(&svc.live.current(), &body)?;
@@ -271,7 +272,7 @@ async fn get_proposal(
     _who: Reader,
     svc: web::Data<CatalogueService>,
     id: web::Path<i64>,
-    q: web::Query<ProposalQuery>,
+    q: Query<ProposalQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let b = basis(q.basis.as_deref())?;
     let p = proposal_for(&svc, id.into_inner(), b, q.units.unwrap_or_default()).await?;

@@ -1,6 +1,7 @@
 //! Thin handlers: fetch the catalogue snapshot, run the shared parse step
 //! and the engine, render with ETag and Cache-Control.
 
+use crate::http::extract::Query;
 use std::collections::hash_map::Entry;
 use std::collections::HashMap;
 use std::sync::Arc;
@@ -123,7 +124,7 @@ pub async fn get_spec(
     _reader: Reader,
     http: HttpRequest,
     state: web::Data<AppState>,
-    query: web::Query<SpecQuery>,
+    query: Query<SpecQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let req = query.to_request().map_err(ItemErrors::from)?;
     spec_for(&http, &state, &req).await
@@ -174,7 +175,7 @@ pub async fn get_setpoints(
     _reader: Reader,
     http: HttpRequest,
     state: web::Data<AppState>,
-    query: web::Query<SetpointQuery>,
+    query: Query<SetpointQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let mut problems: Vec<ItemError> = Vec::new();
     let unit = match query.torque_unit.as_deref() {
