@@ -37,6 +37,8 @@ async fn engineer_changes_an_entry_and_reads_history_diff_and_past_revision(db: 
     // no If-Match → 428; a good one → 200, new revision, new ETag
     let r = app.put_thread_min(&editor, id, None, 0.12).await;
     assert_eq!(r.status(), StatusCode::PRECONDITION_REQUIRED);
+    let p: Value = r.json().await.unwrap();
+    assert_eq!(problem_fields(&p), ["If-Match"]);
     let r = app.put_thread_min(&editor, id, Some(&etag), 0.12).await;
     assert_eq!(r.status(), StatusCode::OK);
     let new_etag = r.headers()["etag"].to_str().unwrap().to_string();
@@ -56,6 +58,7 @@ async fn engineer_changes_an_entry_and_reads_history_diff_and_past_revision(db: 
     assert_eq!(r.status(), StatusCode::PRECONDITION_FAILED);
     let p: Value = r.json().await.unwrap();
     assert_eq!(p["current"]["thread_friction"]["min"], 0.12);
+    assert_eq!(problem_fields(&p), ["If-Match"]);
 
     // history names the token as author and the reason
     let h = app

@@ -237,9 +237,20 @@ impl ApiError {
             Self::Unauthorized { detail }
             | Self::Forbidden { detail }
             | Self::NotAcceptable { detail }
-            | Self::UnsupportedMediaType { detail }
-            | Self::PreconditionRequired { detail } => detail.clone(),
+            | Self::UnsupportedMediaType { detail } => detail.clone(),
+            // Both preconditions concern the If-Match request header.
+            Self::PreconditionRequired { detail } => {
+                errors.push(FieldError::new(
+                    "If-Match",
+                    "missing: send the ETag from a GET of this resource",
+                ));
+                detail.clone()
+            }
             Self::PreconditionFailed { detail, current: c } => {
+                errors.push(FieldError::new(
+                    "If-Match",
+                    "stale: the resource changed since that ETag; its current state is in `current`",
+                ));
                 current = c.clone();
                 detail.clone()
             }
