@@ -66,6 +66,15 @@ impl Instance {
         r.json().await.expect("JSON")
     }
 
+    /// POST a JSON body, anonymously or with a bearer token.
+    pub async fn post_json(&self, token: Option<&str>, path: &str, body: &Value) -> Response {
+        let mut rq = self.client.post(self.url(path)).json(body);
+        if let Some(t) = token {
+            rq = rq.bearer_auth(t);
+        }
+        rq.send().await.expect("POST")
+    }
+
     /// GET an entry: its body and ETag.
     pub async fn entry(&self, id: i64) -> (Value, String) {
         let r = self.get(&format!("/v1/friction-entries/{id}")).await;

@@ -79,12 +79,8 @@ async fn engineer_evaluates_stores_proposes_applies_and_traces_a_series(db: &Tes
 
     // Evaluate: nothing stored, every specimen back, statistics per coefficient.
     let r = app
-        .client
-        .post(app.url("/v1/friction-tests/evaluate"))
-        .json(&series)
-        .send()
-        .await
-        .unwrap();
+        .post_json(None, "/v1/friction-tests/evaluate", &series)
+        .await;
     assert_eq!(r.status(), StatusCode::OK);
     let eval: Value = r.json().await.unwrap();
     let specimens = eval["specimens"].as_array().unwrap();
@@ -255,14 +251,7 @@ async fn bad_series_are_refused_with_every_field_named_and_nothing_stored(db: &T
         {"clamp_force": {"value": 12.0, "unit": "kN"}, "total_torque": {"value": 25.0, "unit": "N·m"}}
     ]});
     for path in ["/v1/friction-tests/evaluate", "/v1/friction-tests"] {
-        let r = app
-            .client
-            .post(app.url(path))
-            .bearer_auth(&editor)
-            .json(&series)
-            .send()
-            .await
-            .unwrap();
+        let r = app.post_json(Some(&editor), path, &series).await;
         assert_eq!(r.status(), StatusCode::UNPROCESSABLE_ENTITY, "{path}");
         assert_eq!(r.headers()["content-type"], "application/problem+json");
         let problem: Value = r.json().await.unwrap();
@@ -287,25 +276,16 @@ async fn bad_series_are_refused_with_every_field_named_and_nothing_stored(db: &T
     let (mut unknown, _, _) = demo_series();
     unknown["finish"] = json!("zinc-flak");
     let r = app
-        .client
-        .post(app.url("/v1/friction-tests/evaluate"))
-        .json(&unknown)
-        .send()
-        .await
-        .unwrap();
+        .post_json(None, "/v1/friction-tests/evaluate", &unknown)
+        .await;
     assert_eq!(r.status(), StatusCode::NOT_FOUND);
     let problem: Value = r.json().await.unwrap();
     assert_eq!(problem_fields(&problem), ["finish"]);
     let (mut anonymous, _, _) = demo_series();
     anonymous.as_object_mut().unwrap().remove("lubricant");
     let r = app
-        .client
-        .post(app.url("/v1/friction-tests"))
-        .bearer_auth(&editor)
-        .json(&anonymous)
-        .send()
-        .await
-        .unwrap();
+        .post_json(Some(&editor), "/v1/friction-tests", &anonymous)
+        .await;
     assert_eq!(r.status(), StatusCode::UNPROCESSABLE_ENTITY);
     let problem: Value = r.json().await.unwrap();
     assert_eq!(problem_fields(&problem), ["lubricant"]);
@@ -313,12 +293,8 @@ async fn bad_series_are_refused_with_every_field_named_and_nothing_stored(db: &T
     let (mut typo, _, _) = demo_series();
     typo["thrust_bearings"] = json!(true);
     let r = app
-        .client
-        .post(app.url("/v1/friction-tests/evaluate"))
-        .json(&typo)
-        .send()
-        .await
-        .unwrap();
+        .post_json(None, "/v1/friction-tests/evaluate", &typo)
+        .await;
     assert_eq!(r.status(), StatusCode::BAD_REQUEST);
     assert_eq!(
         app.get("/v1/friction-tests/1").await.status(),
@@ -340,12 +316,8 @@ async fn us_customary_thrust_bearing_series(db: &TestDb) {
         }]
     });
     let r = app
-        .client
-        .post(app.url("/v1/friction-tests/evaluate?units=us"))
-        .json(&body)
-        .send()
-        .await
-        .unwrap();
+        .post_json(None, "/v1/friction-tests/evaluate?units=us", &body)
+        .await;
     assert_eq!(r.status(), StatusCode::OK);
     let eval: Value = r.json().await.unwrap();
     let s = &eval["specimens"][0];
@@ -370,12 +342,8 @@ async fn us_customary_thrust_bearing_series(db: &TestDb) {
         .iter()
         .any(|w| w["code"] == "series_too_small"));
     let r = app
-        .client
-        .post(app.url("/v1/friction-tests/evaluate?units=metric"))
-        .json(&body)
-        .send()
-        .await
-        .unwrap();
+        .post_json(None, "/v1/friction-tests/evaluate?units=metric", &body)
+        .await;
     assert_eq!(r.status(), StatusCode::BAD_REQUEST);
 }
 
@@ -408,12 +376,8 @@ async fn curves_are_read_at_75_percent_of_the_proof_load() {
         "specimens": [{"curve": curve}]
     });
     let r = app
-        .client
-        .post(app.url("/v1/friction-tests/evaluate"))
-        .json(&body)
-        .send()
-        .await
-        .unwrap();
+        .post_json(None, "/v1/friction-tests/evaluate", &body)
+        .await;
     assert_eq!(r.status(), StatusCode::OK);
     let eval: Value = r.json().await.unwrap();
     let proof = eval["geometry"]["proof_load"]["value"].as_f64().unwrap();
