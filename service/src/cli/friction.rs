@@ -147,7 +147,7 @@ fn quantity_text(s: &str, what: &str) -> Result<Quantity, String> {
     }
     Ok(Quantity {
         value,
-        unit: unit.to_owned(),
+        unit: unit.to_owned().into(),
     })
 }
 
@@ -220,7 +220,7 @@ fn read_csv(text: &str) -> Result<Vec<SpecimenRequest>, String> {
             })?;
             let q = Some(Quantity {
                 value,
-                unit: unit.clone(),
+                unit: unit.clone().into(),
             });
             match column {
                 Column::ClampForce => s.clamp_force = q,
@@ -385,7 +385,7 @@ mod tests {
     #[test]
     fn quantity_text_splits_number_and_unit() {
         let q = quantity_text("16.5 mm", "--bearing-outer").unwrap();
-        assert_eq!((q.value, q.unit.as_str()), (16.5, "mm"));
+        assert_eq!((q.value, q.unit.as_ref()), (16.5, "mm"));
         assert!(quantity_text("16", "--bearing-outer").is_err());
     }
 }

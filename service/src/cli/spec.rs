@@ -339,7 +339,7 @@ pub fn table(s: &SpecResponse) -> String {
         let _ = writeln!(o, "  - {a}");
     }
     let _ = writeln!(o, "\nCautions");
-    for c in &s.cautions {
+    for c in s.cautions.texts() {
         let _ = writeln!(o, "  ! {c}");
     }
     let _ = writeln!(o, "\nspec hash {}", s.spec_hash);

@@ -12,6 +12,8 @@
 //! rounded `pound_force` (4.448 222 N); lbf·in, lbf·ft and psi are derived
 //! from these two; ksi = 1000 psi.
 
+use std::borrow::Cow;
+
 use serde::{Deserialize, Serialize};
 use uom::si::f64::{Angle, Area, Force, Length, Pressure, Torque};
 use uom::si::{angle, area, force, length, pressure, torque};
@@ -37,8 +39,10 @@ pub struct Quantity {
     /// The number, in `unit`.
     pub value: f64,
     /// The unit symbol, e.g. `N`, `N·m`, `mm`, `mm²`, `MPa`, `degrees`,
-    /// `lbf`, `lbf·ft`, `lbf·in`, `in`, `in²`, `ksi`.
-    pub unit: String,
+    /// `lbf`, `lbf·ft`, `lbf·in`, `in`, `in²`, `ksi`. Borrowed for the
+    /// service's own output (no allocation per quantity), owned when read.
+    #[schema(value_type = String)]
+    pub unit: Cow<'static, str>,
 }
 
 /// Which unit system responses use.
@@ -167,10 +171,10 @@ impl Misread {
 impl Quantity {
     /// A quantity; the value is kept to 12 significant digits so unit
     /// conversions print as `60` rather than `59.99999999999999`.
-    pub fn new(value: f64, unit: &str) -> Self {
+    pub fn new(value: f64, unit: &'static str) -> Self {
         Self {
             value: tidy(value),
-            unit: unit.to_string(),
+            unit: Cow::Borrowed(unit),
         }
     }
 

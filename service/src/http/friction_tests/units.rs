@@ -77,7 +77,7 @@ mod tests {
     fn q(value: f64, unit: &str) -> Quantity {
         Quantity {
             value,
-            unit: unit.to_owned(),
+            unit: unit.to_owned().into(),
         }
     }
 

@@ -10,6 +10,7 @@
 //! ([`caching`]).
 
 pub mod caching;
+pub mod cautions;
 pub mod friction;
 pub mod handlers;
 pub mod item_error;

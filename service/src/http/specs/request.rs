@@ -205,7 +205,7 @@ pub fn quantity_from_query(field: &str, text: &str) -> Result<Quantity, ItemErro
     }
     Ok(Quantity {
         value,
-        unit: unit.to_string(),
+        unit: unit.to_string().into(),
     })
 }
 
@@ -482,11 +482,11 @@ mod tests {
     #[test]
     fn query_quantities_need_units() {
         let q = quantity_from_query("clamp_length", "40mm").unwrap();
-        assert_eq!((q.value, q.unit.as_str()), (40.0, "mm"));
+        assert_eq!((q.value, q.unit.as_ref()), (40.0, "mm"));
         let q = quantity_from_query("clamp_length", " 1.5 in").unwrap();
-        assert_eq!((q.value, q.unit.as_str()), (1.5, "in"));
+        assert_eq!((q.value, q.unit.as_ref()), (1.5, "in"));
         let q = quantity_from_query("snug_torque", "1e1N·m").unwrap();
-        assert_eq!((q.value, q.unit.as_str()), (10.0, "N·m"));
+        assert_eq!((q.value, q.unit.as_ref()), (10.0, "N·m"));
         let e = quantity_from_query("clamp_length", "40").unwrap_err();
         assert_eq!(e.field, "clamp_length");
         assert!(quantity_from_query("clamp_length", "mm").is_err());

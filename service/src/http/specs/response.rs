@@ -12,6 +12,7 @@ use crate::engine::checks::Severity;
 use crate::engine::spec::{FrictionFigures, Spec, ValueSource, WindowMode};
 use crate::engine::window::Governing;
 
+use super::cautions::Cautions;
 use super::friction::FrictionOrigin;
 use super::request::Units;
 use super::resolve::Resolved;
@@ -247,7 +248,8 @@ pub struct SpecResponse {
     #[serde(skip_serializing_if = "Option::is_none")]
     pub clamped_material: Option<String>,
     pub checks: Vec<CheckOut>,
-    pub cautions: Vec<&'static str>,
+    #[schema(value_type = Vec<String>)]
+    pub cautions: Cautions,
     pub assumptions: Vec<String>,
     pub catalogue_revision: i64,
     /// True when the database is unreachable and the catalogue may be stale.
@@ -517,7 +519,7 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
                 message: c.message.clone(),
             })
             .collect(),
-        cautions: spec.cautions.to_vec(),
+        cautions: Cautions::All,
         assumptions,
         catalogue_revision: resolved.revision,
         catalogue_may_be_stale: stale,

@@ -10,6 +10,7 @@ use crate::engine::angle::AngleOutcome;
 use crate::engine::spec::Spec;
 use crate::http::quantity::{Quantity, TorqueUnit};
 
+use super::cautions::Cautions;
 use super::item_error::{ItemError, ItemErrors};
 use super::resolve::Resolved;
 use super::rounding::{round_window, RoundingError};
@@ -60,7 +61,8 @@ pub struct SetpointResponse {
     /// same as `spec_hash` of the full spec.
     pub spec_hash: String,
     /// The two cautions every spec carries, in short.
-    pub cautions: Vec<&'static str>,
+    #[schema(value_type = Vec<String>)]
+    pub cautions: Cautions,
 }
 
 fn rounding_problem(field: &str, e: RoundingError) -> ItemError {
@@ -132,6 +134,6 @@ pub fn setpoints(
         catalogue_revision: resolved.revision,
         catalogue_may_be_stale: stale,
         spec_hash: resolved.content_hash.clone(),
-        cautions: spec.cautions.iter().take(2).copied().collect(),
+        cautions: Cautions::Short,
     })
 }

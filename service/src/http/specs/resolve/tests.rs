@@ -174,7 +174,7 @@ mod no_panic {
             )
                 .prop_map(|(value, unit)| Quantity {
                     value,
-                    unit: unit.to_string(),
+                    unit: unit.to_string().into(),
                 }),
         )
     }
