@@ -13,10 +13,17 @@ use std::hint::black_box;
 
 use criterion::{criterion_group, criterion_main, Criterion, Throughput};
 
+use std::sync::Arc;
+
+use serde_json::value::RawValue;
+
 use tightspec::catalogue::Snapshot;
 use tightspec::http::quantity::TorqueUnit;
-use tightspec::http::specs::handlers::compute_one;
-use tightspec::http::specs::request::{SetpointQuery, SpecQuery, SpecRequest};
+use tightspec::http::specs::batch::{
+    read_item, write_items, ReadItem, CHUNK_ITEMS, ITEM_JSON_BYTES,
+};
+use tightspec::http::specs::handlers::{compute_one, json_bytes, SPEC_JSON_CAPACITY};
+use tightspec::http::specs::request::{SetpointQuery, SpecQuery};
 use tightspec::http::specs::response::spec_response;
 use tightspec::http::specs::setpoints::setpoints;
 
@@ -29,23 +36,13 @@ const AXLE_CLAMP: &str =
 const DECK_SPINDLE: &str = "thread=M12x1.25&property_class=10.9&finish=zinc-flake&lubricant=none\
     &tightening_method=torque-angle&clamp_length=32mm&joint_outer_diameter=30mm&clamped_material=steel&torque_unit=N%C2%B7m&resolution=0.5";
 
-fn request(query: &str) -> SpecRequest {
-    let q: SpecQuery = match serde_urlencoded::from_str(query) {
-        Ok(q) => q,
-        Err(e) => panic!("bench query {query}: {e}"),
-    };
-    match q.to_request() {
-        Ok(r) => r,
-        Err(e) => panic!("bench query {query}: {e:?}"),
-    }
-}
-
 /// Query string to JSON bytes, as `GET /v1/tightening-specs` does.
 fn spec_get(query: &str, snapshot: &Snapshot) -> Result<Vec<u8>, String> {
     let q: SpecQuery = serde_urlencoded::from_str(query).map_err(|e| e.to_string())?;
     let req = q.to_request().map_err(|e| format!("{e:?}"))?;
     let (resolved, spec) = compute_one(&req, snapshot).map_err(|e| format!("{e:?}"))?;
-    serde_json::to_vec(&spec_response(&spec, &resolved, false)).map_err(|e| e.to_string())
+    json_bytes(&spec_response(&spec, &resolved, false), SPEC_JSON_CAPACITY)
+        .map_err(|e| e.to_string())
 }
 
 /// Query string to JSON bytes, as `GET /v1/setpoints` does.
@@ -64,7 +61,7 @@ fn setpoints_get(query: &str, snapshot: &Snapshot) -> Result<Vec<u8>, String> {
         false,
     )
     .map_err(|e| format!("{e:?}"))?;
-    serde_json::to_vec(&body).map_err(|e| e.to_string())
+    json_bytes(&body, SPEC_JSON_CAPACITY).map_err(|e| e.to_string())
 }
 
 /// Fails loudly, before timing, if a bench input stopped being valid.
@@ -96,10 +93,11 @@ fn bench_get(c: &mut Criterion) {
     g.finish();
 }
 
-/// A batch of 1,000 catalogue-friction items (as the batch endpoint: JSON
-/// items already parsed, compute each in one loop, serialise once).
+/// A batch of 1,000 catalogue-friction items, as `POST
+/// /v1/tightening-specs/batch` answers it: each raw JSON item read into a
+/// spec request, computed and written as JSON, a chunk at a time.
 fn bench_batch(c: &mut Criterion) {
-    let snapshot = Snapshot::seed();
+    let snapshot = Arc::new(Snapshot::seed());
     const JOINTS: [(&str, &str, &str, &str); 5] = [
         ("M6", "8.8", "zinc-electroplated", "none"),
         ("M8", "8.8", "zinc-nickel", "light-oil"),
@@ -107,31 +105,48 @@ fn bench_batch(c: &mut Criterion) {
         ("M12", "8.8", "plain", "light-oil"),
         ("M16", "10.9", "phosphate-oil", "mos2-paste"),
     ];
-    let requests: Vec<SpecRequest> = (0..1000)
+    let items: Vec<Box<RawValue>> = (0..1000)
         .map(|i| {
             let (t, c, f, l) = JOINTS[i % JOINTS.len()];
-            request(&format!(
-                "thread={t}&property_class={c}&finish={f}&lubricant={l}"
-            ))
+            let json = format!(
+                r#"{{"thread":"{t}","property_class":"{c}","finish":"{f}","lubricant":"{l}"}}"#
+            );
+            match RawValue::from_string(json) {
+                Ok(raw) => raw,
+                Err(e) => panic!("bench item {i}: {e}"),
+            }
         })
         .collect();
-    for r in &requests {
-        if let Err(e) = compute_one(r, &snapshot) {
-            panic!("batch item refused: {e:?}");
-        }
-    }
-    let mut g = c.benchmark_group("service_path");
-    g.throughput(Throughput::Elements(requests.len() as u64));
-    g.sample_size(30);
-    g.bench_function("batch_1000_compute_and_serialise", |b| {
-        b.iter(|| {
-            let items: Vec<_> = requests
+    let answer = |items: &[Box<RawValue>]| -> (usize, usize) {
+        let mut bytes = 0;
+        let mut succeeded = 0;
+        for (n, chunk) in items.chunks(CHUNK_ITEMS).enumerate() {
+            let read: Vec<ReadItem> = chunk
                 .iter()
-                .filter_map(|r| compute_one(black_box(r), &snapshot).ok())
-                .map(|(resolved, spec)| spec_response(&spec, &resolved, false))
+                .enumerate()
+                .map(|(i, raw)| {
+                    let r = read_item(raw)
+                        .map(|req| (req, Arc::clone(&snapshot)))
+                        .map_err(|e| e.problem());
+                    (n * CHUNK_ITEMS + i, r)
+                })
                 .collect();
-            serde_json::to_vec(&items).map(|v| v.len()).unwrap_or(0)
-        })
+            let mut out = Vec::with_capacity(chunk.len() * ITEM_JSON_BYTES);
+            succeeded += write_items(read, false, &mut out).unwrap_or(0);
+            bytes += out.len();
+        }
+        (succeeded, bytes)
+    };
+    assert_eq!(
+        answer(&items).0,
+        items.len(),
+        "every bench item must succeed"
+    );
+    let mut g = c.benchmark_group("service_path");
+    g.throughput(Throughput::Elements(items.len() as u64));
+    g.sample_size(30);
+    g.bench_function("batch_1000_read_compute_write", |b| {
+        b.iter(|| answer(black_box(&items)))
     });
     g.finish();
 }

@@ -14,6 +14,10 @@ pub const DEFAULT_LISTEN: &str = "127.0.0.1:8080";
 /// spec requests of a few hundred bytes each.
 pub const DEFAULT_MAX_BODY_BYTES: usize = 8 * 1024 * 1024;
 
+/// Default number of rendered look-up answers kept per route (see
+/// `http::specs::answer_cache`); about 5 MB at most for specs.
+pub const DEFAULT_ANSWER_CACHE: usize = 1024;
+
 /// `tightspec`: tightening specifications for threaded fasteners.
 #[derive(Debug, Parser)]
 #[command(name = "tightspec", version, about)]
@@ -88,6 +92,10 @@ pub struct Config {
     /// Worker threads (0: one per CPU core).
     #[arg(long, env = "TIGHTSPEC_WORKERS", default_value_t = 0)]
     pub workers: usize,
+    /// Rendered answers to GET spec and setpoint look-ups kept per route
+    /// for repeated queries (about 5 KB each; 0 keeps none).
+    #[arg(long, env = "TIGHTSPEC_ANSWER_CACHE_ENTRIES", default_value_t = DEFAULT_ANSWER_CACHE)]
+    pub answer_cache_entries: usize,
 }
 
 impl Config {
@@ -101,6 +109,7 @@ impl Config {
             max_body_bytes: DEFAULT_MAX_BODY_BYTES,
             shutdown_timeout_secs: 5,
             workers: 2,
+            answer_cache_entries: DEFAULT_ANSWER_CACHE,
         }
     }
 }

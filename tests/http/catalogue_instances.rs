@@ -81,6 +81,10 @@ async fn database_outage_reads_continue_writes_503_then_recovery() {
             .send()
     };
     assert_eq!(read_as_viewer().await.unwrap().status(), StatusCode::OK);
+    // A look-up answered (and kept by the answer cache) before the outage.
+    const SPEC: &str = "/v1/tightening-specs?thread=M10&property_class=8.8\
+        &finish=zinc-electroplated&lubricant=none";
+    assert_eq!(app.get_json(SPEC).await["catalogue_may_be_stale"], false);
     let (_, etag) = app.entry(7).await;
     assert_eq!(
         app.put_thread_min(&editor, 7, Some(&etag), 0.121)
@@ -104,6 +108,8 @@ async fn database_outage_reads_continue_writes_503_then_recovery() {
         ),
         (Some(0.121), Some(true))
     );
+    // the same look-up is not answered from before the outage
+    assert_eq!(app.get_json(SPEC).await["catalogue_may_be_stale"], true);
     // a token already seen may still read on an instance without anonymous reads
     wait_until!("stale flag (closed instance)", Duration::from_secs(10), {
         let r = read_as_viewer().await.unwrap();
@@ -126,6 +132,7 @@ async fn database_outage_reads_continue_writes_503_then_recovery() {
         Duration::from_secs(15),
         app.get_json("/v1/friction-entries").await["catalogue_may_be_stale"] == false
     );
+    assert_eq!(app.get_json(SPEC).await["catalogue_may_be_stale"], false);
     let r = app.put_thread_min(&editor, 7, Some(&etag), 0.122).await;
     assert_eq!(r.status(), StatusCode::OK);
     assert_eq!(app.revision().await, 3);

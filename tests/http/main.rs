@@ -9,6 +9,7 @@ mod health;
 mod openapi;
 mod reference;
 
+mod answer_cache;
 mod auth;
 mod batch;
 mod catalogue;

@@ -24,6 +24,14 @@ pub struct Metrics {
     requests_total: IntCounterVec,
     request_duration: HistogramVec,
     catalogue_revision: IntGauge,
+    answer_cache: IntCounterVec,
+}
+
+/// The routes whose GET answers are cached (`answer_cache` label `route`).
+#[derive(Debug, Clone, Copy)]
+pub enum CachedRoute {
+    Spec,
+    Setpoints,
 }
 
 impl Metrics {
@@ -51,18 +59,37 @@ impl Metrics {
         )?;
         registry.register(Box::new(requests_total.clone()))?;
         registry.register(Box::new(request_duration.clone()))?;
+        let answer_cache = IntCounterVec::new(
+            Opts::new(
+                "tightspec_answer_cache_lookups_total",
+                "GET look-ups by whether a kept answer was served (hit) or computed (miss)",
+            ),
+            &["route", "result"],
+        )?;
         registry.register(Box::new(catalogue_revision.clone()))?;
+        registry.register(Box::new(answer_cache.clone()))?;
         Ok(Self {
             registry,
             requests_total,
             request_duration,
             catalogue_revision,
+            answer_cache,
         })
     }
 
     /// Record the catalogue revision now served.
     pub fn set_catalogue_revision(&self, revision: i64) {
         self.catalogue_revision.set(revision);
+    }
+
+    /// Count one look-up of the answer cache.
+    pub fn answer_cache_lookup(&self, route: CachedRoute, hit: bool) {
+        let route = match route {
+            CachedRoute::Spec => "/v1/tightening-specs",
+            CachedRoute::Setpoints => "/v1/setpoints",
+        };
+        let result = if hit { "hit" } else { "miss" };
+        self.answer_cache.with_label_values(&[route, result]).inc();
     }
 
     fn observe(&self, route: &str, method: &str, status: u16, seconds: f64) {
@@ -128,5 +155,10 @@ mod tests {
         ));
         assert!(text.contains("http_request_duration_seconds_bucket"));
         assert!(text.contains("tightspec_catalogue_revision 3"));
+        m.answer_cache_lookup(CachedRoute::Setpoints, true);
+        let text = m.render().expect("renders");
+        assert!(text.contains(
+            r#"tightspec_answer_cache_lookups_total{result="hit",route="/v1/setpoints"} 1"#
+        ));
     }
 }

@@ -10,6 +10,7 @@ use crate::config::Config;
 use super::auth::Authenticator;
 use super::catalogue::CatalogueService;
 use super::metrics::Metrics;
+use super::specs::answer_cache::AnswerCache;
 
 /// What every handler can reach, via `web::Data<AppState>`.
 #[derive(Clone)]
@@ -28,6 +29,10 @@ pub struct AppState {
     pub catalogue_service: web::Data<CatalogueService>,
     /// Bearer-token authentication (registered as its own app data).
     pub auth: web::Data<Authenticator>,
+    /// Rendered answers to repeated `GET /v1/tightening-specs` look-ups.
+    pub spec_answers: Arc<AnswerCache>,
+    /// Rendered answers to repeated `GET /v1/setpoints` look-ups.
+    pub setpoint_answers: Arc<AnswerCache>,
 }
 
 impl AppState {
@@ -41,7 +46,10 @@ impl AppState {
     ) -> Self {
         let catalogue = Arc::clone(&catalogue_service.live);
         metrics.set_catalogue_revision(catalogue.revision());
+        let entries = config.answer_cache_entries;
         Self {
+            spec_answers: Arc::new(AnswerCache::new(entries)),
+            setpoint_answers: Arc::new(AnswerCache::new(entries)),
             config: Arc::new(config),
             metrics,
             catalogue,

@@ -65,6 +65,12 @@ impl TestAppBuilder {
         self
     }
 
+    /// Rendered look-up answers kept per route (0 keeps none).
+    pub fn answer_cache_entries(mut self, entries: usize) -> Self {
+        self.config.answer_cache_entries = entries;
+        self
+    }
+
     /// Starts the service and waits until it answers.
     pub async fn spawn(self) -> TestApp {
         init_test_logging();

@@ -1,32 +1,28 @@
 //! Thin handlers: fetch the catalogue snapshot, run the shared parse step
 //! and the engine, render with ETag and Cache-Control.
 
-use crate::http::extract::Query;
-use std::collections::hash_map::Entry;
-use std::collections::HashMap;
+use crate::http::extract::parse_query;
 use std::sync::Arc;
 
-use actix_web::http::header::{CACHE_CONTROL, ETAG};
+use actix_web::http::header::{ContentType, HeaderValue, CACHE_CONTROL, ETAG};
 use actix_web::{get, post, web, HttpRequest, HttpResponse};
-use serde::{Deserialize, Serialize};
-use utoipa::ToSchema;
+use serde::Serialize;
 
 use crate::catalogue::Snapshot;
 use crate::engine::spec::{compute, Spec};
 use crate::http::auth::Reader;
 use crate::http::error::{ApiError, Problem};
+use crate::http::metrics::CachedRoute;
 use crate::http::quantity::{TorqueUnit, Units};
 use crate::http::state::AppState;
 
+use super::answer_cache::Rendered;
 use super::caching::{cache_control, etag, not_modified};
 use super::item_error::{ItemError, ItemErrors};
 use super::request::{SetpointQuery, SpecQuery, SpecRequest};
 use super::resolve::{from_engine, resolve, Resolved};
 use super::response::{spec_response, SpecResponse};
 use super::setpoints::{setpoints, SetpointResponse};
-
-/// Most items one batch may hold.
-pub const BATCH_MAX_ITEMS: usize = 10_000;
 
 /// The catalogue snapshot a request is answered from: the live one, or the
 /// pinned revision (held in memory, else read from the store).
@@ -64,42 +60,110 @@ fn units_tag(u: Units) -> &'static str {
     }
 }
 
-/// 200 with ETag and Cache-Control, or (for GET) 304 when `If-None-Match`
-/// matches. POST answers carry the ETag too but are never 304 (RFC 9110
-/// §13.1.2 reserves 304 for GET and HEAD).
-fn cached<T: Serialize>(
-    http: &HttpRequest,
-    tag: String,
-    pinned: bool,
-    body: impl FnOnce() -> Result<T, ItemErrors>,
-) -> Result<HttpResponse, ApiError> {
-    let cc = cache_control(pinned);
-    let get = http.method() == actix_web::http::Method::GET;
-    if get && not_modified(http.headers(), &tag) {
-        return Ok(HttpResponse::NotModified()
-            .insert_header((ETAG, tag))
-            .insert_header((CACHE_CONTROL, cc))
-            .finish());
-    }
-    let body = body()?;
-    Ok(HttpResponse::Ok()
-        .insert_header((ETAG, tag))
-        .insert_header((CACHE_CONTROL, cc))
-        .json(body))
+/// Room for one spec's JSON (about 5 KB in SI, a little more in US units),
+/// so the buffer is not grown and copied while it is written.
+pub const SPEC_JSON_CAPACITY: usize = 8 * 1024;
+
+/// A response body as JSON bytes, written into a buffer of `capacity`.
+pub fn json_bytes<T: Serialize>(body: &T, capacity: usize) -> Result<Vec<u8>, ApiError> {
+    let mut buf = Vec::with_capacity(capacity);
+    serde_json::to_writer(&mut buf, body)
+        .map_err(|e| ApiError::Internal(format!("response could not be written as JSON: {e}")))?;
+    Ok(buf)
 }
 
-async fn spec_for(
+/// A rendered answer as a response: 304 when a GET's `If-None-Match` names
+/// its ETag, else 200 with the JSON body.
+fn respond(http: &HttpRequest, answer: &Rendered) -> HttpResponse {
+    let cc = cache_control(answer.pinned);
+    let get = http.method() == actix_web::http::Method::GET;
+    if get && not_modified(http.headers(), answer.etag.to_str().unwrap_or_default()) {
+        return HttpResponse::NotModified()
+            .insert_header((ETAG, answer.etag.clone()))
+            .insert_header((CACHE_CONTROL, cc))
+            .finish();
+    }
+    HttpResponse::Ok()
+        .insert_header((ETAG, answer.etag.clone()))
+        .insert_header((CACHE_CONTROL, cc))
+        .content_type(ContentType::json())
+        .body(answer.body.clone())
+}
+
+/// The catalogue state an answer is computed under: the live revision and
+/// the may-be-stale flag, read once so that the answer's body and its cache
+/// entry agree.
+#[derive(Debug, Clone, Copy)]
+struct Served {
+    revision: i64,
+    stale: bool,
+}
+
+impl Served {
+    fn now(state: &AppState) -> Self {
+        Self {
+            revision: state.catalogue.revision(),
+            stale: state.catalogue.is_stale(),
+        }
+    }
+
+    /// An answer's ETag and body as a [`Rendered`] of this state. A pinned
+    /// look-up is answered from another revision but kept under the live
+    /// one, like every other entry.
+    fn rendered(self, pinned: bool, tag: String, body: Vec<u8>) -> Result<Rendered, ApiError> {
+        let etag = HeaderValue::try_from(tag)
+            .map_err(|e| ApiError::Internal(format!("ETag is not a header value: {e}")))?;
+        Ok(Rendered {
+            revision: self.revision,
+            stale: self.stale,
+            pinned,
+            etag,
+            body: body.into(),
+        })
+    }
+}
+
+/// A GET look-up through the route's answer cache: a kept answer for the
+/// same query string, catalogue revision and stale flag is sent as it is;
+/// otherwise `compute` answers it and a successful answer is kept.
+async fn look_up<F, Fut>(
     http: &HttpRequest,
     state: &AppState,
+    route: CachedRoute,
+    compute: F,
+) -> Result<HttpResponse, ApiError>
+where
+    F: FnOnce(Served) -> Fut,
+    Fut: std::future::Future<Output = Result<Rendered, ApiError>>,
+{
+    let cache = match route {
+        CachedRoute::Spec => &state.spec_answers,
+        CachedRoute::Setpoints => &state.setpoint_answers,
+    };
+    let query = http.query_string();
+    let served = Served::now(state);
+    let hit = cache.get(query, served.revision, served.stale);
+    state.metrics.answer_cache_lookup(route, hit.is_some());
+    if let Some(answer) = hit {
+        return Ok(respond(http, &answer));
+    }
+    let answer = Arc::new(compute(served).await?);
+    cache.put(query, Arc::clone(&answer));
+    Ok(respond(http, &answer))
+}
+
+/// The rendered answer of one spec request.
+async fn spec_answer(
+    state: &AppState,
+    served: Served,
     req: &SpecRequest,
-) -> Result<HttpResponse, ApiError> {
+) -> Result<Rendered, ApiError> {
     let snapshot = snapshot_for(state, req.catalogue_revision).await?;
     let (resolved, spec) = compute_one(req, &snapshot)?;
-    let stale = state.catalogue.is_stale();
     let tag = etag(&resolved.content_hash, units_tag(resolved.units));
-    cached(http, tag, resolved.pinned, || {
-        Ok(spec_response(&spec, &resolved, stale))
-    })
+    let body = spec_response(&spec, &resolved, served.stale);
+    let body = json_bytes(&body, SPEC_JSON_CAPACITY)?;
+    served.rendered(resolved.pinned, tag, body)
 }
 
 /// A tightening specification from query parameters (cacheable).
@@ -124,10 +188,14 @@ pub async fn get_spec(
     _reader: Reader,
     http: HttpRequest,
     state: web::Data<AppState>,
-    query: Query<SpecQuery>,
 ) -> Result<HttpResponse, ApiError> {
-    let req = query.to_request().map_err(ItemErrors::from)?;
-    spec_for(&http, &state, &req).await
+    let (http, state) = (&http, &state);
+    look_up(http, state, CachedRoute::Spec, |served| async move {
+        let query: SpecQuery = parse_query(http.query_string())?;
+        let req = query.to_request().map_err(ItemErrors::from)?;
+        spec_answer(state, served, &req).await
+    })
+    .await
 }
 
 /// A tightening specification from a JSON body with the full set of options.
@@ -150,7 +218,8 @@ pub async fn post_spec(
     state: web::Data<AppState>,
     body: web::Json<SpecRequest>,
 ) -> Result<HttpResponse, ApiError> {
-    spec_for(&http, &state, &body).await
+    let answer = spec_answer(&state, Served::now(&state), &body).await?;
+    Ok(respond(&http, &answer))
 }
 
 /// Tool setpoints: torque window in the tool's unit, rounded to its
@@ -175,8 +244,22 @@ pub async fn get_setpoints(
     _reader: Reader,
     http: HttpRequest,
     state: web::Data<AppState>,
-    query: Query<SetpointQuery>,
 ) -> Result<HttpResponse, ApiError> {
+    let (http, state) = (&http, &state);
+    look_up(http, state, CachedRoute::Setpoints, |served| async move {
+        let query: SetpointQuery = parse_query(http.query_string())?;
+        setpoint_answer(state, served, &query).await
+    })
+    .await
+}
+
+/// The rendered answer of one setpoint query: the torque unit and the spec
+/// request are read together so that every bad parameter is reported.
+async fn setpoint_answer(
+    state: &AppState,
+    served: Served,
+    query: &SetpointQuery,
+) -> Result<Rendered, ApiError> {
     let mut problems: Vec<ItemError> = Vec::new();
     let unit = match query.torque_unit.as_deref() {
         None => Some(TorqueUnit::NewtonMetre),
@@ -198,9 +281,8 @@ pub async fn get_setpoints(
     let (Some(unit), Some(req)) = (unit, req) else {
         return Err(ItemErrors(problems).into());
     };
-    let snapshot = snapshot_for(&state, req.catalogue_revision).await?;
+    let snapshot = snapshot_for(state, req.catalogue_revision).await?;
     let (resolved, spec) = compute_one(&req, &snapshot)?;
-    let stale = state.catalogue.is_stale();
     let presentation = format!(
         "setpoints|{}|{:?}|{:?}",
         unit.symbol(),
@@ -208,144 +290,14 @@ pub async fn get_setpoints(
         query.angle_resolution
     );
     let tag = etag(&resolved.content_hash, &presentation);
-    cached(&http, tag, resolved.pinned, || {
-        setpoints(
-            &spec,
-            &resolved,
-            unit,
-            query.resolution,
-            query.angle_resolution,
-            stale,
-        )
-    })
-}
-
-/// Body of a batch: up to 10,000 spec requests (each as the POST body).
-#[derive(Debug, Deserialize, ToSchema)]
-#[serde(deny_unknown_fields)]
-pub struct BatchRequest {
-    #[schema(value_type = Vec<SpecRequest>)]
-    pub items: Vec<serde_json::Value>,
-}
-
-/// One result of a batch, in request order: a spec or a problem.
-#[derive(Debug, Serialize, ToSchema)]
-pub struct BatchItem {
-    /// Position in the request's `items`.
-    pub index: usize,
-    /// 200, or the status the item would have had on its own.
-    pub status: u16,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub spec: Option<SpecResponse>,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub problem: Option<Problem>,
-}
-
-#[derive(Debug, Serialize, ToSchema)]
-pub struct BatchResponse {
-    pub count: usize,
-    pub succeeded: usize,
-    pub failed: usize,
-    pub items: Vec<BatchItem>,
-}
-
-/// The first `name` in backticks of a serde message ("unknown field `thred`").
-fn backticked(message: &str) -> Option<String> {
-    let rest = message.split_once('`')?.1;
-    Some(rest.split_once('`')?.0.to_string())
-}
-
-fn failed(index: usize, e: ApiError) -> BatchItem {
-    let problem = e.problem();
-    BatchItem {
-        index,
-        status: problem.status,
-        spec: None,
-        problem: Some(problem),
-    }
-}
-
-/// Many specs in one request: results in the same order, each a spec or a
-/// problem object; one bad item does not fail the batch.
-#[utoipa::path(
-    tag = "specs",
-    request_body = BatchRequest,
-    responses(
-        (status = 200, description = "One result per item, in order", body = BatchResponse),
-        (status = 400, description = "The body is not a batch", body = Problem, content_type = "application/problem+json"),
-        (status = 413, description = "Body over the limit", body = Problem, content_type = "application/problem+json"),
-        (status = 422, description = "More than 10,000 items", body = Problem, content_type = "application/problem+json"),
-    )
-)]
-#[post("/v1/tightening-specs/batch")]
-pub async fn post_batch(
-    _reader: Reader,
-    state: web::Data<AppState>,
-    body: web::Json<BatchRequest>,
-) -> Result<HttpResponse, ApiError> {
-    let items = body.into_inner().items;
-    if items.len() > BATCH_MAX_ITEMS {
-        return Err(ApiError::invalid(
-            "items",
-            format!(
-                "a batch holds at most {BATCH_MAX_ITEMS} items; this one has {}",
-                items.len()
-            ),
-        ));
-    }
-    let requests: Vec<Result<SpecRequest, ApiError>> = items
-        .into_iter()
-        .map(|v| {
-            SpecRequest::deserialize(v).map_err(|e| {
-                let message = e.to_string();
-                let field = backticked(&message).unwrap_or_else(|| "item".to_string());
-                ApiError::malformed(field, message)
-            })
-        })
-        .collect();
-
-    // Fetch each pinned revision once, then compute without awaiting.
-    let mut snapshots: HashMap<Option<i64>, Result<Arc<Snapshot>, ApiError>> = HashMap::new();
-    for r in requests.iter().flatten() {
-        if let Entry::Vacant(slot) = snapshots.entry(r.catalogue_revision) {
-            slot.insert(snapshot_for(&state, r.catalogue_revision).await);
-        }
-    }
-    let stale = state.catalogue.is_stale();
-    let mut out = Vec::with_capacity(requests.len());
-    let mut succeeded = 0;
-    for (index, r) in requests.into_iter().enumerate() {
-        let item = match r {
-            Err(e) => failed(index, e),
-            Ok(req) => match snapshots.get(&req.catalogue_revision) {
-                Some(Ok(snapshot)) => match compute_one(&req, snapshot) {
-                    Ok((resolved, spec)) => {
-                        succeeded += 1;
-                        BatchItem {
-                            index,
-                            status: 200,
-                            spec: Some(spec_response(&spec, &resolved, stale)),
-                            problem: None,
-                        }
-                    }
-                    Err(e) => failed(index, e.into()),
-                },
-                Some(Err(e)) => BatchItem {
-                    index,
-                    status: e.problem().status,
-                    spec: None,
-                    problem: Some(e.problem()),
-                },
-                None => failed(index, ApiError::Internal("batch snapshot missing".into())),
-            },
-        };
-        out.push(item);
-    }
-    let count = out.len();
-    Ok(HttpResponse::Ok().json(BatchResponse {
-        count,
-        succeeded,
-        failed: count - succeeded,
-        items: out,
-    }))
+    let body = setpoints(
+        &spec,
+        &resolved,
+        unit,
+        query.resolution,
+        query.angle_resolution,
+        served.stale,
+    )?;
+    let body = json_bytes(&body, SPEC_JSON_CAPACITY)?;
+    served.rendered(resolved.pinned, tag, body)
 }

@@ -9,6 +9,8 @@
 //! and render ([`response`], [`setpoints`]) with ETag and Cache-Control
 //! ([`caching`]).
 
+pub mod answer_cache;
+pub mod batch;
 pub mod caching;
 pub mod cautions;
 pub mod friction;
@@ -29,6 +31,6 @@ use utoipa_actix_web::service_config::ServiceConfig;
 pub fn configure(cfg: &mut ServiceConfig) {
     cfg.service(handlers::get_spec)
         .service(handlers::post_spec)
-        .service(handlers::post_batch)
+        .service(batch::post_batch)
         .service(handlers::get_setpoints);
 }
