@@ -11,6 +11,7 @@
 
 use std::collections::HashMap;
 use std::sync::Arc;
+use std::time::Instant;
 
 use actix_web::http::header::ContentType;
 use actix_web::web::Bytes;
@@ -181,6 +182,10 @@ struct Batch {
     count: usize,
     succeeded: usize,
     done: bool,
+    /// When the handler took the batch, and its request's log span: the
+    /// last chunk logs the server time (the stream runs outside the span).
+    started: Instant,
+    span: tracing::Span,
 }
 
 impl Batch {
@@ -195,6 +200,8 @@ impl Batch {
             count: 0,
             succeeded: 0,
             done: false,
+            started: Instant::now(),
+            span: tracing::Span::current(),
         }
     }
 
@@ -247,15 +254,23 @@ impl Batch {
         }
         self.count += n;
         if self.done {
-            let tail = format!(
-                "],\"count\":{},\"succeeded\":{},\"failed\":{}}}",
-                self.count,
-                self.succeeded,
-                self.count - self.succeeded
-            );
-            out.extend_from_slice(tail.as_bytes());
+            self.finish(&mut out);
         }
         Some((Ok(Bytes::from(out)), self))
+    }
+
+    /// Writes the counts and logs the batch's server time.
+    fn finish(&self, out: &mut Vec<u8>) {
+        let failed = self.count - self.succeeded;
+        let tail = format!(
+            "],\"count\":{},\"succeeded\":{},\"failed\":{failed}}}",
+            self.count, self.succeeded
+        );
+        out.extend_from_slice(tail.as_bytes());
+        let elapsed_ms = (self.started.elapsed().as_secs_f64() * 1e6).round() / 1e3;
+        self.span.in_scope(|| {
+            tracing::info!(items = self.count, failed, elapsed_ms, "batch answered");
+        });
     }
 
     /// Ends the stream with an error (the client sees a cut-off answer).

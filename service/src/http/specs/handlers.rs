@@ -4,7 +4,7 @@
 use crate::http::extract::parse_query;
 use std::sync::Arc;
 
-use actix_web::http::header::{ContentType, HeaderValue, CACHE_CONTROL, ETAG};
+use actix_web::http::header::{HeaderValue, CACHE_CONTROL, CONTENT_TYPE, ETAG};
 use actix_web::{get, post, web, HttpRequest, HttpResponse};
 use serde::Serialize;
 
@@ -72,11 +72,15 @@ pub fn json_bytes<T: Serialize>(body: &T, capacity: usize) -> Result<Vec<u8>, Ap
     Ok(buf)
 }
 
+/// Content type of spec and setpoint answers.
+const JSON: &str = "application/json";
+
 /// A rendered answer as a response: 304 when a GET's `If-None-Match` names
 /// its ETag, else 200 with the JSON body.
 fn respond(http: &HttpRequest, answer: &Rendered) -> HttpResponse {
     let cc = cache_control(answer.pinned);
     let get = http.method() == actix_web::http::Method::GET;
+    let cc = HeaderValue::from_static(cc);
     if get && not_modified(http.headers(), answer.etag.to_str().unwrap_or_default()) {
         return HttpResponse::NotModified()
             .insert_header((ETAG, answer.etag.clone()))
@@ -86,7 +90,7 @@ fn respond(http: &HttpRequest, answer: &Rendered) -> HttpResponse {
     HttpResponse::Ok()
         .insert_header((ETAG, answer.etag.clone()))
         .insert_header((CACHE_CONTROL, cc))
-        .content_type(ContentType::json())
+        .insert_header((CONTENT_TYPE, HeaderValue::from_static(JSON)))
         .body(answer.body.clone())
 }
 
