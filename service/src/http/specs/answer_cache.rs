@@ -16,13 +16,17 @@
 //!   dropped and the young one becomes old; a hit in the old one moves the
 //!   entry back to the young one. Recently used answers stay; memory stays
 //!   under `capacity` answers (a spec is about 5 KB). Capacity 0 keeps
-//!   nothing.
+//!   nothing; a query string longer than [`MAX_QUERY_BYTES`] is never kept,
+//!   so keys cannot grow the cache beyond that either.
 
 use std::collections::HashMap;
 use std::sync::{Arc, Mutex};
 
 use actix_web::http::header::HeaderValue;
 use actix_web::web::Bytes;
+
+/// Longest query string kept (real look-ups are a few hundred bytes).
+pub const MAX_QUERY_BYTES: usize = 2048;
 
 /// One rendered answer and the catalogue state it was answered under.
 #[derive(Debug)]
@@ -87,7 +91,7 @@ impl AnswerCache {
 
     /// Keeps the answer to `query`.
     pub fn put(&self, query: &str, answer: Arc<Rendered>) {
-        if self.generation_size == 0 {
+        if self.generation_size == 0 || query.len() > MAX_QUERY_BYTES {
             return;
         }
         if let Ok(mut g) = self.generations.lock() {
@@ -154,6 +158,17 @@ mod tests {
         assert!(c.get("q98", 1, false).is_some(), "used, so kept");
         assert!(c.get("q99", 1, false).is_none(), "unused, so dropped");
         assert!(c.get("q0", 1, false).is_none());
+    }
+
+    #[test]
+    fn overlong_queries_are_not_kept() {
+        let c = AnswerCache::new(8);
+        let long = "x".repeat(MAX_QUERY_BYTES + 1);
+        c.put(&long, answer(1, false, "a"));
+        assert!(c.get(&long, 1, false).is_none());
+        let longest = "x".repeat(MAX_QUERY_BYTES);
+        c.put(&longest, answer(1, false, "a"));
+        assert!(c.get(&longest, 1, false).is_some());
     }
 
     #[test]

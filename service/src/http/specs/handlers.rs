@@ -1,7 +1,7 @@
 //! Thin handlers: fetch the catalogue snapshot, run the shared parse step
-//! and the engine, render with ETag and Cache-Control.
+//! and the engine, render with ETag and Cache-Control. GET look-ups go
+//! through the route's answer cache ([`super::answer_cache`]).
 
-use crate::http::extract::parse_query;
 use std::sync::Arc;
 
 use actix_web::http::header::{HeaderValue, CACHE_CONTROL, CONTENT_TYPE, ETAG};
@@ -12,6 +12,7 @@ use crate::catalogue::Snapshot;
 use crate::engine::spec::{compute, Spec};
 use crate::http::auth::Reader;
 use crate::http::error::{ApiError, Problem};
+use crate::http::extract::parse_query;
 use crate::http::metrics::CachedRoute;
 use crate::http::quantity::{TorqueUnit, Units};
 use crate::http::state::AppState;
@@ -78,9 +79,8 @@ const JSON: &str = "application/json";
 /// A rendered answer as a response: 304 when a GET's `If-None-Match` names
 /// its ETag, else 200 with the JSON body.
 fn respond(http: &HttpRequest, answer: &Rendered) -> HttpResponse {
-    let cc = cache_control(answer.pinned);
+    let cc = HeaderValue::from_static(cache_control(answer.pinned));
     let get = http.method() == actix_web::http::Method::GET;
-    let cc = HeaderValue::from_static(cc);
     if get && not_modified(http.headers(), answer.etag.to_str().unwrap_or_default()) {
         return HttpResponse::NotModified()
             .insert_header((ETAG, answer.etag.clone()))

@@ -6,8 +6,9 @@
 //! through the engine's look-ups and the catalogue snapshot ([`friction`],
 //! [`resolve`]) → the engine's validated `SpecInput`. Handlers
 //! ([`handlers`]) only fetch the snapshot, call that step and the engine,
-//! and render ([`response`], [`setpoints`]) with ETag and Cache-Control
-//! ([`caching`]).
+//! and render ([`response`], [`setpoints`], [`cautions`]) with ETag and
+//! Cache-Control ([`caching`]). Repeated GET look-ups are answered from
+//! [`answer_cache`]; [`batch`] streams the answer of many requests.
 
 pub mod answer_cache;
 pub mod batch;
