@@ -114,7 +114,10 @@ impl Served {
     /// An answer's ETag and body as a [`Rendered`] of this state. A pinned
     /// look-up is answered from another revision but kept under the live
     /// one, like every other entry.
-    fn rendered(self, pinned: bool, tag: String, body: Vec<u8>) -> Result<Rendered, ApiError> {
+    fn rendered(self, pinned: bool, tag: String, mut body: Vec<u8>) -> Result<Rendered, ApiError> {
+        // The answer may be kept: hold only its bytes, not the whole buffer
+        // it was written into (glibc shrinks in place).
+        body.shrink_to_fit();
         let etag = HeaderValue::try_from(tag)
             .map_err(|e| ApiError::Internal(format!("ETag is not a header value: {e}")))?;
         Ok(Rendered {
