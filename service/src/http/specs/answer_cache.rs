@@ -100,15 +100,12 @@ impl AnswerCache {
     }
 
     /// Answers held now (both generations).
-    pub fn len(&self) -> usize {
+    #[cfg(test)]
+    fn len(&self) -> usize {
         self.generations
             .lock()
             .map(|g| g.young.len() + g.old.len())
             .unwrap_or(0)
-    }
-
-    pub fn is_empty(&self) -> bool {
-        self.len() == 0
     }
 }
 
@@ -176,6 +173,6 @@ mod tests {
         let c = AnswerCache::new(0);
         c.put("thread=M10", answer(1, false, "a"));
         assert!(c.get("thread=M10", 1, false).is_none());
-        assert!(c.is_empty());
+        assert_eq!(c.len(), 0);
     }
 }

@@ -63,8 +63,10 @@ pub struct BatchItem {
     pub problem: Option<Problem>,
 }
 
+// Documents the streamed answer in the OpenAPI document; `Batch` below
+// writes it.
 /// The answer to a batch (written as `items` first, then the counts).
-#[derive(Debug, Serialize, ToSchema)]
+#[derive(Debug, ToSchema)]
 pub struct BatchResponse {
     pub items: Vec<BatchItem>,
     pub count: usize,

@@ -1,6 +1,8 @@
-//! The cautions a spec or setpoint response carries. They are the same
-//! texts on every response, so their JSON is written once per process and
-//! copied into each response instead of being escaped again each time.
+//! The cautions a spec or setpoint response carries: the engine's list
+//! (`Spec::cautions`), all of it for a spec, the first two for setpoints.
+//! The engine's standard list is the same on every response, so its JSON is
+//! written once per process and copied into each response instead of being
+//! escaped again each time; any other list is written as usual.
 
 use std::sync::LazyLock;
 
@@ -13,40 +15,51 @@ use crate::engine::spec::CAUTIONS;
 /// estimate-and-test caution and the precedence of drawings and codes).
 const SHORT_LEN: usize = 2;
 
-/// Which cautions a response carries.
+/// The cautions of one response.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Cautions {
-    /// Every caution of `engine::spec::CAUTIONS` (specs).
-    All,
-    /// The first two (setpoints).
-    Short,
-}
+pub struct Cautions(&'static [&'static str]);
 
-static ALL_JSON: LazyLock<Option<Box<RawValue>>> = LazyLock::new(|| render(Cautions::All));
-static SHORT_JSON: LazyLock<Option<Box<RawValue>>> = LazyLock::new(|| render(Cautions::Short));
+/// The standard lists with their JSON, written once.
+static RENDERED: LazyLock<[(Cautions, Option<Box<RawValue>>); 2]> = LazyLock::new(|| {
+    let standard = [Cautions::all(&CAUTIONS), Cautions::short(&CAUTIONS)];
+    standard.map(|c| (c, render(c)))
+});
 
-fn render(which: Cautions) -> Option<Box<RawValue>> {
-    let json = serde_json::to_string(which.texts()).ok()?;
+fn render(c: Cautions) -> Option<Box<RawValue>> {
+    let json = serde_json::to_string(c.texts()).ok()?;
     RawValue::from_string(json).ok()
 }
 
 impl Cautions {
+    /// Every caution of a spec.
+    pub fn all(texts: &'static [&'static str]) -> Self {
+        Self(texts)
+    }
+
+    /// The cautions a setpoint answer repeats: the first two.
+    pub fn short(texts: &'static [&'static str]) -> Self {
+        Self(&texts[..texts.len().min(SHORT_LEN)])
+    }
+
     /// The texts, in order.
     pub fn texts(self) -> &'static [&'static str] {
-        match self {
-            Cautions::All => &CAUTIONS,
-            Cautions::Short => &CAUTIONS[..SHORT_LEN],
-        }
+        self.0
+    }
+
+    /// The JSON written once, when this is one of the standard lists.
+    /// Compared by content: `CAUTIONS` is a `const`, so two uses need not
+    /// share an address.
+    fn rendered(self) -> Option<&'static RawValue> {
+        RENDERED
+            .iter()
+            .find(|(c, _)| c.0 == self.0)
+            .and_then(|(_, raw)| raw.as_deref())
     }
 }
 
 impl Serialize for Cautions {
     fn serialize<S: Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
-        let rendered = match self {
-            Cautions::All => ALL_JSON.as_deref(),
-            Cautions::Short => SHORT_JSON.as_deref(),
-        };
-        match rendered {
+        match self.rendered() {
             Some(raw) => raw.serialize(s),
             None => self.texts().serialize(s),
         }
@@ -59,7 +72,8 @@ mod tests {
 
     #[test]
     fn written_as_the_plain_list_would_be() {
-        for which in [Cautions::All, Cautions::Short] {
+        for which in [Cautions::all(&CAUTIONS), Cautions::short(&CAUTIONS)] {
+            assert!(which.rendered().is_some(), "standard list written once");
             let raw = serde_json::to_string(&which).unwrap();
             let plain = serde_json::to_string(which.texts()).unwrap();
             assert_eq!(raw, plain);
@@ -70,7 +84,19 @@ mod tests {
                 Some(which.texts().len())
             );
         }
-        assert_eq!(Cautions::Short.texts().len(), 2);
-        assert!(Cautions::All.texts()[0].contains("ISO 16047"));
+        assert_eq!(Cautions::short(&CAUTIONS).texts().len(), 2);
+        assert!(Cautions::all(&CAUTIONS).texts()[0].contains("ISO 16047"));
+    }
+
+    #[test]
+    fn another_list_is_written_as_it_is() {
+        static OTHER: [&str; 3] = ["first \"quoted\"", "second", "third"];
+        let c = Cautions::all(&OTHER);
+        assert!(c.rendered().is_none());
+        assert_eq!(
+            serde_json::to_string(&c).unwrap(),
+            r#"["first \"quoted\"","second","third"]"#
+        );
+        assert_eq!(Cautions::short(&OTHER).texts(), &OTHER[..2]);
     }
 }

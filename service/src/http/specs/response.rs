@@ -519,7 +519,7 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
                 message: c.message.clone(),
             })
             .collect(),
-        cautions: Cautions::All,
+        cautions: Cautions::all(spec.cautions),
         assumptions,
         catalogue_revision: resolved.revision,
         catalogue_may_be_stale: stale,

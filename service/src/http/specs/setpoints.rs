@@ -134,6 +134,6 @@ pub fn setpoints(
         catalogue_revision: resolved.revision,
         catalogue_may_be_stale: stale,
         spec_hash: resolved.content_hash.clone(),
-        cautions: Cautions::Short,
+        cautions: Cautions::short(spec.cautions),
     })
 }
