@@ -5,7 +5,7 @@
 //! `material` (clamped parts), `tightening` (VDI 2230 preload and torque),
 //! `method` (tightening methods and their scatter), `window` (torque
 //! window from friction and tool scatter), `angle` (joint resilience and
-//! torque-angle), `checks`, and `spec`, which puts them together.
+//! torque-angle), `checks`, `plausible` (input ranges), and `spec`, which puts them together.
 
 pub mod angle;
 pub mod bearing;
@@ -15,6 +15,7 @@ pub mod error;
 pub mod grade;
 pub mod material;
 pub mod method;
+pub mod plausible;
 pub mod quantity;
 pub mod spec;
 pub mod thread;

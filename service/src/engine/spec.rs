@@ -15,6 +15,7 @@ use super::checks::{self, Check, CheckInput, TappedHole};
 use super::grade::Strength;
 use super::material::ClampedMaterial;
 use super::method::{MethodInfo, TighteningMethod};
+use super::plausible;
 use super::quantity::{non_negative, positive, FrictionRange, Scatter, Utilisation};
 use super::thread::ThreadGeometry;
 use super::tightening::{
@@ -228,11 +229,72 @@ fn figures(w: &WindowInput, target: Torque, mu_th: f64, mu_b: f64) -> FrictionFi
     }
 }
 
+/// True when every number the spec reports is finite. The plausibility
+/// ranges keep it so; this is the last guard, so that no answer ever carries
+/// a number that JSON cannot hold.
+fn all_finite(s: &Spec) -> bool {
+    let w = &s.window;
+    let mut v = vec![
+        w.lower.value,
+        w.target.value,
+        w.upper.value,
+        w.preload_min.value,
+        w.preload_max.value,
+        w.permissible_preload.value,
+        w.upper_limit.value,
+        w.tightening_factor,
+        s.surface_pressure.value,
+        s.mean_bearing_diameter.value,
+        s.proof_load.value,
+        s.yield_load.value,
+    ];
+    for f in [&s.at_min_friction, &s.at_max_friction] {
+        v.extend([
+            f.preload_at_target.value,
+            f.nut_factor,
+            f.total_friction,
+            f.split.pitch,
+            f.split.thread_friction,
+            f.split.bearing_friction,
+            f.split.prevailing,
+        ]);
+    }
+    if let Some(c) = &s.clamp_load {
+        v.extend([c.achieved_min.value, c.margin.value, c.margin_ratio]);
+    }
+    if let AngleOutcome::Computed(a) = &s.angle {
+        v.extend([
+            a.snug_torque.value,
+            a.snug_preload_min.value,
+            a.snug_preload_max.value,
+            a.angle_min.value,
+            a.angle_max.value,
+            a.angle_at_yield.value,
+        ]);
+    }
+    v.iter().all(|x| x.is_finite())
+}
+
 /// Compute a complete specification, or say exactly which input is wrong.
 pub fn compute(input: &SpecInput) -> Result<Spec, EngineError> {
+    let spec = compute_unchecked(input)?;
+    if !all_finite(&spec) {
+        return Err(EngineError::invalid(
+            "thread",
+            "these inputs give a figure that is not a finite number; check the sizes and \
+             units given",
+        ));
+    }
+    Ok(spec)
+}
+
+fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
     validate_thread(&input.thread)?;
     validate_strength(&input.strength)?;
     validate_bearing(&input.bearing)?;
+    if let Some(first) = plausible::problems(input).into_iter().next() {
+        return Err(first);
+    }
     let method = input.method.info();
     let (scatter, scatter_source) = match input.scatter {
         Some(s) => (Scatter::new(s, "scatter")?, ValueSource::Given),
@@ -370,4 +432,4 @@ pub fn compute(input: &SpecInput) -> Result<Spec, EngineError> {
 #[cfg(test)]
 mod end_to_end;
 #[cfg(test)]
-mod tests;
+pub(crate) mod tests;

@@ -37,7 +37,7 @@ fn joint() -> JointInput {
 
 /// Hollowmere Works demo joint (invented): M10 8.8, hexagon head on steel,
 /// ISO 4017 grade A d_w,min 14.63 mm, ISO 273 medium hole 11 mm.
-fn m10_input() -> SpecInput {
+pub(crate) fn m10_input() -> SpecInput {
     let thread = parse_designation("M10").unwrap();
     let strength = strength_for("8.8", &thread).unwrap();
     SpecInput {

@@ -20,6 +20,7 @@ use crate::engine::checks::TappedHole;
 use crate::engine::grade::{find_property_class, strength_for};
 use crate::engine::material::{find_material, min_engagement_factor};
 use crate::engine::method::TighteningMethod;
+use crate::engine::plausible;
 use crate::engine::spec::{SpecFlags, SpecInput, WindowMode};
 use crate::engine::thread::parse_designation;
 use crate::engine::EngineError;
@@ -385,6 +386,13 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, ItemE
         window_mode: mode,
         flags,
     };
+    let implausible: Vec<ItemError> = plausible::problems(&input)
+        .into_iter()
+        .map(from_engine)
+        .collect();
+    if !implausible.is_empty() {
+        return Err(ItemErrors(implausible));
+    }
     Ok(Resolved {
         input,
         friction,

@@ -6,12 +6,22 @@
 //! Steps are counted as integers (`k · resolution`) and each candidate is
 //! re-checked after it has been rounded to the resolution's decimal places,
 //! so binary floating point can never push a printed value outside the
-//! window by a hair.
+//! window by a hair. The step count starts at the nearest whole step and is
+//! corrected by at most [`CORRECTIONS`] steps, so the work is the same for
+//! every input; a window more than [`MAX_STEPS`] steps from zero is refused
+//! (beyond it `f64` no longer counts whole steps exactly).
 
 /// Smallest resolution accepted (finer than any tool display).
 pub const RESOLUTION_MIN: f64 = 1e-6;
 /// Largest resolution accepted.
 pub const RESOLUTION_MAX: f64 = 1000.0;
+
+/// Most steps of the resolution a window limit may lie from zero (well
+/// below 2^53, where `f64` stops holding every whole number).
+pub const MAX_STEPS: f64 = 1e12;
+/// Most corrections of the nearest step: rounding to the nearest step is
+/// at most half a step off, and the decimal re-rounding at most one more.
+const CORRECTIONS: usize = 3;
 
 /// A window rounded to a resolution, limits inside the exact window.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -39,6 +49,15 @@ pub enum RoundingError {
     },
     #[error("the window to round is not finite or its lower limit is above its upper limit")]
     BadWindow,
+    #[error(
+        "the window {lower}–{upper} lies more than {MAX_STEPS:e} steps of the resolution \
+         {resolution} from zero; use a coarser resolution"
+    )]
+    TooManySteps {
+        lower: f64,
+        upper: f64,
+        resolution: f64,
+    },
 }
 
 /// Number of decimal places of `resolution` (0.1 → 1, 0.25 → 2, 5 → 0),
@@ -90,13 +109,30 @@ pub fn round_window(
         resolution,
     };
 
+    if lower.abs() / resolution > MAX_STEPS || upper.abs() / resolution > MAX_STEPS {
+        return Err(RoundingError::TooManySteps {
+            lower,
+            upper,
+            resolution,
+        });
+    }
+
     let mut k_low = (lower / resolution).round();
-    while step_value(k_low, resolution, d) < lower {
-        k_low += 1.0;
+    for _ in 0..CORRECTIONS {
+        if step_value(k_low, resolution, d) < lower {
+            k_low += 1.0;
+        }
     }
     let mut k_up = (upper / resolution).round();
-    while step_value(k_up, resolution, d) > upper {
-        k_up -= 1.0;
+    for _ in 0..CORRECTIONS {
+        if step_value(k_up, resolution, d) > upper {
+            k_up -= 1.0;
+        }
+    }
+    if step_value(k_low, resolution, d) < lower || step_value(k_up, resolution, d) > upper {
+        // Not reachable for windows within MAX_STEPS; refused rather than
+        // rounded outward if it ever were.
+        return Err(RoundingError::BadWindow);
     }
     if k_low > k_up {
         return Err(no_step());
@@ -161,6 +197,31 @@ mod tests {
                 Err(RoundingError::BadResolution(_))
             ));
         }
+    }
+
+    #[test]
+    fn huge_windows_are_refused_at_once() {
+        // A window far beyond any tool: answered with an error, never a
+        // loop that stops counting (above 2^53 `k - 1 == k`) or a step
+        // that overflows to infinity.
+        for (lo, hi) in [(3e16, 3.1e16), (1e300, 1e305), (1e308, f64::MAX)] {
+            for res in [RESOLUTION_MIN, 0.1, RESOLUTION_MAX] {
+                assert!(
+                    matches!(
+                        round_window(lo, lo, hi, res),
+                        Err(RoundingError::TooManySteps { .. })
+                    ),
+                    "{lo} {hi} {res}"
+                );
+            }
+        }
+    }
+
+    #[test]
+    fn the_largest_accepted_window_still_rounds_inward() {
+        let (lo, hi) = (MAX_STEPS * 0.1 * 0.5, MAX_STEPS * 0.1);
+        let w = round_window(lo + 0.03, lo + 1.0, hi - 0.03, 0.1).unwrap();
+        assert!(w.lower >= lo + 0.03 && w.upper <= hi - 0.03, "{w:?}");
     }
 
     proptest! {
