@@ -233,8 +233,9 @@ fn figures(w: &WindowInput, target: Torque, mu_th: f64, mu_b: f64) -> FrictionFi
 /// ranges keep it so; this is the last guard, so that no answer ever carries
 /// a number that JSON cannot hold.
 fn all_finite(s: &Spec) -> bool {
+    let fin = |v: &[f64]| v.iter().all(|x| x.is_finite());
     let w = &s.window;
-    let mut v = vec![
+    let mut ok = fin(&[
         w.lower.value,
         w.target.value,
         w.upper.value,
@@ -247,9 +248,9 @@ fn all_finite(s: &Spec) -> bool {
         s.mean_bearing_diameter.value,
         s.proof_load.value,
         s.yield_load.value,
-    ];
+    ]);
     for f in [&s.at_min_friction, &s.at_max_friction] {
-        v.extend([
+        ok &= fin(&[
             f.preload_at_target.value,
             f.nut_factor,
             f.total_friction,
@@ -260,10 +261,10 @@ fn all_finite(s: &Spec) -> bool {
         ]);
     }
     if let Some(c) = &s.clamp_load {
-        v.extend([c.achieved_min.value, c.margin.value, c.margin_ratio]);
+        ok &= fin(&[c.achieved_min.value, c.margin.value, c.margin_ratio]);
     }
     if let AngleOutcome::Computed(a) = &s.angle {
-        v.extend([
+        ok &= fin(&[
             a.snug_torque.value,
             a.snug_preload_min.value,
             a.snug_preload_max.value,
@@ -272,7 +273,7 @@ fn all_finite(s: &Spec) -> bool {
             a.angle_at_yield.value,
         ]);
     }
-    v.iter().all(|x| x.is_finite())
+    ok
 }
 
 /// Compute a complete specification, or say exactly which input is wrong.
@@ -280,7 +281,7 @@ pub fn compute(input: &SpecInput) -> Result<Spec, EngineError> {
     let spec = compute_unchecked(input)?;
     if !all_finite(&spec) {
         return Err(EngineError::invalid(
-            "thread",
+            "request",
             "these inputs give a figure that is not a finite number; check the sizes and \
              units given",
         ));
