@@ -25,7 +25,7 @@ use tightspec::http::specs::batch::{
 use tightspec::http::specs::handlers::{compute_one, json_bytes, SPEC_JSON_CAPACITY};
 use tightspec::http::specs::request::{SetpointQuery, SpecQuery};
 use tightspec::http::specs::response::spec_response;
-use tightspec::http::specs::setpoints::setpoints;
+use tightspec::http::specs::setpoints::{setpoints, ToolOptions};
 
 /// Kestrel K4 rear axle clamp (demo): M10 8.8, zinc-plated, light oil,
 /// catalogue friction, click wrench.
@@ -52,15 +52,13 @@ fn setpoints_get(query: &str, snapshot: &Snapshot) -> Result<Vec<u8>, String> {
         .map_err(|e| format!("{e:?}"))?;
     let req = q.to_request().map_err(|e| format!("{e:?}"))?;
     let (resolved, spec) = compute_one(&req, snapshot).map_err(|e| format!("{e:?}"))?;
-    let body = setpoints(
-        &spec,
-        &resolved,
+    let tool = ToolOptions {
         unit,
-        q.resolution,
-        q.angle_resolution,
-        false,
-    )
-    .map_err(|e| format!("{e:?}"))?;
+        resolution: q.resolution,
+        angle_resolution: q.angle_resolution,
+        accept: &[],
+    };
+    let body = setpoints(&spec, &resolved, tool, false).map_err(|e| format!("{e:?}"))?;
     json_bytes(&body, SPEC_JSON_CAPACITY).map_err(|e| e.to_string())
 }
 

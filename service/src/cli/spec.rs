@@ -16,6 +16,7 @@ use clap::Args;
 
 use crate::catalogue::Snapshot;
 use crate::http::quantity::{Quantity, Units};
+use crate::http::specs::checks::error_count;
 use crate::http::specs::request::SpecQuery;
 use crate::http::specs::response::{spec_response, SpecResponse};
 use crate::http::specs::{compute_one, ItemErrors};
@@ -238,6 +239,19 @@ pub fn table(s: &SpecResponse) -> String {
         t.designation, g.id, g.standard
     );
     let _ = writeln!(o, "{}", "-".repeat(72));
+    // Before the window, where it cannot be missed.
+    let errors = error_count(&s.checks);
+    if errors > 0 {
+        let _ = writeln!(
+            o,
+            "!!! {errors} error check{} — do not use these values (see Checks below)",
+            if errors == 1 { "" } else { "s" }
+        );
+        for c in s.checks.iter().filter(|c| c.is_error()) {
+            let _ = writeln!(o, "!!! {}", c.code);
+        }
+        let _ = writeln!(o, "{}", "-".repeat(72));
+    }
     let _ = writeln!(
         o,
         "Torque      lower {:<14} target {:<14} upper {}",

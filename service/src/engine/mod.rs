@@ -10,6 +10,7 @@
 pub mod angle;
 pub mod bearing;
 pub mod calibration;
+pub mod cautions;
 pub mod checks;
 pub mod error;
 pub mod grade;

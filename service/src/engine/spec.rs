@@ -11,6 +11,7 @@ use uom::si::torque::newton_meter;
 
 use super::angle::{angle_window, steel_bolt_modulus, AngleOutcome, JointInput, JointType};
 use super::bearing::BearingSurface;
+use super::cautions::CautionSet;
 use super::checks::{self, Check, CheckInput, TappedHole};
 use super::grade::Strength;
 use super::material::ClampedMaterial;
@@ -27,19 +28,6 @@ use super::window::{
     WindowInput,
 };
 use super::EngineError;
-
-/// Standard cautions carried by every spec.
-pub const CAUTIONS: [&str; 4] = [
-    "These values are engineering estimates from published methods (VDI 2230 Part 1) and the \
-     friction data stated; confirm them by joint tests on the real parts (torque-tension tests \
-     per ISO 16047) and by a capability study of the tool.",
-    "The drawing, local codes and licensed engineering practice take precedence over this \
-     specification.",
-    "Preload losses from embedding, temperature and external loads are not deducted; the \
-     preload range is the assembly preload.",
-    "Torque-angle figures use the elastic VDI 2230 resilience model; tightening into the \
-     plastic range needs angle values established by test.",
-];
 
 /// How the window is chosen.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -145,7 +133,8 @@ pub struct Spec {
     pub at_min_friction: FrictionFigures,
     pub at_max_friction: FrictionFigures,
     pub checks: Vec<Check>,
-    pub cautions: &'static [&'static str],
+    /// The cautions that apply to this spec.
+    pub cautions: CautionSet,
 }
 
 fn bad_thread(reason: &str) -> EngineError {
@@ -398,6 +387,10 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         },
     });
 
+    let angle_given = matches!(angle, AngleOutcome::Computed(_));
+    let into_plastic_range = method.method == TighteningMethod::YieldControlled
+        || checks.iter().any(|c| c.code == checks::ANGLE_MAY_YIELD);
+    let cautions = CautionSet::for_spec(angle_given, into_plastic_range);
     let area = thread.stress_area.value;
     Ok(Spec {
         thread: thread.clone(),
@@ -426,7 +419,7 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         at_min_friction,
         at_max_friction,
         checks,
-        cautions: &CAUTIONS,
+        cautions,
     })
 }
 

@@ -19,6 +19,7 @@ use serde::Serialize;
 use utoipa::ToSchema;
 
 use crate::engine::EngineError;
+use crate::http::specs::checks::CheckOut;
 
 /// Media type of every error body (RFC 9457 §3).
 pub const PROBLEM_JSON: &str = "application/problem+json";
@@ -76,6 +77,10 @@ pub struct Problem {
     #[serde(skip_serializing_if = "Option::is_none")]
     #[schema(value_type = Option<Object>)]
     pub current: Option<serde_json::Value>,
+    /// For a refusal because error checks apply (`/problems/checks-not-accepted`):
+    /// every warning and error check of the answer, with code, severity and sentence.
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub checks: Vec<CheckOut>,
 }
 
 /// Every way a request can fail.
@@ -132,6 +137,14 @@ pub enum ApiError {
     Unprocessable {
         detail: String,
         errors: Vec<FieldError>,
+    },
+    /// 422: the answer is meant for a tool and error-severity checks apply
+    /// that the request did not accept (`accept_checks`).
+    #[error("error checks not accepted: {detail}")]
+    ChecksNotAccepted {
+        detail: String,
+        errors: Vec<FieldError>,
+        checks: Vec<CheckOut>,
     },
     /// 428: the request must be conditional (`If-Match` missing).
     #[error("precondition required: {detail}")]
@@ -206,6 +219,7 @@ impl ApiError {
                 ("unsupported-media-type", "Unsupported media type")
             }
             Self::Unprocessable { .. } => ("invalid-input", "Invalid input"),
+            Self::ChecksNotAccepted { .. } => ("checks-not-accepted", "Error checks not accepted"),
             Self::PreconditionRequired { .. } => ("precondition-required", "Precondition required"),
             Self::Unavailable { .. } => ("unavailable", "Service unavailable"),
             Self::Internal(_) => ("internal-error", "Internal error"),
@@ -219,12 +233,22 @@ impl ApiError {
         let status = self.status_code().as_u16();
         let mut errors = Vec::new();
         let mut current = None;
+        let mut checks = Vec::new();
         let detail = match self {
             Self::Malformed { detail, errors: e }
             | Self::NotFound { detail, errors: e }
             | Self::Conflict { detail, errors: e }
             | Self::Unprocessable { detail, errors: e } => {
                 errors = e.clone();
+                detail.clone()
+            }
+            Self::ChecksNotAccepted {
+                detail,
+                errors: e,
+                checks: c,
+            } => {
+                errors = e.clone();
+                checks = c.clone();
                 detail.clone()
             }
             Self::UnknownParameter { name, suggestions } => {
@@ -275,6 +299,7 @@ impl ApiError {
             request_id: None,
             errors,
             current,
+            checks,
         }
     }
 }
@@ -302,7 +327,9 @@ impl ResponseError for ApiError {
             Self::PreconditionFailed { .. } => StatusCode::PRECONDITION_FAILED,
             Self::PayloadTooLarge { .. } => StatusCode::PAYLOAD_TOO_LARGE,
             Self::UnsupportedMediaType { .. } => StatusCode::UNSUPPORTED_MEDIA_TYPE,
-            Self::Unprocessable { .. } => StatusCode::UNPROCESSABLE_ENTITY,
+            Self::Unprocessable { .. } | Self::ChecksNotAccepted { .. } => {
+                StatusCode::UNPROCESSABLE_ENTITY
+            }
             Self::PreconditionRequired { .. } => StatusCode::PRECONDITION_REQUIRED,
             Self::Unavailable { .. } => StatusCode::SERVICE_UNAVAILABLE,
             Self::Internal(_) => StatusCode::INTERNAL_SERVER_ERROR,
@@ -364,39 +391,4 @@ impl From<EngineError> for ApiError {
 }
 
 #[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn engine_errors_map_to_their_status() {
-        let bad: ApiError = EngineError::malformed("thread", "no size").into();
-        assert_eq!(bad.status_code(), StatusCode::BAD_REQUEST);
-        let unknown: ApiError = EngineError::Unknown {
-            field: "thread".into(),
-            kind: "thread",
-            given: "M11".into(),
-            suggestions: vec!["M10".into(), "M12".into()],
-        }
-        .into();
-        assert_eq!(unknown.status_code(), StatusCode::NOT_FOUND);
-        let p = unknown.problem();
-        assert_eq!(p.errors[0].field, "thread");
-        assert_eq!(p.errors[0].suggestions, vec!["M10", "M12"]);
-        let invalid: ApiError = EngineError::invalid("property_class", "outside size range").into();
-        assert_eq!(invalid.status_code(), StatusCode::UNPROCESSABLE_ENTITY);
-        assert_eq!(invalid.problem().problem_type, "/problems/invalid-input");
-    }
-
-    #[test]
-    fn internal_detail_is_generic() {
-        let p = ApiError::Internal("db password wrong at host x".into()).problem();
-        assert!(!p.detail.contains("password"));
-        assert_eq!(p.status, 500);
-    }
-
-    #[test]
-    fn payload_limit_is_stated() {
-        let p = ApiError::PayloadTooLarge { limit_bytes: 1024 }.problem();
-        assert!(p.detail.contains("1024"));
-    }
-}
+mod tests;

@@ -129,3 +129,39 @@ fn hydrogen_caution_only_from_1000_mpa() {
     i.electroplated = true;
     assert!(run(&i).is_empty());
 }
+
+#[test]
+fn every_code_written_in_the_checks_is_listed() {
+    // Scans this module's source, so a new check cannot be left out of
+    // the list `accept_checks` is read against.
+    let source = include_str!("../checks.rs");
+    let mut found = 0;
+    for part in source.split("code: \"").skip(1) {
+        let code = part.split('"').next().unwrap();
+        assert!(CODES.contains(&code), "{code} missing from CODES");
+        found += 1;
+    }
+    assert!(found >= 9, "{found}");
+    let mut sorted = CODES.to_vec();
+    sorted.sort_unstable();
+    sorted.dedup();
+    assert_eq!(sorted.len(), CODES.len(), "codes are unique");
+}
+
+#[test]
+fn tool_window_warns_below_two_steps_and_refuses_one_value() {
+    // M6 8.8 in lbf·ft at resolution 1: the window rounds to 8/8/8.
+    let zero = tool_window(7.6, 8.4, (8.0, 8.0, 8.0), 1.0, "lbf·ft").unwrap();
+    assert_eq!(
+        (zero.code, zero.severity),
+        (WINDOW_ZERO_WIDTH, Severity::Error)
+    );
+    assert!(zero.message.contains("8 lbf·ft"), "{}", zero.message);
+    let narrow = tool_window(7.6, 9.4, (8.0, 9.0, 9.0), 1.0, "lbf·ft").unwrap();
+    assert_eq!(
+        (narrow.code, narrow.severity),
+        (WINDOW_UNDER_TWO_STEPS, Severity::Warning)
+    );
+    assert!(tool_window(7.6, 9.6, (8.0, 9.0, 9.0), 1.0, "lbf·ft").is_none());
+    assert!(tool_window(36.0, 39.5, (36.0, 37.5, 39.5), 0.5, "N·m").is_none());
+}

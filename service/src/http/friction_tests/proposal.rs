@@ -220,7 +220,10 @@ fn build_for(
             changes: vec![thread_c, bearing_c, total_c],
             proposed_source: source,
             effect,
-            cautions: spec::CAUTIONS.iter().map(|c| (*c).to_owned()).collect(),
+            cautions: crate::engine::cautions::CautionSet::base()
+                .texts()
+                .map(str::to_owned)
+                .collect(),
         },
         entry: input,
     })

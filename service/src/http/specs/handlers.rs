@@ -19,11 +19,12 @@ use crate::http::state::AppState;
 
 use super::answer_cache::Rendered;
 use super::caching::{cache_control, etag, not_modified};
+use super::checks::codes_from_query;
 use super::item_error::{ItemError, ItemErrors};
 use super::request::{SetpointQuery, SpecQuery, SpecRequest};
 use super::resolve::{from_engine, resolve, Resolved};
 use super::response::{spec_response, SpecResponse};
-use super::setpoints::{setpoints, SetpointResponse};
+use super::setpoints::{setpoints, SetpointResponse, ToolOptions};
 
 /// The catalogue snapshot a request is answered from: the live one, or the
 /// pinned revision (held in memory, else read from the store).
@@ -233,8 +234,11 @@ pub async fn post_spec(
 /// resolution without ever leaving the window (lower rounds up, upper
 /// rounds down, target to the nearest step inside), the angle window for
 /// angle- and yield-controlled methods, the catalogue revision and the
-/// spec hash. Same parameters as `GET /v1/tightening-specs` plus
-/// `torque_unit`, `resolution` and `angle_resolution`.
+/// spec hash, every check and every caution that applies. Same parameters
+/// as `GET /v1/tightening-specs` plus `torque_unit`, `resolution`,
+/// `angle_resolution` and `accept_checks`. While an error-severity check
+/// applies, the setpoints are refused (422, `/problems/checks-not-accepted`,
+/// listing the checks) unless `accept_checks` names each of them.
 #[utoipa::path(
     tag = "specs",
     params(SetpointQuery),
@@ -243,7 +247,7 @@ pub async fn post_spec(
         (status = 304, description = "Not modified (If-None-Match matched)"),
         (status = 400, description = "Malformed input or unknown parameter", body = Problem, content_type = "application/problem+json"),
         (status = 404, description = "Unknown name, with suggestions", body = Problem, content_type = "application/problem+json"),
-        (status = 422, description = "Invalid input, or no step of the resolution inside the window", body = Problem, content_type = "application/problem+json"),
+        (status = 422, description = "Invalid input, no step of the resolution inside the window, or an error check applies that `accept_checks` does not name (the problem lists the checks)", body = Problem, content_type = "application/problem+json"),
     )
 )]
 #[get("/v1/setpoints")]
@@ -278,6 +282,14 @@ async fn setpoint_answer(
             }
         },
     };
+    let accept = match query.accept_checks.as_deref().map(codes_from_query) {
+        None => Some(Vec::new()),
+        Some(Ok(codes)) => Some(codes),
+        Some(Err(e)) => {
+            problems.push(e);
+            None
+        }
+    };
     let req = match query.to_request() {
         Ok(r) => Some(r),
         Err(e) => {
@@ -285,26 +297,26 @@ async fn setpoint_answer(
             None
         }
     };
-    let (Some(unit), Some(req)) = (unit, req) else {
+    let (Some(unit), Some(accept), Some(req)) = (unit, accept, req) else {
         return Err(ItemErrors(problems).into());
     };
     let snapshot = snapshot_for(state, req.catalogue_revision).await?;
     let (resolved, spec) = compute_one(&req, &snapshot)?;
     let presentation = format!(
-        "setpoints|{}|{:?}|{:?}",
+        "setpoints|{}|{:?}|{:?}|{}",
         unit.symbol(),
         query.resolution,
-        query.angle_resolution
+        query.angle_resolution,
+        accept.join(",")
     );
     let tag = etag(&resolved.content_hash, &presentation);
-    let body = setpoints(
-        &spec,
-        &resolved,
+    let tool = ToolOptions {
         unit,
-        query.resolution,
-        query.angle_resolution,
-        served.stale,
-    )?;
+        resolution: query.resolution,
+        angle_resolution: query.angle_resolution,
+        accept: &accept,
+    };
+    let body = setpoints(&spec, &resolved, tool, served.stale)?;
     let body = json_bytes(&body, SPEC_JSON_CAPACITY)?;
     served.rendered(resolved.pinned, tag, body)
 }

@@ -14,6 +14,7 @@ pub mod answer_cache;
 pub mod batch;
 pub mod caching;
 pub mod cautions;
+pub mod checks;
 pub mod friction;
 pub mod handlers;
 pub mod item_error;

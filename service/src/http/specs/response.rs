@@ -8,217 +8,18 @@ use serde::Serialize;
 use utoipa::ToSchema;
 
 use crate::engine::angle::{AngleOutcome, SnugSource};
-use crate::engine::checks::Severity;
 use crate::engine::spec::{FrictionFigures, Spec, ValueSource, WindowMode};
 use crate::engine::window::Governing;
 
 use super::cautions::Cautions;
+use super::checks::{checks_out, CheckOut};
 use super::friction::FrictionOrigin;
 use super::request::Units;
 use super::resolve::Resolved;
 use crate::http::quantity::Quantity;
 
-/// The torque window to set.
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct TorqueOut {
-    /// Lowest acceptable torque: target·(1 − s).
-    pub lower: Quantity,
-    /// Torque to set on the tool: upper/(1 + s).
-    pub target: Quantity,
-    /// Highest acceptable torque; with single friction values and no tool
-    /// scatter this is VDI 2230's tightening torque M_A.
-    pub upper: Quantity,
-    /// Yield-limited torque at minimum friction (equals `upper` unless a
-    /// required clamp load chose a lower window).
-    pub upper_limit: Quantity,
-}
-
-/// The assembly preload the window gives.
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct PreloadOut {
-    /// At the lower torque and maximum friction.
-    pub min: Quantity,
-    /// At the upper torque and minimum friction; with single friction values
-    /// and no tool scatter this is VDI 2230's F_M,zul.
-    pub max: Quantity,
-    /// F_M,zul at minimum thread friction (VDI 2230 Part 1).
-    pub permissible: Quantity,
-}
-
-/// The angle window from snug torque, or why it was not computed.
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct AngleOut {
-    pub computed: bool,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub min: Option<Quantity>,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub max: Option<Quantity>,
-    /// Angle from snug at which the bolt may first yield: a limit, never a target.
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub at_yield: Option<Quantity>,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub snug_torque: Option<Quantity>,
-    /// `given`, or `default` (30 % of the target torque, common practice).
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub snug_torque_source: Option<&'static str>,
-    /// Why the angle was not computed.
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub reason: Option<String>,
-}
-
-/// The tightening method and tool scatter used.
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct MethodOut {
-    pub id: &'static str,
-    pub name: &'static str,
-    /// Tool scatter ±s as a fraction (0.05 = ±5 %).
-    pub tool_scatter: f64,
-    /// `given` or `default` (the method's).
-    pub tool_scatter_source: &'static str,
-    /// Where the method's default scatter comes from.
-    pub scatter_reference: &'static str,
-    /// VDI 2230 Part 1 Table A8 tightening-factor range of this kind of method.
-    pub table_a8_tightening_factor: [f64; 2],
-    /// True when the tool controls torque; false when torque is only monitored.
-    pub torque_controlled: bool,
-}
-
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct ThreadOut {
-    pub designation: String,
-    pub form: &'static str,
-    pub series: &'static str,
-    pub nominal_diameter: Quantity,
-    pub pitch: Quantity,
-    pub pitch_diameter: Quantity,
-    pub minor_diameter: Quantity,
-    pub stress_area: Quantity,
-    pub flank_angle: Quantity,
-    pub custom: bool,
-}
-
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct GradeOut {
-    pub id: String,
-    pub standard: String,
-    pub tensile_strength_min: Quantity,
-    pub yield_strength_min: Quantity,
-    /// `lower_yield`, `proof_strength02`, `full_size_rpf` or `inch_yield`.
-    pub yield_basis: &'static str,
-    pub proof_stress: Quantity,
-}
-
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct BearingOut {
-    pub outer_diameter: Quantity,
-    pub inner_diameter: Quantity,
-    /// D_Km = (d_w + d_h)/2.
-    pub mean_diameter: Quantity,
-    pub source: String,
-    /// Surface pressure under the head or nut at preload max.
-    pub surface_pressure: Quantity,
-}
-
-/// The fastener: thread geometry, grade strengths and loads.
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct FastenerOut {
-    pub thread: ThreadOut,
-    /// Convenience copy of `thread.stress_area`.
-    pub stress_area: Quantity,
-    pub property_class: GradeOut,
-    /// Proof load Sp·As.
-    pub proof_load: Quantity,
-    /// Yield load Rp·As (tension only).
-    pub yield_load: Quantity,
-    pub bearing: BearingOut,
-}
-
-/// A catalogue entry a friction value came from.
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct CatalogueEntryRef {
-    pub id: i64,
-    /// Catalogue revision of the entry's last change.
-    pub revision: i64,
-    /// The entry's published source.
-    pub source: String,
-}
-
-/// One friction range used, and where it came from.
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct FrictionSideOut {
-    pub min: f64,
-    pub max: f64,
-    /// `catalogue` (the entry in `friction.catalogue_entry`) or `request`
-    /// (given in the request).
-    pub origin: &'static str,
-}
-
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct FrictionOut {
-    /// Thread friction μ_G (VDI 2230 notation).
-    pub thread: FrictionSideOut,
-    /// Bearing friction μ_K under the turning head or nut.
-    pub bearing: FrictionSideOut,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub finish: Option<String>,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub lubricant: Option<String>,
-    /// The catalogue entry the `catalogue` values came from (one entry
-    /// gives both thread and bearing friction).
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub catalogue_entry: Option<CatalogueEntryRef>,
-    /// The catalogue revision the look-up used.
-    pub catalogue_revision: i64,
-    /// Provenance in words.
-    pub source: String,
-}
-
-/// Shares of the torque (fractions summing to 1).
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct TorqueSplitOut {
-    /// Share that stretches the bolt (tightening efficiency).
-    pub pitch: f64,
-    pub thread_friction: f64,
-    pub bearing_friction: f64,
-    pub prevailing: f64,
-}
-
-/// Figures at one friction corner and the target torque.
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct FiguresOut {
-    pub thread_friction: f64,
-    pub bearing_friction: f64,
-    pub preload_at_target: Quantity,
-    pub torque_split: TorqueSplitOut,
-    /// Nut factor K = M/(F·d), prevailing torque excluded.
-    pub nut_factor: f64,
-    /// μ_tot: the single friction giving the same torque.
-    pub total_friction: f64,
-}
-
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct FiguresPair {
-    pub at_min_friction: FiguresOut,
-    pub at_max_friction: FiguresOut,
-}
-
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct ClampLoadOut {
-    pub required: Quantity,
-    /// Preload at the low end of the window.
-    pub achieved_min: Quantity,
-    pub margin: Quantity,
-    pub met: bool,
-}
-
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct CheckOut {
-    /// Stable machine-readable code, e.g. `surface_pressure_exceeded`.
-    pub code: &'static str,
-    /// `info`, `warning` or `error`.
-    pub severity: &'static str,
-    pub message: String,
-}
+mod parts;
+pub use parts::*;
 
 /// A complete tightening specification.
 #[derive(Debug, Clone, Serialize, ToSchema)]
@@ -506,20 +307,8 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
             at_max_friction: figures(o, &spec.at_max_friction),
         },
         clamped_material: spec.clamped_material.as_ref().map(|m| m.id.clone()),
-        checks: spec
-            .checks
-            .iter()
-            .map(|c| CheckOut {
-                code: c.code,
-                severity: match c.severity {
-                    Severity::Info => "info",
-                    Severity::Warning => "warning",
-                    Severity::Error => "error",
-                },
-                message: c.message.clone(),
-            })
-            .collect(),
-        cautions: Cautions::all(spec.cautions),
+        checks: checks_out(&spec.checks),
+        cautions: Cautions::of(spec.cautions),
         assumptions,
         catalogue_revision: resolved.revision,
         catalogue_may_be_stale: stale,

@@ -2,15 +2,23 @@
 //! torque in its unit, rounded to its resolution without leaving the window
 //! (see [`super::rounding`]), plus the angle window when the method is
 //! angle- or yield-controlled, the catalogue revision and the spec hash.
+//! It carries every check of the spec (and the checks of the window as the
+//! tool holds it) and every caution that applies; while an error check
+//! applies it is refused unless the request accepts each one
+//! ([`super::checks::gate`]).
 
 use serde::Serialize;
 use utoipa::ToSchema;
 
 use crate::engine::angle::AngleOutcome;
+use crate::engine::cautions::Caution;
+use crate::engine::checks::tool_window;
 use crate::engine::spec::Spec;
+use crate::http::error::ApiError;
 use crate::http::quantity::{Quantity, TorqueUnit};
 
 use super::cautions::Cautions;
+use super::checks::{checks_out, error_count, gate, CheckOut};
 use super::item_error::{ItemError, ItemErrors};
 use super::resolve::Resolved;
 use super::rounding::{round_window, RoundingError};
@@ -60,31 +68,58 @@ pub struct SetpointResponse {
     /// SHA-256 (hex) of the normalised request and catalogue revision; the
     /// same as `spec_hash` of the full spec.
     pub spec_hash: String,
-    /// The two cautions every spec carries, in short.
+    /// Every check of the spec, then the checks of the window at the
+    /// tool's resolution (`setpoint_window_under_two_steps`,
+    /// `setpoint_window_zero_width`).
+    pub checks: Vec<CheckOut>,
+    /// True when an error-severity check applies; such an answer is only
+    /// given when the request accepted each one (`accepted_checks`).
+    pub has_errors: bool,
+    /// The error checks that applied and that the request accepted by
+    /// naming them in `accept_checks`.
+    pub accepted_checks: Vec<&'static str>,
+    /// Every caution that applies (the same as the spec's).
     #[schema(value_type = Vec<String>)]
     pub cautions: Cautions,
 }
 
-fn rounding_problem(field: &str, e: RoundingError) -> ItemError {
-    ItemError::invalid(field, e.to_string())
+/// How the tool holds the window, and which error checks the request accepts.
+#[derive(Debug, Clone, Copy)]
+pub struct ToolOptions<'a> {
+    pub unit: TorqueUnit,
+    /// Torque resolution in `unit`; default [`DEFAULT_RESOLUTION`].
+    pub resolution: Option<f64>,
+    /// Angle resolution in degrees; default [`DEFAULT_ANGLE_RESOLUTION`].
+    pub angle_resolution: Option<f64>,
+    /// Error check codes the request accepts.
+    pub accept: &'a [&'static str],
 }
 
-/// The setpoints of a computed spec.
+fn rounding_problem(field: &str, e: RoundingError) -> ApiError {
+    ItemErrors::from(ItemError::invalid(field, e.to_string())).into()
+}
+
+/// The setpoints of a computed spec, or the refusal while an error check
+/// applies that `tool.accept` does not name.
 pub fn setpoints(
     spec: &Spec,
     resolved: &Resolved,
-    unit: TorqueUnit,
-    resolution: Option<f64>,
-    angle_resolution: Option<f64>,
+    tool: ToolOptions,
     stale: bool,
-) -> Result<SetpointResponse, ItemErrors> {
-    let res = resolution.unwrap_or(DEFAULT_RESOLUTION);
-    let angle_res = angle_resolution.unwrap_or(DEFAULT_ANGLE_RESOLUTION);
+) -> Result<SetpointResponse, ApiError> {
+    let unit = tool.unit;
+    let res = tool.resolution.unwrap_or(DEFAULT_RESOLUTION);
+    let angle_res = tool.angle_resolution.unwrap_or(DEFAULT_ANGLE_RESOLUTION);
     let w = &spec.window;
     let value = |t| Quantity::torque_in(t, unit).value;
-    let rounded = round_window(value(w.lower), value(w.target), value(w.upper), res)
-        .map_err(|e| ItemErrors::from(rounding_problem("resolution", e)))?;
+    let (lower, upper) = (value(w.lower), value(w.upper));
+    let rounded = round_window(lower, value(w.target), upper, res)
+        .map_err(|e| rounding_problem("resolution", e))?;
     let sym = unit.symbol();
+    let held = (rounded.lower, rounded.target, rounded.upper);
+    let window_check = tool_window(lower, upper, held, res, sym);
+    let checks = checks_out(spec.checks.iter().chain(&window_check));
+    let accepted_checks = gate(&checks, tool.accept)?;
     let q = |v: f64| Quantity::new(v, sym);
 
     let angle = if spec.method.torque_controlled {
@@ -95,7 +130,7 @@ pub fn setpoints(
                 let lo = a.angle_min.get::<uom::si::angle::degree>();
                 let hi = a.angle_max.get::<uom::si::angle::degree>();
                 let r = round_window(lo, (lo + hi) / 2.0, hi, angle_res)
-                    .map_err(|e| ItemErrors::from(rounding_problem("angle_resolution", e)))?;
+                    .map_err(|e| rounding_problem("angle_resolution", e))?;
                 let snug = value(a.snug_torque);
                 // Nearest step, but never zero: a snug torque is always some torque.
                 let steps = (snug / res).round().max(1.0);
@@ -109,17 +144,23 @@ pub fn setpoints(
                 })
             }
             AngleOutcome::NotComputed { reason } => {
-                return Err(ItemError::invalid(
+                return Err(ItemErrors::from(ItemError::invalid(
                     "clamp_length",
                     format!(
                         "the {} method is set by angle, but no angle window could be \
                          computed: {reason}",
                         spec.method.id
                     ),
-                )
+                ))
                 .into())
             }
         }
+    };
+    // The elastic-model caution goes with an angle window in the answer.
+    let cautions = if angle.is_some() {
+        spec.cautions
+    } else {
+        spec.cautions.without(Caution::ElasticModel)
     };
     Ok(SetpointResponse {
         thread: spec.thread.designation.clone(),
@@ -134,6 +175,9 @@ pub fn setpoints(
         catalogue_revision: resolved.revision,
         catalogue_may_be_stale: stale,
         spec_hash: resolved.content_hash.clone(),
-        cautions: Cautions::short(spec.cautions),
+        has_errors: error_count(&checks) > 0,
+        checks,
+        accepted_checks,
+        cautions: Cautions::of(cautions),
     })
 }

@@ -1,0 +1,34 @@
+use super::*;
+
+#[test]
+fn engine_errors_map_to_their_status() {
+    let bad: ApiError = EngineError::malformed("thread", "no size").into();
+    assert_eq!(bad.status_code(), StatusCode::BAD_REQUEST);
+    let unknown: ApiError = EngineError::Unknown {
+        field: "thread".into(),
+        kind: "thread",
+        given: "M11".into(),
+        suggestions: vec!["M10".into(), "M12".into()],
+    }
+    .into();
+    assert_eq!(unknown.status_code(), StatusCode::NOT_FOUND);
+    let p = unknown.problem();
+    assert_eq!(p.errors[0].field, "thread");
+    assert_eq!(p.errors[0].suggestions, vec!["M10", "M12"]);
+    let invalid: ApiError = EngineError::invalid("property_class", "outside size range").into();
+    assert_eq!(invalid.status_code(), StatusCode::UNPROCESSABLE_ENTITY);
+    assert_eq!(invalid.problem().problem_type, "/problems/invalid-input");
+}
+
+#[test]
+fn internal_detail_is_generic() {
+    let p = ApiError::Internal("db password wrong at host x".into()).problem();
+    assert!(!p.detail.contains("password"));
+    assert_eq!(p.status, 500);
+}
+
+#[test]
+fn payload_limit_is_stated() {
+    let p = ApiError::PayloadTooLarge { limit_bytes: 1024 }.problem();
+    assert!(p.detail.contains("1024"));
+}

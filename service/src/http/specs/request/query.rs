@@ -1,0 +1,274 @@
+//! The flat query strings of the GET look-ups and their conversion into a
+//! [`SpecRequest`].
+
+use serde::Deserialize;
+use utoipa::IntoParams;
+
+use super::{BearingInput, FrictionInput, SpecRequest, Units};
+use crate::http::quantity::Quantity;
+use crate::http::specs::item_error::ItemError;
+
+/// Reads a query value such as `40mm`, `40 mm`, `1.5in`, `2N·m` into a
+/// quantity. A bare number is refused: the unit must be stated.
+pub fn quantity_from_query(field: &str, text: &str) -> Result<Quantity, ItemError> {
+    let t = text.trim();
+    let split = t
+        .char_indices()
+        .find(|&(i, c)| {
+            !(c.is_ascii_digit()
+                || c == '.'
+                || ((c == '-' || c == '+') && (i == 0 || t[..i].ends_with(['e', 'E'])))
+                || ((c == 'e' || c == 'E')
+                    && i > 0
+                    && t[i + 1..]
+                        .starts_with(|d: char| d.is_ascii_digit() || d == '-' || d == '+')))
+        })
+        .map(|(i, _)| i)
+        .unwrap_or(t.len());
+    let (number, unit) = t.split_at(split);
+    let unit = unit.trim();
+    let value: f64 = number.parse().map_err(|_| {
+        ItemError::malformed(
+            field,
+            format!("'{text}' is not a number followed by a unit"),
+        )
+    })?;
+    if unit.is_empty() {
+        return Err(ItemError::malformed(
+            field,
+            format!("'{text}' has no unit; write it with one, e.g. 40mm, 1.5in, 20kN, 2N·m"),
+        ));
+    }
+    Ok(Quantity {
+        value,
+        unit: unit.to_string().into(),
+    })
+}
+
+/// Declares a flat query struct with every spec parameter plus `$extra`
+/// fields, and its conversion into a [`SpecRequest`].
+macro_rules! spec_query {
+    ($(#[$meta:meta])* $name:ident { $($(#[$fmeta:meta])* $extra:ident : $ety:ty,)* }) => {
+        $(#[$meta])*
+        #[derive(Debug, Clone, Default, Deserialize, IntoParams)]
+        #[serde(deny_unknown_fields)]
+        #[into_params(parameter_in = Query)]
+        pub struct $name {
+            /// Thread designation, e.g. `M10`, `M10x1.25`, `1/2-13 UNC`.
+            #[param(example = "M10")]
+            pub thread: String,
+            /// Property class or grade, e.g. `8.8`, `A2-70`.
+            #[param(example = "8.8")]
+            pub property_class: String,
+            /// Finish id from the friction catalogue.
+            pub finish: Option<String>,
+            /// Lubricant id from the friction catalogue.
+            pub lubricant: Option<String>,
+            /// One thread friction value μ_G (replaces the catalogue's).
+            pub thread_friction: Option<f64>,
+            /// Lower end of a thread friction range (with `thread_friction_max`).
+            pub thread_friction_min: Option<f64>,
+            /// Upper end of a thread friction range.
+            pub thread_friction_max: Option<f64>,
+            /// One bearing friction value μ_K (replaces the catalogue's).
+            pub bearing_friction: Option<f64>,
+            /// Lower end of a bearing friction range (with `bearing_friction_max`).
+            pub bearing_friction_min: Option<f64>,
+            /// Upper end of a bearing friction range.
+            pub bearing_friction_max: Option<f64>,
+            /// Tightening method id; default `click-wrench`.
+            pub tightening_method: Option<String>,
+            /// Tool scatter as a fraction (0.05 = ±5 %).
+            pub tool_scatter: Option<f64>,
+            /// Head type; default `hexagon-head`.
+            pub head: Option<String>,
+            /// Washer: `none` (default) or `plain`.
+            pub washer: Option<String>,
+            /// Clearance-hole series: `fine`, `medium` (default), `coarse`.
+            pub hole: Option<String>,
+            /// Explicit outer bearing diameter with unit, e.g. `16.6mm`.
+            pub bearing_outer_diameter: Option<String>,
+            /// Explicit inner bearing diameter with unit, e.g. `11mm`.
+            pub bearing_inner_diameter: Option<String>,
+            /// Utilisation ν of the minimum yield strength; default 0.9.
+            pub utilisation: Option<f64>,
+            /// Prevailing torque with unit, e.g. `2N·m`.
+            pub prevailing_torque: Option<String>,
+            /// Clamp length with unit, e.g. `40mm`.
+            pub clamp_length: Option<String>,
+            /// Clamped-part material id.
+            pub clamped_material: Option<String>,
+            /// Outer diameter of the clamped parts with unit, e.g. `30mm`.
+            pub joint_outer_diameter: Option<String>,
+            /// `through-bolted` (default) or `tapped-hole`.
+            pub joint_type: Option<String>,
+            /// Thread engagement length in a tapped hole with unit, e.g. `15mm`.
+            pub engagement_length: Option<String>,
+            /// Required minimum clamp load with unit, e.g. `15kN`.
+            pub required_clamp_load: Option<String>,
+            /// `maximum-preload` (default) or `minimum-clamp-load`.
+            pub window_mode: Option<String>,
+            /// Snug torque with unit, e.g. `10N·m`.
+            pub snug_torque: Option<String>,
+            /// Units of the response: `si` (default) or `us`.
+            pub units: Option<Units>,
+            /// Catalogue revision to answer from; default the current one.
+            pub catalogue_revision: Option<i64>,
+            $($(#[$fmeta])* pub $extra: $ety,)*
+        }
+
+        impl $name {
+            /// The equivalent full request; every problem found is returned.
+            pub fn to_request(&self) -> Result<SpecRequest, Vec<ItemError>> {
+                let mut problems = Vec::new();
+                let thread_friction = friction_from_query(
+                    "thread_friction",
+                    self.thread_friction,
+                    self.thread_friction_min,
+                    self.thread_friction_max,
+                    &mut problems,
+                );
+                let bearing_friction = friction_from_query(
+                    "bearing_friction",
+                    self.bearing_friction,
+                    self.bearing_friction_min,
+                    self.bearing_friction_max,
+                    &mut problems,
+                );
+                let mut q = |field: &str, v: &Option<String>| -> Option<Quantity> {
+                    let text = v.as_deref()?;
+                    match quantity_from_query(field, text) {
+                        Ok(q) => Some(q),
+                        Err(e) => {
+                            problems.push(e);
+                            None
+                        }
+                    }
+                };
+                let outer = q("bearing_outer_diameter", &self.bearing_outer_diameter);
+                let inner = q("bearing_inner_diameter", &self.bearing_inner_diameter);
+                let prevailing_torque = q("prevailing_torque", &self.prevailing_torque);
+                let clamp_length = q("clamp_length", &self.clamp_length);
+                let joint_outer_diameter = q("joint_outer_diameter", &self.joint_outer_diameter);
+                let engagement_length = q("engagement_length", &self.engagement_length);
+                let required_clamp_load = q("required_clamp_load", &self.required_clamp_load);
+                let snug_torque = q("snug_torque", &self.snug_torque);
+                let bearing = match (outer, inner) {
+                    (Some(outer_diameter), Some(inner_diameter)) => Some(BearingInput {
+                        outer_diameter,
+                        inner_diameter,
+                    }),
+                    (None, None) => None,
+                    (Some(_), None) => {
+                        if self.bearing_inner_diameter.is_none() {
+                            problems.push(ItemError::malformed(
+                                "bearing_inner_diameter",
+                                "give both bearing diameters or neither",
+                            ));
+                        }
+                        None
+                    }
+                    (None, Some(_)) => {
+                        if self.bearing_outer_diameter.is_none() {
+                            problems.push(ItemError::malformed(
+                                "bearing_outer_diameter",
+                                "give both bearing diameters or neither",
+                            ));
+                        }
+                        None
+                    }
+                };
+                if !problems.is_empty() {
+                    return Err(problems);
+                }
+                Ok(SpecRequest {
+                    thread: self.thread.clone(),
+                    property_class: self.property_class.clone(),
+                    finish: self.finish.clone(),
+                    lubricant: self.lubricant.clone(),
+                    thread_friction,
+                    bearing_friction,
+                    tightening_method: self.tightening_method.clone(),
+                    tool_scatter: self.tool_scatter,
+                    head: self.head.clone(),
+                    washer: self.washer.clone(),
+                    hole: self.hole.clone(),
+                    bearing,
+                    utilisation: self.utilisation,
+                    prevailing_torque,
+                    clamp_length,
+                    clamped_material: self.clamped_material.clone(),
+                    joint_outer_diameter,
+                    joint_type: self.joint_type.clone(),
+                    engagement_length,
+                    required_clamp_load,
+                    window_mode: self.window_mode.clone(),
+                    snug_torque,
+                    units: self.units,
+                    catalogue_revision: self.catalogue_revision,
+                })
+            }
+        }
+    };
+}
+
+spec_query! {
+    /// Query of `GET /v1/tightening-specs`.
+    SpecQuery {}
+}
+
+spec_query! {
+    /// Query of `GET /v1/setpoints`: the spec parameters plus the tool's
+    /// torque unit and resolution.
+    SetpointQuery {
+        /// Torque unit: `N·m` (default; also `N.m`, `Nm`, `N*m`), `lbf·ft`
+        /// (also `lbf.ft`, `lbf*ft`, `ft-lbf`) or `lbf·in` (also `lbf.in`,
+        /// `lbf*in`, `in-lbf`). The middle dot may be URL-encoded (`%C2%B7`).
+        torque_unit: Option<String>,
+        /// Tool torque resolution in `torque_unit`; default 0.1.
+        resolution: Option<f64>,
+        /// Tool angle resolution in degrees; default 1.
+        angle_resolution: Option<f64>,
+        /// Error-severity check codes to accept, separated by commas (e.g.
+        /// `surface_pressure_exceeded,thread_engagement_too_short`). While an
+        /// error check applies the setpoints are refused (422, listing the
+        /// checks) unless every one is named here.
+        accept_checks: Option<String>,
+    }
+}
+
+/// One value, or both ends of a range; anything else is refused.
+fn friction_from_query(
+    field: &str,
+    single: Option<f64>,
+    min: Option<f64>,
+    max: Option<f64>,
+    problems: &mut Vec<ItemError>,
+) -> Option<FrictionInput> {
+    match (single, min, max) {
+        (None, None, None) => None,
+        (Some(v), None, None) => Some(FrictionInput::Single(v)),
+        (None, Some(min), Some(max)) => Some(FrictionInput::Range { min, max }),
+        (Some(_), _, _) => {
+            problems.push(ItemError::malformed(
+                field,
+                format!("give either {field} or {field}_min and {field}_max, not both"),
+            ));
+            None
+        }
+        (None, Some(_), None) => {
+            problems.push(ItemError::malformed(
+                format!("{field}_max"),
+                format!("{field}_min needs {field}_max"),
+            ));
+            None
+        }
+        (None, None, Some(_)) => {
+            problems.push(ItemError::malformed(
+                format!("{field}_min"),
+                format!("{field}_max needs {field}_min"),
+            ));
+            None
+        }
+    }
+}
