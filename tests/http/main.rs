@@ -12,6 +12,7 @@ mod reference;
 mod answer_cache;
 mod auth;
 mod batch;
+mod batch_setpoints;
 mod catalogue;
 mod catalogue_cli;
 mod catalogue_instances;

@@ -1,6 +1,9 @@
 //! `POST /v1/tightening-specs/batch`: many spec requests in one, answered in
-//! order, each item a spec or a problem of its own so that one bad item
-//! does not fail the others.
+//! order, each item a spec, setpoints (`"answer": "setpoints"`, see
+//! [`item`]) or a problem of its own so that one bad item does not fail the
+//! others. A setpoint item follows the rule of `GET /v1/setpoints`: while
+//! an error check applies that it does not accept, it is a 422 problem
+//! listing the checks.
 //!
 //! The answer is streamed: items are read, computed and written a chunk at a
 //! time while the client reads, so a batch holds its raw items and one chunk
@@ -27,8 +30,11 @@ use crate::http::error::{ApiError, Problem};
 use crate::http::state::AppState;
 
 use super::handlers::{compute_one, snapshot_for};
-use super::request::SpecRequest;
 use super::response::{spec_response, SpecResponse};
+use super::setpoints::{setpoints, SetpointResponse, ToolOptions};
+
+pub mod item;
+pub use item::{read_item, Answer, BatchItemRequest, ItemRequest};
 
 /// Most items one batch may hold.
 pub const BATCH_MAX_ITEMS: usize = 10_000;
@@ -40,17 +46,18 @@ pub const CHUNK_ITEMS: usize = 32;
 /// Room for one item's JSON (a spec is about 5 KB in SI units).
 pub const ITEM_JSON_BYTES: usize = 6 * 1024;
 
-/// Body of a batch: up to 10,000 spec requests (each as the POST body).
+/// Body of a batch: up to 10,000 items, each a spec request (as the POST
+/// body) with, optionally, `"answer": "setpoints"` and the setpoint options.
 #[derive(Debug, Deserialize, ToSchema)]
 #[serde(deny_unknown_fields)]
 pub struct BatchRequest {
     /// Each item is read on its own, so a malformed one becomes that item's
     /// problem.
-    #[schema(value_type = Vec<SpecRequest>)]
+    #[schema(value_type = Vec<BatchItemRequest>)]
     pub items: Vec<Box<RawValue>>,
 }
 
-/// One result of a batch, in request order: a spec or a problem.
+/// One result of a batch, in request order: a spec, setpoints or a problem.
 #[derive(Debug, Serialize, ToSchema)]
 pub struct BatchItem {
     /// Position in the request's `items`.
@@ -59,6 +66,9 @@ pub struct BatchItem {
     pub status: u16,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub spec: Option<SpecResponse>,
+    /// For an item with `"answer": "setpoints"`.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub setpoints: Option<SetpointResponse>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub problem: Option<Problem>,
 }
@@ -74,8 +84,12 @@ pub struct BatchResponse {
     pub failed: usize,
 }
 
-/// Many specs in one request: results in the same order, each a spec or a
-/// problem object; one bad item does not fail the batch.
+/// Many specs or setpoints in one request: results in the same order, each
+/// a spec, setpoints (an item with `"answer": "setpoints"` and, optionally,
+/// `torque_unit`, `resolution`, `angle_resolution` and `accept_checks`) or a
+/// problem object; one bad item does not fail the batch. A setpoint item is
+/// refused (422, the checks listed) while an error check applies that its
+/// `accept_checks` does not name, as `GET /v1/setpoints` is.
 #[utoipa::path(
     tag = "specs",
     request_body = BatchRequest,
@@ -108,33 +122,50 @@ pub async fn post_batch(
         .streaming(stream::unfold(batch, Batch::next_chunk)))
 }
 
-/// The first `name` in backticks of a serde message ("unknown field `thred`").
-fn backticked(message: &str) -> Option<String> {
-    let rest = message.split_once('`')?.1;
-    Some(rest.split_once('`')?.0.to_string())
-}
-
-/// One raw item read as a spec request; a malformed one names its field.
-pub fn read_item(raw: &RawValue) -> Result<SpecRequest, ApiError> {
-    serde_json::from_str(raw.get()).map_err(|e| {
-        let message = e.to_string();
-        let field = backticked(&message).unwrap_or_else(|| "item".to_string());
-        ApiError::malformed(field, message)
-    })
-}
-
 fn failed(index: usize, problem: Problem) -> BatchItem {
     BatchItem {
         index,
         status: problem.status,
         spec: None,
+        setpoints: None,
         problem: Some(problem),
     }
 }
 
 /// An item read and paired with the snapshot it is answered from, or its
 /// problem.
-pub type ReadItem = (usize, Result<(SpecRequest, Arc<Snapshot>), Problem>);
+pub type ReadItem = (usize, Result<(ItemRequest, Arc<Snapshot>), Problem>);
+
+/// One item's answer: its spec, or its setpoints (or refusal).
+fn answer_item(index: usize, item: &ItemRequest, snapshot: &Snapshot, stale: bool) -> BatchItem {
+    let (resolved, spec) = match compute_one(&item.spec, snapshot) {
+        Ok(r) => r,
+        Err(e) => return failed(index, ApiError::from(e).problem()),
+    };
+    let mut out = BatchItem {
+        index,
+        status: 200,
+        spec: None,
+        setpoints: None,
+        problem: None,
+    };
+    match &item.answer {
+        Answer::Spec => out.spec = Some(spec_response(&spec, &resolved, stale)),
+        Answer::Setpoints(ask) => {
+            let tool = ToolOptions {
+                unit: ask.unit,
+                resolution: ask.resolution,
+                angle_resolution: ask.angle_resolution,
+                accept: &ask.accept,
+            };
+            match setpoints(&spec, &resolved, tool, stale) {
+                Ok(sp) => out.setpoints = Some(sp),
+                Err(e) => return failed(index, e.problem()),
+            }
+        }
+    }
+    out
+}
 
 /// Computes `items` and writes them as JSON, comma-separated; returns how
 /// many succeeded.
@@ -145,24 +176,13 @@ pub fn write_items(
 ) -> Result<usize, ApiError> {
     let mut succeeded = 0;
     for (n, (index, read)) in items.into_iter().enumerate() {
-        let computed = match read {
-            Ok((req, snapshot)) => {
-                compute_one(&req, &snapshot).map_err(|e| ApiError::from(e).problem())
-            }
-            Err(problem) => Err(problem),
-        };
-        let item = match computed {
-            Ok((resolved, spec)) => {
-                succeeded += 1;
-                BatchItem {
-                    index,
-                    status: 200,
-                    spec: Some(spec_response(&spec, &resolved, stale)),
-                    problem: None,
-                }
-            }
+        let item = match read {
+            Ok((req, snapshot)) => answer_item(index, &req, &snapshot, stale),
             Err(problem) => failed(index, problem),
         };
+        if item.status == 200 {
+            succeeded += 1;
+        }
         if n > 0 {
             out.push(b',');
         }
@@ -219,7 +239,7 @@ impl Batch {
                     continue;
                 }
             };
-            let pinned = req.catalogue_revision;
+            let pinned = req.spec.catalogue_revision;
             if !self.snapshots.contains_key(&pinned) {
                 let snapshot = snapshot_for(&self.state, pinned).await;
                 self.snapshots
