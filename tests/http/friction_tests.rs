@@ -141,6 +141,7 @@ async fn engineer_evaluates_stores_proposes_applies_and_traces_a_series(db: &Tes
         .await;
     let entry_id = p["entry_id"].as_i64().unwrap();
     let (entry, etag) = app.entry(entry_id).await;
+    let base = app.revision().await;
     assert_eq!(
         (entry["finish"].as_str(), entry["lubricant"].as_str()),
         (Some("zinc-flake"), Some("none"))
@@ -203,7 +204,7 @@ async fn engineer_evaluates_stores_proposes_applies_and_traces_a_series(db: &Tes
     assert_eq!(r.status(), StatusCode::OK);
     let applied: Value = r.json().await.unwrap();
     let revision = applied["catalogue_revision"].as_i64().unwrap();
-    assert_eq!(revision, 2);
+    assert_eq!(revision, base + 1);
     assert_eq!(
         applied["entry"]["thread_friction"],
         json!({"min": 0.11, "max": 0.128})

@@ -20,8 +20,8 @@ fn close(q: &Value, value: f64, unit: &str, tol: f64) {
 async fn m10_geometry_matches_iso_898_1_table() {
     let app = TestApp::spawn().await;
     let t = app.get_json("/v1/threads/M10").await;
-    // EN ISO 898-1 coarse-thread table as reproduced at usefastener.com
-    // ("minimum ultimate tensile loads for metric coarse pitch thread"):
+    // EN ISO 898-1 coarse-thread table as reproduced in a supplier's
+    // technical tables ("minimum ultimate tensile loads for metric coarse pitch thread"):
     // M10, P = 1.5 mm, As = 58.0 mm².
     assert_eq!(t["designation"], "M10");
     close(&t["pitch"], 1.5, "mm", 1e-9);
@@ -36,7 +36,7 @@ async fn m10_geometry_matches_iso_898_1_table() {
 async fn inch_thread_by_encoded_designation_in_us_units() {
     let app = TestApp::spawn().await;
     let t = app.get_json("/v1/threads/1%2F2-13%20UNC?units=us").await;
-    // ASTM A574 coarse-thread table (stsindustrial.com A574 technical data),
+    // ASTM A574 coarse-thread table (as reproduced in a supplier's technical tables),
     // ASME B1.1 stress area: 1/2-13 UNC As = 0.1419 in².
     assert_eq!(t["designation"], "1/2-13 UNC");
     assert_eq!(t["threads_per_inch"], 13.0);
@@ -73,7 +73,7 @@ async fn reference_responses_may_be_cached() {
 async fn property_class_8_8_strengths_per_iso_898_1() {
     let app = TestApp::spawn().await;
     let g = app.get_json("/v1/property-classes/8.8").await;
-    // EN ISO 898-1:2013 as reproduced at nfgab.se ("mechanical properties
+    // EN ISO 898-1:2013 as reproduced in a supplier's technical tables ("mechanical properties
     // screws and studs"): 8.8 d ≤ 16 mm Rm,min 800 MPa, Rp0.2 640 MPa,
     // Sp 580 MPa; d > 16 mm Rm,min 830 MPa, Rp0.2 660 MPa, Sp 600 MPa.
     let ranges = g["size_ranges"].as_array().expect("ranges");

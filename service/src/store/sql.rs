@@ -189,6 +189,9 @@ macro_rules! backend {
             let mut tx = pool.begin_with($begin).await?;
             let revision = sqlx::query_scalar::<_, i64>($lock).fetch_one(&mut *tx).await?;
             if only_if_empty && revision > 0 {
+                // release the write lock now, not when the pool next uses
+                // the connection (a migration may be about to write)
+                tx.rollback().await?;
                 return Ok(None);
             }
             let current = current_in(&mut tx, revision).await?;

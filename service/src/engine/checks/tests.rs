@@ -73,7 +73,7 @@ fn clean_joint_has_no_findings() {
 
 /// Surface pressure p = F_M,max/A_p against p_G: S235 490 MPa (VDI 2230
 /// Part 1:2003 limiting surface pressure, as reproduced by a supplier page
-/// "based on VDI 2230, edition 2003", Mastik catalogue p. 678).
+/// "based on VDI 2230, edition 2003", in its technical tables).
 #[test]
 fn surface_pressure_on_soft_steel_is_flagged() {
     let c = case();
