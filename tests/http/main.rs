@@ -19,6 +19,7 @@ mod catalogue_specs;
 mod catalogue_support;
 mod friction_tests;
 mod friction_tests_store;
+mod hydrogen;
 mod implausible;
 mod provenance;
 mod setpoints;

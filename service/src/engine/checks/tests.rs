@@ -55,6 +55,8 @@ fn input(c: &Case) -> CheckInput<'_> {
         measured_thread_friction: None,
         measured_bearing_friction: None,
         electroplated: false,
+        hot_dip_galvanized: false,
+        acid_cleaned: false,
         dry: false,
         stainless: false,
         angle: None,
@@ -127,5 +129,40 @@ fn hydrogen_caution_only_from_1000_mpa() {
     c.strength = class_8_8();
     let mut i = input(&c);
     i.electroplated = true;
+    assert!(run(&i).is_empty());
+}
+
+#[test]
+fn hot_dip_galvanized_12_9_is_an_error_and_10_9_passes() {
+    let mut c = case();
+    c.strength = strength("12.9", 1220.0, 1100.0, 970.0);
+    let mut i = input(&c);
+    i.hot_dip_galvanized = true;
+    // acid cleaning is part of galvanizing: one finding, the error
+    i.acid_cleaned = true;
+    let found = run(&i);
+    assert_eq!(codes(&found), ["hot_dip_galvanized_class_not_covered"]);
+    assert_eq!(found[0].severity, Severity::Error);
+    assert!(found[0].message.contains("ISO 10684") && found[0].message.contains("12.9"));
+    // ISO 10684 covers 10.9
+    let c = case();
+    let mut i = input(&c);
+    i.hot_dip_galvanized = true;
+    assert!(run(&i).is_empty());
+}
+
+#[test]
+fn acid_cleaned_12_9_is_a_warning_and_10_9_passes() {
+    let mut c = case();
+    c.strength = strength("12.9", 1220.0, 1100.0, 970.0);
+    let mut i = input(&c);
+    i.acid_cleaned = true;
+    let found = run(&i);
+    assert_eq!(codes(&found), ["acid_cleaning_hydrogen_risk"]);
+    assert_eq!(found[0].severity, Severity::Warning);
+    assert!(found[0].message.contains("ISO 4042"));
+    let c = case();
+    let mut i = input(&c);
+    i.acid_cleaned = true;
     assert!(run(&i).is_empty());
 }

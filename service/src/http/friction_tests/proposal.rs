@@ -227,11 +227,11 @@ fn build_for(
 }
 
 fn flags(snap: &Snapshot, entry: &FrictionEntry) -> SpecFlags {
+    let finish = snap.finish(&entry.finish).ok();
     SpecFlags {
-        electroplated: snap
-            .finish(&entry.finish)
-            .map(|f| f.electroplated)
-            .unwrap_or(false),
+        electroplated: finish.is_some_and(|f| f.electroplated),
+        hot_dip_galvanized: finish.is_some_and(|f| f.hot_dip_galvanized()),
+        acid_cleaned: finish.is_some_and(|f| f.acid_cleaned()),
         dry: snap
             .lubricant(&entry.lubricant)
             .map(|l| l.dry)
