@@ -67,6 +67,19 @@ async fn tokens_and_catalogue_import_export_from_the_command_line() {
     assert!(stdout(&o).contains("hollowmere-line-3") && !stdout(&o).contains(&secret));
     let o = tightspec(&db, &["token", "create", "--name", "x", "--role", "root"]);
     assert!(!o.status.success());
+    // an invalid name: the field and the reason, nothing written
+    let o = tightspec(
+        &db,
+        &["token", "create", "--name", "line 3!", "--role", "editor"],
+    );
+    assert!(!o.status.success());
+    let err = stderr(&o);
+    assert!(
+        err.contains("`name`") && err.contains("1–64 characters of letters, digits"),
+        "{err}"
+    );
+    assert!(!err.contains("problem(s)"), "{err}");
+    assert!(!stdout(&tightspec(&db, &["token", "list"])).contains("line 3!"));
     let o = tightspec(&db, &["token", "revoke", "hollowmere-line-3"]);
     assert!(
         o.status.success() && stdout(&o).contains("revoked"),

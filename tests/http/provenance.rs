@@ -195,6 +195,7 @@ const SERVED: &[&str] = &[
     "/v1/catalogue/revisions",
     "/v1/materials",
     "/v1/tightening-methods",
+    "/v1/bearing-types",
     "/v1/property-classes",
     "/v1/property-classes/8.8",
     "/v1/property-classes/12.9",
