@@ -32,7 +32,7 @@ fn m10_torques(f_n: f64, mu_th: f64, mu_b: f64) -> (f64, f64) {
 
 /// Hollowmere Works (demo data): ten zinc-flake M10 8.8 screws from the
 /// Kestrel K4 mower-deck joint on the torque–tension rig.
-fn demo_series() -> (Value, Vec<f64>, Vec<f64>) {
+pub(crate) fn demo_series() -> (Value, Vec<f64>, Vec<f64>) {
     let thread_mu: Vec<f64> = (0..10).map(|i| 0.11 + 0.002 * f64::from(i)).collect();
     let bearing_mu: Vec<f64> = (0..10).map(|i| 0.15 - 0.003 * f64::from(i)).collect();
     let specimens: Vec<Value> = thread_mu

@@ -18,6 +18,7 @@ mod catalogue_instances;
 mod catalogue_specs;
 mod catalogue_support;
 mod friction_tests;
+mod friction_tests_notes;
 mod friction_tests_store;
 mod hydrogen;
 mod implausible;
