@@ -65,8 +65,24 @@ pub struct SetpointResponse {
     pub cautions: Cautions,
 }
 
-fn rounding_problem(field: &str, e: RoundingError) -> ItemError {
-    ItemError::invalid(field, e.to_string())
+/// The refusal of a window that cannot be rounded, with the window in the
+/// tool's unit to two decimal places more than the resolution has.
+fn rounding_problem(field: &str, unit: &str, e: RoundingError) -> ItemError {
+    let reason = match e {
+        RoundingError::NoStepInside {
+            lower,
+            upper,
+            resolution,
+        } => {
+            let d = super::rounding::decimals(resolution) as usize + 2;
+            format!(
+                "the window {lower:.d$}–{upper:.d$} {unit} holds no multiple of the resolution \
+                 {resolution} {unit}; use a finer tool resolution"
+            )
+        }
+        other => other.to_string(),
+    };
+    ItemError::invalid(field, reason)
 }
 
 /// The setpoints of a computed spec.
@@ -83,7 +99,7 @@ pub fn setpoints(
     let w = &spec.window;
     let value = |t| Quantity::torque_in(t, unit).value;
     let rounded = round_window(value(w.lower), value(w.target), value(w.upper), res)
-        .map_err(|e| ItemErrors::from(rounding_problem("resolution", e)))?;
+        .map_err(|e| ItemErrors::from(rounding_problem("resolution", unit.symbol(), e)))?;
     let sym = unit.symbol();
     let q = |v: f64| Quantity::new(v, sym);
 
@@ -94,8 +110,9 @@ pub fn setpoints(
             AngleOutcome::Computed(a) => {
                 let lo = a.angle_min.get::<uom::si::angle::degree>();
                 let hi = a.angle_max.get::<uom::si::angle::degree>();
-                let r = round_window(lo, (lo + hi) / 2.0, hi, angle_res)
-                    .map_err(|e| ItemErrors::from(rounding_problem("angle_resolution", e)))?;
+                let r = round_window(lo, (lo + hi) / 2.0, hi, angle_res).map_err(|e| {
+                    ItemErrors::from(rounding_problem("angle_resolution", "degrees", e))
+                })?;
                 let snug = value(a.snug_torque);
                 // Nearest step, but never zero: a snug torque is always some torque.
                 let steps = (snug / res).round().max(1.0);
