@@ -195,7 +195,14 @@ macro_rules! backend {
                 return Ok(None);
             }
             let current = current_in(&mut tx, revision).await?;
-            let applied = catalogue::apply(&current, set)?;
+            let applied = match catalogue::apply(&current, set) {
+                Ok(applied) => applied,
+                Err(e) => {
+                    // a refused change releases the write lock at once
+                    tx.rollback().await?;
+                    return Err(e.into());
+                }
+            };
             write(&mut tx, set, &applied).await?;
             tx.commit().await?;
             Ok(Some(applied))
