@@ -22,7 +22,8 @@ async fn engineer_changes_an_entry_and_reads_history_diff_and_past_revision(db: 
     let app = start(&db.url, true).await;
     let editor = token(db, "hollowmere-quality", Role::Editor).await;
     let list = app.get_json("/v1/friction-entries").await;
-    assert_eq!(list["catalogue_revision"], 1);
+    let base = list["catalogue_revision"].as_i64().expect("revision");
+    assert!(base >= 1);
     assert_eq!(list["catalogue_may_be_stale"], false);
     let id = list["entries"]
         .as_array()
@@ -33,6 +34,12 @@ async fn engineer_changes_an_entry_and_reads_history_diff_and_past_revision(db: 
         .expect("seed entry zinc-electroplated + none");
     let (before, etag) = app.entry(id).await;
     assert_eq!(before["thread_friction"], json!({"min": 0.14, "max": 0.24}));
+    let history_before = app
+        .get_json(&format!("/v1/friction-entries/{id}/history"))
+        .await["history"]
+        .as_array()
+        .unwrap()
+        .len();
 
     // no If-Match → 428; a good one → 200, new revision, new ETag
     let r = app.put_thread_min(&editor, id, None, 0.12).await;
@@ -49,7 +56,7 @@ async fn engineer_changes_an_entry_and_reads_history_diff_and_past_revision(db: 
             after["catalogue_revision"].as_i64(),
             after["revision"].as_i64()
         ),
-        (Some(2), Some(2))
+        (Some(base + 1), Some(base + 1))
     );
     assert_eq!(after["thread_friction"]["min"], 0.12);
 
@@ -65,36 +72,43 @@ async fn engineer_changes_an_entry_and_reads_history_diff_and_past_revision(db: 
         .get_json(&format!("/v1/friction-entries/{id}/history"))
         .await;
     let items = h["history"].as_array().unwrap();
-    assert_eq!(items.len(), 2);
-    assert_eq!(items[1]["actor"], "hollowmere-quality");
+    assert_eq!(items.len(), history_before + 1);
+    let last = items.last().unwrap();
+    assert_eq!(last["actor"], "hollowmere-quality");
     assert_eq!(
-        items[1]["reason"],
+        last["reason"],
         "Hollowmere Works test series HW-17 (demo data)"
     );
-    assert_eq!(items[1]["before"]["thread_friction"]["min"], 0.14);
-    assert_eq!(items[1]["after"]["thread_friction"]["min"], 0.12);
+    assert_eq!(last["before"]["thread_friction"]["min"], 0.14);
+    assert_eq!(last["after"]["thread_friction"]["min"], 0.12);
 
     // revisions, one revision, diff
     let revs = app.get_json("/v1/catalogue/revisions").await;
-    assert_eq!(revs["revisions"][0]["revision"], 2);
+    assert_eq!(revs["revisions"][0]["revision"], base + 1);
     assert_eq!(revs["revisions"][0]["actor"], "hollowmere-quality");
-    let r2 = app.get_json("/v1/catalogue/revisions/2").await;
+    let r2 = app
+        .get_json(&format!("/v1/catalogue/revisions/{}", base + 1))
+        .await;
     assert_eq!(r2["changes"].as_array().unwrap().len(), 1);
     assert_eq!(r2["changes"][0]["entity_id"], id.to_string());
-    let d = app.get_json("/v1/catalogue/diff?from=1&to=2").await;
+    let d = app
+        .get_json(&format!("/v1/catalogue/diff?from={base}&to={}", base + 1))
+        .await;
     assert_eq!(d["changes"].as_array().unwrap().len(), 1);
     assert_eq!(d["changes"][0]["fields"], json!(["thread_friction"]));
 
     // the past stays readable exactly
     let old = app
-        .get_json(&format!("/v1/friction-entries/{id}?catalogue_revision=1"))
+        .get_json(&format!(
+            "/v1/friction-entries/{id}?catalogue_revision={base}"
+        ))
         .await;
     assert_eq!(old["thread_friction"]["min"], 0.14);
-    assert_eq!(old["catalogue_revision"], 1);
+    assert_eq!(old["catalogue_revision"], base);
     let old_list = app
-        .get_json("/v1/friction-entries?catalogue_revision=1")
+        .get_json(&format!("/v1/friction-entries?catalogue_revision={base}"))
         .await;
-    assert_eq!(old_list["catalogue_revision"], 1);
+    assert_eq!(old_list["catalogue_revision"], base);
     let r = app.get("/v1/friction-entries?catalogue_revision=99").await;
     assert_eq!(r.status(), StatusCode::NOT_FOUND);
 
@@ -115,7 +129,7 @@ async fn engineer_changes_an_entry_and_reads_history_diff_and_past_revision(db: 
             retired["status"].as_str(),
             retired["catalogue_revision"].as_i64()
         ),
-        (Some("retired"), Some(3))
+        (Some("retired"), Some(base + 2))
     );
 
     // create a replacement
@@ -134,13 +148,14 @@ async fn engineer_changes_an_entry_and_reads_history_diff_and_past_revision(db: 
     assert_eq!(r.status(), StatusCode::CREATED);
     assert!(r.headers().contains_key("location"));
     let created: Value = r.json().await.unwrap();
-    assert_eq!(created["catalogue_revision"], 4);
-    assert_eq!(app.revision().await, 4);
+    assert_eq!(created["catalogue_revision"], base + 3);
+    assert_eq!(app.revision().await, base + 3);
 }
 
 async fn refused_changes_are_listed_and_write_nothing(db: &TestDb) {
     let app = start(&db.url, true).await;
     let editor = token(db, "hollowmere-editor", Role::Editor).await;
+    let base = app.revision().await;
     let post = |body: Value| {
         app.client
             .post(app.url("/v1/friction-entries"))
@@ -231,16 +246,17 @@ async fn refused_changes_are_listed_and_write_nothing(db: &TestDb) {
         .send().await.unwrap();
     assert_eq!(r.status(), StatusCode::NOT_FOUND);
     // nothing was written
-    assert_eq!(app.revision().await, 1);
+    assert_eq!(app.revision().await, base);
     let revs = app.get_json("/v1/catalogue/revisions").await;
-    assert_eq!(revs["revisions"].as_array().unwrap().len(), 1);
+    assert_eq!(revs["revisions"].as_array().unwrap().len() as i64, base);
 }
 
 async fn finishes_and_lubricants_are_versioned_items(db: &TestDb) {
     let app = start(&db.url, true).await;
     let editor = token(db, "hollowmere-editor", Role::Editor).await;
     let list = app.get_json("/v1/finishes").await;
-    assert_eq!(list["catalogue_revision"], 1);
+    let base = app.revision().await;
+    assert_eq!(list["catalogue_revision"], base);
     assert!(list["finishes"]
         .as_array()
         .unwrap()
@@ -281,13 +297,13 @@ async fn finishes_and_lubricants_are_versioned_items(db: &TestDb) {
         .await
         .unwrap();
     assert_eq!(r.status(), StatusCode::UNPROCESSABLE_ENTITY);
-    assert_eq!(app.revision().await, 3);
+    assert_eq!(app.revision().await, base + 2);
 }
 
 async fn export_json_and_csv(db: &TestDb) {
     let app = start(&db.url, true).await;
     let j = app.get_json("/v1/catalogue/export?format=json").await;
-    assert_eq!(j["catalogue_revision"], 1);
+    assert_eq!(j["catalogue_revision"], app.revision().await);
     assert_eq!(j["finishes"].as_array().unwrap().len(), 8);
     let r = app.get("/v1/catalogue/export?format=csv").await;
     assert_eq!(r.status(), StatusCode::OK);
@@ -311,6 +327,13 @@ async fn fifty_concurrent_editors_one_wins_each_round(db: &TestDb) {
     let app = std::sync::Arc::new(start(&db.url, true).await);
     let editor = token(db, "hollowmere-editor", Role::Editor).await;
     let id = 7;
+    let base = app.revision().await;
+    let history_before = app
+        .get_json(&format!("/v1/friction-entries/{id}/history"))
+        .await["history"]
+        .as_array()
+        .unwrap()
+        .len();
     for round in 0..3 {
         let (body, etag) = app.entry(id).await;
         let mut tasks = Vec::new();
@@ -352,10 +375,10 @@ async fn fifty_concurrent_editors_one_wins_each_round(db: &TestDb) {
         let items = h["history"].as_array().unwrap();
         assert_eq!(
             items.len(),
-            2 + round,
+            history_before + 1 + round,
             "history holds exactly the accepted changes"
         );
         assert_eq!(items.last().unwrap()["reason"], winners[0].as_str());
     }
-    assert_eq!(app.revision().await, 4);
+    assert_eq!(app.revision().await, base + 3);
 }

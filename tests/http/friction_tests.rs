@@ -32,7 +32,7 @@ fn m10_torques(f_n: f64, mu_th: f64, mu_b: f64) -> (f64, f64) {
 
 /// Hollowmere Works (demo data): ten zinc-flake M10 8.8 screws from the
 /// Kestrel K4 mower-deck joint on the torque–tension rig.
-fn demo_series() -> (Value, Vec<f64>, Vec<f64>) {
+pub(crate) fn demo_series() -> (Value, Vec<f64>, Vec<f64>) {
     let thread_mu: Vec<f64> = (0..10).map(|i| 0.11 + 0.002 * f64::from(i)).collect();
     let bearing_mu: Vec<f64> = (0..10).map(|i| 0.15 - 0.003 * f64::from(i)).collect();
     let specimens: Vec<Value> = thread_mu
@@ -141,6 +141,7 @@ async fn engineer_evaluates_stores_proposes_applies_and_traces_a_series(db: &Tes
         .await;
     let entry_id = p["entry_id"].as_i64().unwrap();
     let (entry, etag) = app.entry(entry_id).await;
+    let base = app.revision().await;
     assert_eq!(
         (entry["finish"].as_str(), entry["lubricant"].as_str()),
         (Some("zinc-flake"), Some("none"))
@@ -203,7 +204,7 @@ async fn engineer_evaluates_stores_proposes_applies_and_traces_a_series(db: &Tes
     assert_eq!(r.status(), StatusCode::OK);
     let applied: Value = r.json().await.unwrap();
     let revision = applied["catalogue_revision"].as_i64().unwrap();
-    assert_eq!(revision, 2);
+    assert_eq!(revision, base + 1);
     assert_eq!(
         applied["entry"]["thread_friction"],
         json!({"min": 0.11, "max": 0.128})

@@ -46,6 +46,7 @@ async fn served_document_is_openapi_3_1_with_every_route() {
         "/v1/property-classes/{id}",
         "/v1/tightening-methods",
         "/v1/materials",
+        "/v1/bearing-types",
         "/v1/finishes",
         "/v1/lubricants",
         "/v1/tightening-specs",

@@ -20,8 +20,8 @@ fn close(q: &Value, value: f64, unit: &str, tol: f64) {
 async fn m10_geometry_matches_iso_898_1_table() {
     let app = TestApp::spawn().await;
     let t = app.get_json("/v1/threads/M10").await;
-    // EN ISO 898-1 coarse-thread table as reproduced at usefastener.com
-    // ("minimum ultimate tensile loads for metric coarse pitch thread"):
+    // EN ISO 898-1 coarse-thread table as reproduced in a supplier's
+    // technical tables ("minimum ultimate tensile loads for metric coarse pitch thread"):
     // M10, P = 1.5 mm, As = 58.0 mm².
     assert_eq!(t["designation"], "M10");
     close(&t["pitch"], 1.5, "mm", 1e-9);
@@ -36,7 +36,7 @@ async fn m10_geometry_matches_iso_898_1_table() {
 async fn inch_thread_by_encoded_designation_in_us_units() {
     let app = TestApp::spawn().await;
     let t = app.get_json("/v1/threads/1%2F2-13%20UNC?units=us").await;
-    // ASTM A574 coarse-thread table (stsindustrial.com A574 technical data),
+    // ASTM A574 coarse-thread table (as reproduced in a supplier's technical tables),
     // ASME B1.1 stress area: 1/2-13 UNC As = 0.1419 in².
     assert_eq!(t["designation"], "1/2-13 UNC");
     assert_eq!(t["threads_per_inch"], 13.0);
@@ -73,7 +73,7 @@ async fn reference_responses_may_be_cached() {
 async fn property_class_8_8_strengths_per_iso_898_1() {
     let app = TestApp::spawn().await;
     let g = app.get_json("/v1/property-classes/8.8").await;
-    // EN ISO 898-1:2013 as reproduced at nfgab.se ("mechanical properties
+    // EN ISO 898-1:2013 as reproduced in a supplier's technical tables ("mechanical properties
     // screws and studs"): 8.8 d ≤ 16 mm Rm,min 800 MPa, Rp0.2 640 MPa,
     // Sp 580 MPa; d > 16 mm Rm,min 830 MPa, Rp0.2 660 MPa, Sp 600 MPa.
     let ranges = g["size_ranges"].as_array().expect("ranges");
@@ -100,18 +100,80 @@ async fn property_class_8_8_strengths_per_iso_898_1() {
 #[tokio::test]
 async fn methods_and_materials_are_listed() {
     let app = TestApp::spawn().await;
+    // wrapped like `/v1/finishes`: an object holding one named list
     let m = app.get_json("/v1/tightening-methods").await;
+    assert!(m.is_object(), "{m}");
+    let m = m["tightening_methods"].clone();
+    assert!(m.as_array().is_some_and(|l| l.len() >= 5), "{m}");
     let click = find(&m, "id", "click-wrench");
     assert!(click["default_scatter"].as_f64().expect("scatter") > 0.0);
     assert_eq!(click["torque_controlled"], true);
     let angle = find(&m, "id", "torque-angle");
     assert_eq!(angle["torque_controlled"], false);
-    let mats = app.get_json("/v1/materials").await;
+    let mats = app.get_json("/v1/materials").await["materials"].clone();
+    assert!(mats.as_array().is_some_and(|l| l.len() >= 3), "{mats}");
     let steel = find(&mats, "id", "steel");
     assert_eq!(steel["elastic_modulus"]["unit"], "MPa");
-    let mats_us = app.get_json("/v1/materials?units=us").await;
+    let mats_us = app.get_json("/v1/materials?units=us").await["materials"].clone();
     assert_eq!(
         find(&mats_us, "id", "steel")["elastic_modulus"]["unit"],
         "ksi"
     );
+}
+
+#[tokio::test]
+async fn bearing_types_lists_heads_washers_and_hole_series() {
+    let app = TestApp::spawn().await;
+    let r = app.get("/v1/bearing-types").await;
+    assert_eq!(r.status(), 200);
+    assert_eq!(r.headers()["cache-control"], "public, max-age=3600");
+    let b: serde_json::Value = r.json().await.unwrap();
+    let ids = |list: &str| -> Vec<String> {
+        b[list]
+            .as_array()
+            .unwrap_or_else(|| panic!("{list} missing: {b}"))
+            .iter()
+            .map(|v| {
+                assert!(
+                    v["description"].as_str().is_some_and(|d| d.len() > 5),
+                    "{v}"
+                );
+                v["id"].as_str().unwrap().to_string()
+            })
+            .collect()
+    };
+    let heads = ids("head_types");
+    for h in [
+        "hexagon-head",
+        "socket-head",
+        "hexagon-flange",
+        "hexagon-nut",
+    ] {
+        assert!(heads.iter().any(|x| x == h), "{heads:?}");
+    }
+    assert_eq!(ids("washers"), ["none", "plain"]);
+    assert_eq!(ids("hole_series"), ["fine", "medium", "coarse"]);
+    // every listed value is accepted by the spec route
+    for head in &heads {
+        let path = if head == "heavy-hex-head" {
+            format!("/v1/tightening-specs?thread=1%2F2-13%20UNC&property_class=sae-j429-5&thread_friction=0.14&bearing_friction=0.14&head={head}")
+        } else {
+            format!("/v1/tightening-specs?thread=M12&property_class=8.8&thread_friction=0.14&bearing_friction=0.14&head={head}")
+        };
+        assert_eq!(app.get(&path).await.status(), 200, "{path}");
+    }
+    // the CLI help lists the same values
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_tightspec"))
+        .args(["spec", "--help"])
+        .output()
+        .expect("run tightspec");
+    let help = String::from_utf8_lossy(&out.stdout);
+    for id in heads
+        .iter()
+        .chain(&ids("washers"))
+        .chain(&ids("hole_series"))
+    {
+        assert!(help.contains(id.as_str()), "--help lacks {id}:\n{help}");
+    }
+    assert!(help.contains("/v1/bearing-types"), "{help}");
 }

@@ -110,7 +110,9 @@ async fn torque_unit_spellings() {
         (st, sp["torque_unit"].as_str(), sp["resolution"].as_f64()),
         (200, Some("N·m"), Some(0.1))
     );
-    assert_eq!(sp["catalogue_revision"], 1);
+    let current = json(app.get("/v1/friction-entries").await).await.1["catalogue_revision"].clone();
+    assert!(current.as_i64().is_some_and(|r| r >= 1), "{current}");
+    assert_eq!(sp["catalogue_revision"], current);
     assert!(sp.get("angle").is_none(), "torque-controlled: no angle");
 }
 
@@ -185,4 +187,50 @@ async fn errors_and_caching() {
         )
         .await;
     assert_eq!(r.status().as_u16(), 200);
+}
+
+/// A resolution coarser than the window: the refusal names `resolution` and
+/// gives the window in the tool's unit, two decimals finer than the step.
+#[tokio::test]
+async fn no_step_inside_the_window_is_told_in_the_tool_unit() {
+    let app = spawn().await;
+    let base = "thread=M6&property_class=8.8&finish=zinc-electroplated&lubricant=none";
+    for (unit, resolution, decimals) in [
+        ("lbf%C2%B7ft", "5", 2),
+        ("N%C2%B7m", "3", 2),
+        ("lbf%C2%B7in", "20", 2),
+    ] {
+        let path = format!("/v1/setpoints?{base}&torque_unit={unit}&resolution={resolution}");
+        let (st, p) = json(app.get(&path).await).await;
+        assert_eq!(
+            (st, problem_fields(&p)),
+            (422, vec!["resolution".to_string()]),
+            "{p}"
+        );
+        let reason = p["errors"][0]["reason"].as_str().unwrap();
+        let symbol = match unit {
+            "lbf%C2%B7ft" => "lbf·ft",
+            "lbf%C2%B7in" => "lbf·in",
+            _ => "N·m",
+        };
+        assert!(
+            reason.contains(&format!(
+                " {symbol} holds no multiple of the resolution {resolution} {symbol}"
+            )),
+            "{reason}"
+        );
+        // "the window a–b unit": both limits with the stated decimals
+        let window = reason
+            .trim_start_matches("the window ")
+            .split(' ')
+            .next()
+            .unwrap();
+        let limits: Vec<&str> = window.split('–').collect();
+        assert_eq!(limits.len(), 2, "{reason}");
+        for l in &limits {
+            let (_, frac) = l.split_once('.').unwrap_or_else(|| panic!("{reason}"));
+            assert_eq!(frac.len(), decimals, "{reason}");
+            assert!(l.parse::<f64>().is_ok_and(|v| v > 0.0), "{reason}");
+        }
+    }
 }

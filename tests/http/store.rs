@@ -43,44 +43,75 @@ fn update(entry: i64, expected: i64, min: f64, max: f64, seed: &Snapshot) -> Cha
 
 async fn seed_is_revision_one_and_reopening_changes_nothing(db: &TestDb) {
     let store = open(db).await;
-    assert_eq!(store.head().await.unwrap(), 1);
     let mut seed = Snapshot::seed();
     seed.normalise();
+    // a fresh database holds the seed (revision 1) and the revisions the
+    // migrations write after it, exactly as `Snapshot::seed` has them
+    let head = store.head().await.unwrap();
+    assert_eq!(head, seed.revision);
     assert_eq!(store.load_current().await.unwrap(), seed);
-    assert_eq!(store.load_at(1).await.unwrap(), seed);
+    assert_eq!(store.load_at(head).await.unwrap(), seed);
+    let mut first = Snapshot::seed_revision_1();
+    first.normalise();
+    assert_eq!(store.load_at(1).await.unwrap(), first);
     let revs = store.revisions(None, 10).await.unwrap();
-    assert_eq!(revs.len(), 1);
-    assert_eq!(revs[0].actor, "seed");
+    assert_eq!(revs.len() as i64, head);
+    let oldest = revs.last().unwrap();
+    assert_eq!((oldest.revision, oldest.actor.as_str()), (1, "seed"));
     assert_eq!(
-        revs[0].changes as usize,
+        oldest.changes as usize,
         seed.finishes.len() + seed.lubricants.len() + seed.entries.len()
     );
+    for r in &revs[..revs.len() - 1] {
+        assert_eq!(r.actor, "migration", "{r:?}");
+    }
     let h = store.history(EntityKind::FrictionEntry, "1").await.unwrap();
     assert_eq!(h.len(), 1);
     assert_eq!(h[0].action, Action::Create);
+    // an entry the provenance revision rewrote: created, then updated
+    let changed = seed
+        .entries
+        .iter()
+        .find(|e| e.revision > 1)
+        .expect("a rewritten entry");
+    let h = store
+        .history(EntityKind::FrictionEntry, &changed.id.to_string())
+        .await
+        .unwrap();
+    assert_eq!(
+        h.iter().map(|i| i.action).collect::<Vec<_>>(),
+        [Action::Create, Action::Update]
+    );
+    assert_eq!(
+        h[1].before.as_ref().unwrap()["source"],
+        first.entry(changed.id).unwrap().source
+    );
+    assert_eq!(h[1].after["source"], changed.source);
     store.close().await;
     // migrations and seeding are idempotent
     let again = open(db).await;
-    assert_eq!(again.head().await.unwrap(), 1);
-    assert_eq!(again.revisions(None, 10).await.unwrap().len(), 1);
+    assert_eq!(again.head().await.unwrap(), head);
+    assert_eq!(again.revisions(None, 10).await.unwrap().len() as i64, head);
     again.close().await;
 }
 
 async fn update_makes_one_revision_and_past_revisions_stay_readable(db: &TestDb) {
     let store = open(db).await;
     let seed = Snapshot::seed();
+    let base = store.head().await.unwrap();
+    let r7 = seed.entry(7).unwrap().revision;
     let set = ChangeSet::single(
         "hollowmere-editor",
         "test series HW-17 (demo data)",
-        update(7, 1, 0.12, 0.18, &seed),
+        update(7, r7, 0.12, 0.18, &seed),
     );
     let applied = store.apply(&set).await.unwrap();
-    assert_eq!(applied.snapshot.revision, 2);
+    assert_eq!(applied.snapshot.revision, base + 1);
     let now = store.load_current().await.unwrap();
     assert_eq!(now, applied.snapshot);
     assert_eq!(now.entry(7).unwrap().thread_friction.min, 0.12);
-    assert_eq!(now.entry(7).unwrap().revision, 2);
-    let past = store.load_at(1).await.unwrap();
+    assert_eq!(now.entry(7).unwrap().revision, base + 1);
+    let past = store.load_at(base).await.unwrap();
     assert_eq!(past.entry(7).unwrap().thread_friction.min, 0.14);
     // a batch is one revision
     let batch = ChangeSet {
@@ -92,7 +123,7 @@ async fn update_makes_one_revision_and_past_revisions_stay_readable(db: &TestDb)
                 at: "changes[0].".into(),
                 change: Change::RetireEntry {
                     id: 1,
-                    expected_revision: Some(1),
+                    expected_revision: Some(seed.entry(1).unwrap().revision),
                 },
             },
             ChangeItem {
@@ -102,8 +133,8 @@ async fn update_makes_one_revision_and_past_revisions_stay_readable(db: &TestDb)
         ],
     };
     let r3 = store.apply(&batch).await.unwrap();
-    assert_eq!(r3.snapshot.revision, 3);
-    let (info, changes) = store.revision(3).await.unwrap();
+    assert_eq!(r3.snapshot.revision, base + 2);
+    let (info, changes) = store.revision(base + 2).await.unwrap();
     assert_eq!(
         (info.actor.as_str(), info.changes, info.evidence.as_deref()),
         ("hollowmere-editor", 2, Some("friction-test:3"))
@@ -111,23 +142,26 @@ async fn update_makes_one_revision_and_past_revisions_stay_readable(db: &TestDb)
     assert_eq!(changes.len(), 2);
     assert_eq!(changes[0].action, Action::Retire);
     let h = store.history(EntityKind::FrictionEntry, "7").await.unwrap();
-    assert_eq!(h.len(), 2);
+    let last = h.last().unwrap();
     assert_eq!(
-        h[1].before.as_ref().unwrap()["thread_friction"]["min"],
+        last.before.as_ref().unwrap()["thread_friction"]["min"],
         0.14
     );
-    assert_eq!(h[1].after["thread_friction"]["min"], 0.12);
-    assert_eq!(h[1].reason, "test series HW-17 (demo data)");
+    assert_eq!(last.after["thread_friction"]["min"], 0.12);
+    assert_eq!(last.reason, "test series HW-17 (demo data)");
     assert_eq!(
-        store.load_at(2).await.unwrap().entry(1).unwrap().status,
+        store
+            .load_at(base + 1)
+            .await
+            .unwrap()
+            .entry(1)
+            .unwrap()
+            .status,
         tightspec::catalogue::Status::Active
     );
     assert!(matches!(
-        store.load_at(4).await,
-        Err(StoreError::Catalogue(CatalogueError::UnknownRevision {
-            current: 3,
-            ..
-        }))
+        store.load_at(base + 3).await,
+        Err(StoreError::Catalogue(CatalogueError::UnknownRevision { current, .. })) if current == base + 2
     ));
     assert!(matches!(
         store.load_at(0).await,
@@ -135,10 +169,10 @@ async fn update_makes_one_revision_and_past_revisions_stay_readable(db: &TestDb)
             CatalogueError::UnknownRevision { .. }
         ))
     ));
-    let revs = store.revisions(Some(3), 10).await.unwrap();
+    let revs = store.revisions(Some(base + 2), 10).await.unwrap();
     assert_eq!(
         revs.iter().map(|r| r.revision).collect::<Vec<_>>(),
-        vec![2, 1]
+        (1..=base + 1).rev().collect::<Vec<_>>()
     );
     store.close().await;
 }
@@ -148,7 +182,8 @@ async fn refused_changes_write_nothing(db: &TestDb) {
     let seed = Snapshot::seed();
     let before = store.load_current().await.unwrap();
     // stale
-    let stale = ChangeSet::single("e", "r", update(7, 5, 0.1, 0.2, &seed));
+    let base = store.head().await.unwrap();
+    let stale = ChangeSet::single("e", "r", update(7, base + 5, 0.1, 0.2, &seed));
     assert!(matches!(
         store.apply(&stale).await,
         Err(StoreError::Catalogue(CatalogueError::Stale { .. }))
@@ -161,11 +196,11 @@ async fn refused_changes_write_nothing(db: &TestDb) {
         items: vec![
             ChangeItem {
                 at: "changes[0].".into(),
-                change: update(7, 1, 0.1, 0.2, &seed),
+                change: update(7, seed.entry(7).unwrap().revision, 0.1, 0.2, &seed),
             },
             ChangeItem {
                 at: "changes[1].".into(),
-                change: update(8, 1, 0.5, 0.1, &seed),
+                change: update(8, seed.entry(8).unwrap().revision, 0.5, 0.1, &seed),
             },
         ],
     };
@@ -185,9 +220,9 @@ async fn refused_changes_write_nothing(db: &TestDb) {
         store.apply(&dup).await,
         Err(StoreError::Catalogue(CatalogueError::Invalid { .. }))
     ));
-    assert_eq!(store.head().await.unwrap(), 1);
+    assert_eq!(store.head().await.unwrap(), base);
     assert_eq!(store.load_current().await.unwrap(), before);
-    assert_eq!(store.revisions(None, 10).await.unwrap().len(), 1);
+    assert_eq!(store.revisions(None, 10).await.unwrap().len() as i64, base);
     store.close().await;
 }
 
@@ -285,7 +320,13 @@ async fn tokens_are_hashed_expire_and_revoke(db: &TestDb) {
 async fn concurrent_writers_never_lose_an_update(db: &TestDb) {
     let store = open(db).await;
     let seed = Snapshot::seed();
-    let mut expected = 1;
+    let base = store.head().await.unwrap();
+    let history_before = store
+        .history(EntityKind::FrictionEntry, "7")
+        .await
+        .unwrap()
+        .len();
+    let mut expected = seed.entry(7).unwrap().revision;
     for round in 0..3 {
         let mut tasks = Vec::new();
         for i in 0..10 {
@@ -313,10 +354,10 @@ async fn concurrent_writers_never_lose_an_update(db: &TestDb) {
         }
         assert_eq!(won, 1, "round {round}: exactly one writer wins");
         expected = store.head().await.unwrap();
-        assert_eq!(expected, 2 + round);
+        assert_eq!(expected, base + 1 + round);
     }
     let h = store.history(EntityKind::FrictionEntry, "7").await.unwrap();
-    assert_eq!(h.len(), 4, "seed + one accepted change per round");
+    assert_eq!(h.len(), history_before + 3, "one accepted change per round");
     store.close().await;
 }
 
@@ -328,18 +369,20 @@ async fn second_instance_sees_change_within_one_second(db: &TestDb) {
     tokio::time::sleep(Duration::from_millis(300)).await;
     let live_a = Live::new(a.load_current().await.unwrap());
     let seed = Snapshot::seed();
+    let base = a.head().await.unwrap();
+    let r7 = seed.entry(7).unwrap().revision;
     a.apply_live(
         &live_a,
-        &ChangeSet::single("e", "r", update(7, 1, 0.11, 0.2, &seed)),
+        &ChangeSet::single("e", "r", update(7, r7, 0.11, 0.2, &seed)),
     )
     .await
     .unwrap();
-    assert_eq!(live_a.revision(), 2);
+    assert_eq!(live_a.revision(), base + 1);
     let started = Instant::now();
-    while live_b.revision() < 2 {
+    while live_b.revision() < base + 1 {
         assert!(
             started.elapsed() < Duration::from_secs(1),
-            "second instance did not see revision 2 within 1 s"
+            "second instance did not see the new revision within 1 s"
         );
         tokio::time::sleep(Duration::from_millis(20)).await;
     }
@@ -380,11 +423,11 @@ async fn an_older_database_upgrades_in_place(db: &TestDb) {
         Store::Sqlite(p) => migrator.run(p).await.unwrap(),
     }
     old.ensure_seeded().await.unwrap();
-    let seed = Snapshot::seed();
+    let first = Snapshot::seed_revision_1();
     old.apply(&ChangeSet::single(
         "e",
         "before the upgrade",
-        update(7, 1, 0.13, 0.2, &seed),
+        update(7, 1, 0.13, 0.2, &first),
     ))
     .await
     .unwrap();
@@ -393,18 +436,26 @@ async fn an_older_database_upgrades_in_place(db: &TestDb) {
 
     // The current version opens it: pending migrations applied, data kept.
     let store = open(db).await;
-    assert_eq!(store.head().await.unwrap(), 2);
-    assert_eq!(
-        store
-            .load_current()
-            .await
-            .unwrap()
-            .entry(7)
-            .unwrap()
-            .thread_friction
-            .min,
-        0.13
-    );
+    // revision 2 was the change; the provenance migration wrote revision 3
+    // for the entries still at revision 1, and left entry 7 as changed
+    assert_eq!(store.head().await.unwrap(), 3);
+    let now = store.load_current().await.unwrap();
+    let e7 = now.entry(7).unwrap();
+    assert_eq!((e7.thread_friction.min, e7.revision), (0.13, 2));
+    assert_eq!(e7.source, first.entry(7).unwrap().source);
+    let seed = Snapshot::seed();
+    let rewritten: Vec<_> = seed
+        .entries
+        .iter()
+        .filter(|e| e.revision > 1 && e.id != 7)
+        .collect();
+    assert!(!rewritten.is_empty());
+    for e in rewritten {
+        let got = now.entry(e.id).unwrap();
+        assert_eq!((got.source.as_str(), got.revision), (e.source.as_str(), 3));
+    }
+    let (info, _) = store.revision(3).await.unwrap();
+    assert_eq!(info.actor, "migration");
     let applied: i64 = match &store {
         Store::Postgres(p) => sqlx::query_scalar("SELECT COUNT(*) FROM _sqlx_migrations")
             .fetch_one(p)

@@ -17,7 +17,7 @@ fn input(finish: &str, lubricant: &str, min: f64, max: f64) -> EntryInput {
 
 #[test]
 fn update_creates_one_revision_with_before_and_after() {
-    let seed = Snapshot::seed();
+    let seed = Snapshot::seed_revision_1();
     let id = seed.friction_for("zinc-electroplated", "none").unwrap().id;
     let set = ChangeSet::single(
         "hollowmere-editor",
@@ -43,7 +43,7 @@ fn update_creates_one_revision_with_before_and_after() {
 
 #[test]
 fn stale_expected_revision_is_412_with_current_state() {
-    let seed = Snapshot::seed();
+    let seed = Snapshot::seed_revision_1();
     let set = ChangeSet::single(
         "a",
         "r",
@@ -68,7 +68,7 @@ fn stale_expected_revision_is_412_with_current_state() {
 
 #[test]
 fn every_problem_is_listed() {
-    let seed = Snapshot::seed();
+    let seed = Snapshot::seed_revision_1();
     let mut bad = input("zinc-electroplatd", "oyl", 0.7, 0.01);
     bad.source = " ".into();
     let set = ChangeSet::single("a", "", Change::CreateEntry(bad));
@@ -96,7 +96,7 @@ fn every_problem_is_listed() {
 
 #[test]
 fn duplicate_active_key_refused_and_retire_then_create_allowed() {
-    let seed = Snapshot::seed();
+    let seed = Snapshot::seed_revision_1();
     let dup = ChangeSet::single(
         "a",
         "r",
@@ -140,7 +140,7 @@ fn duplicate_active_key_refused_and_retire_then_create_allowed() {
 
 #[test]
 fn unknown_id_single_is_not_found_batch_is_problem() {
-    let seed = Snapshot::seed();
+    let seed = Snapshot::seed_revision_1();
     let one = ChangeSet::single(
         "a",
         "r",
@@ -171,7 +171,7 @@ fn unknown_id_single_is_not_found_batch_is_problem() {
 
 #[test]
 fn identical_update_and_double_retire_refused() {
-    let seed = Snapshot::seed();
+    let seed = Snapshot::seed_revision_1();
     let e = seed.entry(1).unwrap().clone();
     let same = EntryInput {
         finish: e.finish.clone(),
@@ -223,7 +223,7 @@ fn identical_update_and_double_retire_refused() {
 
 #[test]
 fn finishes_and_lubricants_are_versioned_items() {
-    let seed = Snapshot::seed();
+    let seed = Snapshot::seed_revision_1();
     let set = ChangeSet {
         actor: "a".into(),
         reason: "Hollowmere Works own coating (demo data)".into(),

@@ -131,7 +131,7 @@ mod tests {
 
     #[test]
     fn diff_lists_changed_fields_and_additions() {
-        let seed = Snapshot::seed();
+        let seed = Snapshot::seed_revision_1();
         assert!(diff(&seed, &seed).is_empty());
         let mut e = EntryInput::from(seed.entry(7).unwrap());
         e.thread_friction.min = 0.12;

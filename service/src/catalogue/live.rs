@@ -116,12 +116,12 @@ mod tests {
 
     #[test]
     fn swap_keeps_newest_and_caches_past() {
-        let live = Live::new(Snapshot::seed());
+        let live = Live::new(Snapshot::seed_revision_1());
         assert_eq!(live.revision(), 1);
-        let mut r3 = Snapshot::seed();
+        let mut r3 = Snapshot::seed_revision_1();
         r3.revision = 3;
         assert!(live.swap(r3));
-        let mut r2 = Snapshot::seed();
+        let mut r2 = Snapshot::seed_revision_1();
         r2.revision = 2;
         assert!(
             !live.swap(r2),
@@ -130,7 +130,7 @@ mod tests {
         assert_eq!(live.revision(), 3);
         assert!(live.at(3).is_some());
         assert!(live.at(2).is_none());
-        let mut r1 = Snapshot::seed();
+        let mut r1 = Snapshot::seed_revision_1();
         r1.revision = 1;
         live.remember(Arc::new(r1));
         assert_eq!(live.at(1).map(|s| s.revision), Some(1));
@@ -141,9 +141,9 @@ mod tests {
 
     #[test]
     fn past_cache_is_bounded() {
-        let live = Live::new(Snapshot::seed());
+        let live = Live::new(Snapshot::seed_revision_1());
         for r in 2..(PAST_CACHE as i64 + 20) {
-            let mut s = Snapshot::seed();
+            let mut s = Snapshot::seed_revision_1();
             s.revision = r;
             live.remember(Arc::new(s));
         }

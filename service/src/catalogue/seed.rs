@@ -1,7 +1,10 @@
-//! Revision 1, the seed catalogue. The data lives in one file,
+//! The seed catalogue. Revision 1 lives in one file,
 //! `migrations/seed/catalogue-revision-1.json`, embedded here; the store
-//! writes exactly this snapshot as revision 1 on first start, so the
-//! in-memory seed and the database seed cannot drift apart.
+//! writes exactly this snapshot as revision 1 on first start. The
+//! migrations then write revision 2 (`catalogue-revision-2.json`: entry
+//! sources rewritten without publishers' names), which [`parse_current`]
+//! applies in memory, so a fresh database and `Snapshot::seed` agree (a
+//! black-box test compares them on both backends).
 
 use serde::Deserialize;
 
@@ -10,6 +13,29 @@ use super::Snapshot;
 
 /// The seed file, embedded at build time.
 pub const SEED_JSON: &str = include_str!("../../../migrations/seed/catalogue-revision-1.json");
+
+/// Revision 2, written by the migrations `*_provenance.sql`.
+pub const REVISION_2_JSON: &str =
+    include_str!("../../../migrations/seed/catalogue-revision-2.json");
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RevisionFile {
+    #[allow(dead_code)]
+    about: String,
+    #[allow(dead_code)]
+    actor: String,
+    #[allow(dead_code)]
+    reason: String,
+    entries: Vec<SourceChange>,
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct SourceChange {
+    id: i64,
+    source: String,
+}
 
 #[derive(Deserialize)]
 #[serde(deny_unknown_fields)]
@@ -117,6 +143,25 @@ pub(super) fn parse() -> Result<(Snapshot, String), String> {
     Ok((snapshot, file.reason))
 }
 
+/// What a fresh database holds: revision 1 with revision 2's changes.
+pub(super) fn parse_current() -> Result<Snapshot, String> {
+    let (mut snapshot, _) = parse()?;
+    let file: RevisionFile = serde_json::from_str(REVISION_2_JSON)
+        .map_err(|e| format!("seed catalogue revision 2: {e}"))?;
+    let revision = 2;
+    for change in file.entries {
+        let entry = snapshot
+            .entries
+            .iter_mut()
+            .find(|e| e.id == change.id)
+            .ok_or_else(|| format!("seed catalogue revision 2: no entry {}", change.id))?;
+        entry.source = change.source;
+        entry.revision = revision;
+    }
+    snapshot.revision = revision;
+    Ok(snapshot)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -150,12 +195,50 @@ mod tests {
     }
 
     #[test]
+    fn revision_2_changes_only_sources_and_names_no_publisher() {
+        let (first, _) = parse().expect("revision 1 parses");
+        let second = parse_current().expect("revision 2 parses");
+        assert_eq!(second.revision, 2);
+        assert_eq!(first.finishes, second.finishes);
+        assert_eq!(first.lubricants, second.lubricants);
+        let mut changed = 0;
+        for (a, b) in first.entries.iter().zip(&second.entries) {
+            assert_eq!(a.id, b.id);
+            if a.source != b.source {
+                changed += 1;
+                assert_eq!(b.revision, 2);
+                assert!(b
+                    .source
+                    .contains("as reproduced in a supplier's technical tables"));
+                assert!(!b.source.contains("://"), "{}", b.source);
+                let mut same = b.clone();
+                same.source.clone_from(&a.source);
+                same.revision = 1;
+                assert_eq!(&same, a, "only the source changes");
+            } else {
+                assert_eq!(a, b);
+            }
+        }
+        assert_eq!(changed, 7);
+        // the migrations write the same texts (both backends)
+        for sql in [
+            include_str!("../../../migrations/sqlite/20261203060000_provenance.sql"),
+            include_str!("../../../migrations/postgres/20261203060000_provenance.sql"),
+        ] {
+            for e in second.entries.iter().filter(|e| e.revision == 2) {
+                let quoted = format!("({}, '{}')", e.id, e.source.replace('\'', "''"));
+                assert!(sql.contains(&quoted), "migration lacks {quoted}");
+            }
+        }
+    }
+
+    #[test]
     fn seed_class_values_match_vdi_2230_table_a5() {
-        // VDI 2230 Part 1 (2003) Table A5 friction classes, as reproduced at
-        // amesweb.info "Friction Coefficient Values for Bolted Joints" (which
-        // names VDI 2230 Part 1 as its source): A 0.04–0.10, B 0.08–0.16,
-        // C 0.14–0.24, D 0.20–0.35.
+        // VDI 2230 Part 1 (2003) Table A5 friction classes, as reproduced in
+        // an engineering reference page that names VDI 2230 Part 1 as its
+        // source: A 0.04–0.10, B 0.08–0.16, C 0.14–0.24, D 0.20–0.35.
         let s = Snapshot::seed();
+        assert!(s.revision >= 1);
         let check = |f: &str, l: &str, min: f64, max: f64| {
             let e = s.friction_for(f, l).expect("entry");
             assert_eq!((e.thread_friction.min, e.thread_friction.max), (min, max));

@@ -18,12 +18,24 @@ pub struct Snapshot {
 }
 
 impl Snapshot {
-    /// Revision 1, the seed catalogue (see `seed.rs`).
+    /// The seed catalogue as a fresh database holds it: revision 1 with
+    /// the revisions the migrations write after it (see `seed.rs`).
     pub fn seed() -> Snapshot {
         static SEED: OnceLock<Snapshot> = OnceLock::new();
         SEED.get_or_init(|| {
-            // The embedded file is part of the build, not client or database
-            // data; `seed::tests` fails the build's tests if it is invalid.
+            // The embedded files are part of the build, not client or
+            // database data; `seed::tests` fails the build's tests if invalid.
+            #[allow(clippy::expect_used)]
+            super::seed::parse_current()
+                .expect("embedded seed catalogue is valid (checked by seed::tests)")
+        })
+        .clone()
+    }
+
+    /// Revision 1, the seed the store writes into an empty catalogue.
+    pub fn seed_revision_1() -> Snapshot {
+        static SEED: OnceLock<Snapshot> = OnceLock::new();
+        SEED.get_or_init(|| {
             #[allow(clippy::expect_used)]
             super::seed::parse()
                 .map(|(s, _)| s)

@@ -53,6 +53,26 @@ pub struct Finish {
     pub revision: i64,
 }
 
+impl Finish {
+    /// Hot-dip galvanized (ISO 10684). The catalogue has no process field:
+    /// the finish is recognised by its id or name ("hot-dip", "galvanized").
+    pub fn hot_dip_galvanized(&self) -> bool {
+        let text = format!("{} {}", self.id, self.name).to_lowercase();
+        text.contains("hot-dip") || text.contains("hot dip") || text.contains("galvani")
+    }
+
+    /// Phosphated, pickled or otherwise acid-cleaned before or during
+    /// coating, recognised by id or name ("phosphat", "pickl", "acid").
+    /// Hot-dip galvanizing pickles too, but ISO 10684 excludes the classes
+    /// concerned altogether; that check is [`Finish::hot_dip_galvanized`].
+    pub fn acid_cleaned(&self) -> bool {
+        let text = format!("{} {}", self.id, self.name).to_lowercase();
+        ["phosphat", "pickl", "acid"]
+            .iter()
+            .any(|w| text.contains(w))
+    }
+}
+
 /// A lubricant applied at assembly (or the delivered state), e.g. `mos2-paste`.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
 pub struct Lubricant {

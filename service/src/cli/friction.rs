@@ -287,11 +287,13 @@ pub fn table(a: &EvaluationResponse) -> String {
             "η"
         ),
     );
+    // numbered from 1 in test order, as on the rig sheet
     for (i, s) in a.specimens.iter().enumerate() {
         line(
             &mut out,
             format!(
-                "{i:>3} {:<14} {:>10.3} {:>10.3} {} {} {} {} {} {}  {}",
+                "{:>3} {:<14} {:>10.3} {:>10.3} {} {} {} {} {} {}  {}",
+                i + 1,
                 s.form,
                 s.clamp_force.value,
                 s.total_torque.value,
@@ -308,6 +310,12 @@ pub fn table(a: &EvaluationResponse) -> String {
             ),
         );
     }
+    line(
+        &mut out,
+        "Specimens are numbered from 1; warnings name them by position from 0 \
+         (specimens[0] is specimen 1)."
+            .into(),
+    );
     line(&mut out, String::new());
     line(
         &mut out,
@@ -423,6 +431,13 @@ mod run_tests {
         let out = run(&FrictionCommand::Evaluate(args(path.clone()))).unwrap();
         assert!(out.contains("thread_friction"), "{out}");
         assert!(out.contains("series_too_small"), "{out}");
+        // the table numbers the two specimens 1 and 2, not 0 and 1
+        let numbers: Vec<&str> = out
+            .lines()
+            .filter(|l| l.contains("25000.000"))
+            .map(|l| l.split_whitespace().next().unwrap_or(""))
+            .collect();
+        assert_eq!(numbers, ["1", "2"], "{out}");
         let mut json_args = args(path.clone());
         json_args.json = true;
         json_args.units = "us".into();

@@ -15,6 +15,7 @@ use std::sync::Arc;
 use clap::Args;
 
 use crate::catalogue::Snapshot;
+use crate::engine::bearing::{HeadType, HoleSeries, Washer};
 use crate::http::quantity::{Quantity, Units};
 use crate::http::specs::checks::error_count;
 use crate::http::specs::request::SpecQuery;
@@ -23,6 +24,13 @@ use crate::http::specs::{compute_one, ItemErrors};
 use crate::store::Store;
 
 /// Flags of `tightspec spec` (the `GET /v1/tightening-specs` parameters).
+/// Help text listing every value of a `--head`, `--washer` or `--hole`
+/// option (the same lists `/v1/bearing-types` serves).
+fn choices<T: Copy>(what: &str, all: &[T], id: fn(T) -> &'static str) -> String {
+    let ids: Vec<&str> = all.iter().map(|v| id(*v)).collect();
+    format!("{what}: {} (see GET /v1/bearing-types)", ids.join(", "))
+}
+
 #[derive(Debug, Clone, Args)]
 pub struct SpecArgs {
     /// Thread designation, e.g. M10, M10x1.25, "1/2-13 UNC".
@@ -57,11 +65,11 @@ pub struct SpecArgs {
     /// Tool scatter as a fraction (0.05 = ±5 %).
     #[arg(long)]
     pub tool_scatter: Option<f64>,
-    #[arg(long)]
+    #[arg(long, help = choices("Head type", HeadType::ALL, HeadType::id))]
     pub head: Option<String>,
-    #[arg(long)]
+    #[arg(long, help = choices("Washer", Washer::ALL, Washer::id))]
     pub washer: Option<String>,
-    #[arg(long)]
+    #[arg(long, help = choices("Clearance-hole series", HoleSeries::ALL, HoleSeries::id))]
     pub hole: Option<String>,
     /// Explicit outer bearing diameter with unit, e.g. 16.6mm.
     #[arg(long)]

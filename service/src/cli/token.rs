@@ -97,6 +97,9 @@ pub async fn run_on(store: &Store, cmd: &TokenCommand, out: &mut dyn Write) -> C
             role,
             expires,
         } => {
+            // name the field and the reason, before anything is written
+            crate::store::tokens::valid_name(name)
+                .map_err(|reason| format!("--name '{name}' (field `name`): {reason}"))?;
             let expires_at = expires
                 .as_deref()
                 .map(|e| parse_expiry(e, Utc::now()))

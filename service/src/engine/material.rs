@@ -121,7 +121,7 @@ pub struct EngagementFactor {
     pub source: String,
 }
 
-const SUPPLIER: &str = "supplier sheet of recommended minimum engagement lengths for cut internal threads, based on trials M6–M16 (mastik.pt p. 677; same sheet Bossard F-039); column mapping read from a flattened copy";
+const SUPPLIER: &str = "supplier sheet of recommended minimum engagement lengths for cut internal threads, based on trials M6–M16, as reproduced in two suppliers' technical tables; column mapping read from a flattened copy";
 
 /// Factor for (8.8 coarse, 8.8 fine, 10.9 coarse, 10.9 fine, 12.9 coarse).
 fn row_values(row: EngagementRow) -> [Option<f64>; 5] {

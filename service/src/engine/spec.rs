@@ -44,6 +44,10 @@ pub enum WindowMode {
 pub struct SpecFlags {
     /// The fastener finish is electroplated (zinc, zinc-nickel, cadmium...).
     pub electroplated: bool,
+    /// The finish is hot-dip galvanized (ISO 10684).
+    pub hot_dip_galvanized: bool,
+    /// The parts were phosphated or otherwise acid-cleaned.
+    pub acid_cleaned: bool,
     /// Assembled without lubricant.
     pub dry: bool,
     /// Friction range the data was measured in, where known.
@@ -379,6 +383,8 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         measured_thread_friction: input.flags.measured_thread_friction,
         measured_bearing_friction: input.flags.measured_bearing_friction,
         electroplated: input.flags.electroplated,
+        hot_dip_galvanized: input.flags.hot_dip_galvanized,
+        acid_cleaned: input.flags.acid_cleaned,
         dry: input.flags.dry,
         stainless: is_stainless_grade(&input.strength.id),
         angle: match &angle {

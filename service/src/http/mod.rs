@@ -15,6 +15,7 @@ pub mod metrics;
 pub mod openapi;
 pub mod quantity;
 pub mod reference;
+pub mod reference_lists;
 pub mod request_id;
 pub mod specs;
 pub mod state;

@@ -1,6 +1,7 @@
-//! Reference data from the engine's tables: threads, property classes,
-//! tightening methods, clamped materials (finishes and lubricants are
-//! catalogue items, see `http::catalogue`). Thin handlers: look up,
+//! Reference data from the engine's tables: threads and property classes
+//! here; tightening methods, clamped materials and bearing types in
+//! `reference_lists` (finishes and lubricants are catalogue items, see
+//! `http::catalogue`). Thin handlers: look up,
 //! convert to wire types, answer.
 
 use crate::http::extract::Query;
@@ -10,8 +11,6 @@ use utoipa::{IntoParams, ToSchema};
 use utoipa_actix_web::service_config::ServiceConfig;
 
 use crate::engine::grade::{self, GradeInfo};
-use crate::engine::material::{self, ClampedMaterial};
-use crate::engine::method::{MethodInfo, METHODS};
 use crate::engine::thread::{self, ThreadGeometry};
 
 use super::error::ApiError;
@@ -21,9 +20,8 @@ pub fn configure(cfg: &mut ServiceConfig) {
     cfg.service(threads)
         .service(thread_detail)
         .service(property_classes)
-        .service(property_class_detail)
-        .service(tightening_methods)
-        .service(materials);
+        .service(property_class_detail);
+    super::reference_lists::configure(cfg);
 }
 
 /// Reference data changes only with a release: clients may keep it an hour.
@@ -275,95 +273,7 @@ async fn property_class_detail(
     Ok(cached(wire_grade(g, query.units.unwrap_or_default())))
 }
 
-/// A fraction range (min, max).
-#[derive(Debug, Serialize, ToSchema)]
-pub struct Range {
-    pub min: f64,
-    pub max: f64,
-}
-
-/// A tightening method with its default tool scatter.
-#[derive(Debug, Serialize, ToSchema)]
-pub struct TighteningMethodWire {
-    /// The value of `tightening_method` in spec requests.
-    pub id: String,
-    pub name: String,
-    /// Default ±scatter of the controlled quantity (0.06 = ±6 %).
-    pub default_scatter: f64,
-    pub scatter_source: String,
-    /// VDI 2230 Part 1 Table A8 tightening factor α_A range.
-    pub tightening_factor_range: Range,
-    /// The same range as preload scatter (α_A − 1)/(α_A + 1).
-    pub preload_scatter_range: Range,
-    /// True when the tool controls torque; false when torque is only monitored.
-    pub torque_controlled: bool,
-}
-
-fn wire_method(m: &MethodInfo) -> TighteningMethodWire {
-    let (lo, hi) = m.table_a8_scatter();
-    TighteningMethodWire {
-        id: m.id.to_string(),
-        name: m.name.to_string(),
-        default_scatter: m.default_scatter,
-        scatter_source: m.scatter_source.to_string(),
-        tightening_factor_range: Range {
-            min: m.table_a8_alpha_a.0,
-            max: m.table_a8_alpha_a.1,
-        },
-        preload_scatter_range: Range { min: lo, max: hi },
-        torque_controlled: m.torque_controlled,
-    }
-}
-
-/// Tightening methods and their scatter.
-#[utoipa::path(tag = "reference", responses((status = 200, description = "Methods", body = Vec<TighteningMethodWire>)))]
-#[get("/v1/tightening-methods")]
-async fn tightening_methods() -> HttpResponse {
-    cached(METHODS.iter().map(wire_method).collect::<Vec<_>>())
-}
-
-/// A clamped-part material.
-#[derive(Debug, Serialize, ToSchema)]
-pub struct Material {
-    /// The value of `clamped_material` in spec requests.
-    pub id: String,
-    pub name: String,
-    pub elastic_modulus: Quantity,
-    /// Limiting surface pressure p_G under head or nut, where tabulated.
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub permissible_surface_pressure: Option<Quantity>,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub tensile_strength_min: Option<Quantity>,
-    pub source: String,
-}
-
-fn wire_material(m: &ClampedMaterial, units: Units) -> Material {
-    Material {
-        id: m.id.clone(),
-        name: m.name.clone(),
-        elastic_modulus: Quantity::stress(m.elastic_modulus, units),
-        permissible_surface_pressure: m
-            .permissible_surface_pressure
-            .map(|p| Quantity::stress(p, units)),
-        tensile_strength_min: m.tensile_strength_min.map(|p| Quantity::stress(p, units)),
-        source: m.source.clone(),
-    }
-}
-
-/// Clamped-part materials with modulus and limiting surface pressure.
-#[utoipa::path(tag = "reference", params(UnitsQuery), responses((status = 200, description = "Materials", body = Vec<Material>)))]
-#[get("/v1/materials")]
-async fn materials(query: Query<UnitsQuery>) -> HttpResponse {
-    let units = query.units.unwrap_or_default();
-    cached(
-        material::clamped_materials()
-            .iter()
-            .map(|m| wire_material(m, units))
-            .collect::<Vec<_>>(),
-    )
-}
-
-fn cached<T: Serialize>(body: T) -> HttpResponse {
+pub(super) fn cached<T: Serialize>(body: T) -> HttpResponse {
     HttpResponse::Ok()
         .insert_header((actix_web::http::header::CACHE_CONTROL, CACHE_CONTROL))
         .json(body)

@@ -84,7 +84,6 @@ impl Store {
     pub async fn open(url: Option<&str>) -> Result<Store, StoreError> {
         let store = Store::connect(url).await?;
         store.migrate().await?;
-        store.ensure_seeded().await?;
         Ok(store)
     }
 
@@ -138,9 +137,17 @@ impl Store {
         }
     }
 
-    /// Applies pending migrations (idempotent; an older database upgrades
-    /// in place).
+    /// Applies pending migrations and writes the seed (idempotent; an
+    /// older database upgrades in place). The schema migrations before
+    /// [`FIRST_CATALOGUE_MIGRATION`] run first, then the seed is written as
+    /// revision 1 into an empty catalogue, then the rest, which may write
+    /// later catalogue revisions on top of it.
     pub async fn migrate(&self) -> Result<(), StoreError> {
+        match self {
+            Store::Postgres(p) => schema_only(&pg::MIGRATOR).run(p).await?,
+            Store::Sqlite(p) => schema_only(&sqlite::MIGRATOR).run(p).await?,
+        }
+        self.ensure_seeded().await?;
         match self {
             Store::Postgres(p) => pg::MIGRATOR.run(p).await?,
             Store::Sqlite(p) => sqlite::MIGRATOR.run(p).await?,
@@ -151,13 +158,16 @@ impl Store {
     /// Writes the seed catalogue as revision 1 when the catalogue is empty.
     /// Safe when several instances start at once (the head row is locked).
     pub async fn ensure_seeded(&self) -> Result<(), StoreError> {
+        if self.head().await? > 0 {
+            return Ok(());
+        }
         let set = seed_change_set();
         let applied = match self {
             Store::Postgres(p) => pg::apply(p, &set, true).await?,
             Store::Sqlite(p) => sqlite::apply(p, &set, true).await?,
         };
         if let Some(applied) = applied {
-            let mut expected = Snapshot::seed();
+            let mut expected = Snapshot::seed_revision_1();
             expected.normalise();
             if applied.snapshot != expected {
                 return Err(StoreError::Internal(
@@ -321,10 +331,32 @@ impl Store {
     }
 }
 
+/// The first migration that writes a catalogue revision (the seed must be
+/// there before it runs); the later migrations of both backends may too.
+pub const FIRST_CATALOGUE_MIGRATION: i64 = 20261203060000;
+
+/// The migrations before [`FIRST_CATALOGUE_MIGRATION`]. Later ones already
+/// applied are left alone (`ignore_missing`); the full migrator runs them
+/// after the seed. The fields are set directly because sqlx offers no
+/// constructor from a list of migrations.
+fn schema_only(all: &sqlx::migrate::Migrator) -> sqlx::migrate::Migrator {
+    let migrations: Vec<sqlx::migrate::Migration> = all
+        .iter()
+        .filter(|m| m.version < FIRST_CATALOGUE_MIGRATION)
+        .cloned()
+        .collect();
+    sqlx::migrate::Migrator {
+        migrations: std::borrow::Cow::Owned(migrations),
+        ignore_missing: true,
+        locking: all.locking,
+        no_tx: all.no_tx,
+    }
+}
+
 /// The seed catalogue as a batch of creations, in the seed file's order so
 /// the entries get the seed's ids.
 pub fn seed_change_set() -> ChangeSet {
-    let seed = Snapshot::seed();
+    let seed = Snapshot::seed_revision_1();
     let mut items = Vec::new();
     for (i, f) in seed.finishes.iter().enumerate() {
         items.push(ChangeItem {

@@ -189,10 +189,20 @@ macro_rules! backend {
             let mut tx = pool.begin_with($begin).await?;
             let revision = sqlx::query_scalar::<_, i64>($lock).fetch_one(&mut *tx).await?;
             if only_if_empty && revision > 0 {
+                // release the write lock now, not when the pool next uses
+                // the connection (a migration may be about to write)
+                tx.rollback().await?;
                 return Ok(None);
             }
             let current = current_in(&mut tx, revision).await?;
-            let applied = catalogue::apply(&current, set)?;
+            let applied = match catalogue::apply(&current, set) {
+                Ok(applied) => applied,
+                Err(e) => {
+                    // a refused change releases the write lock at once
+                    tx.rollback().await?;
+                    return Err(e.into());
+                }
+            };
             write(&mut tx, set, &applied).await?;
             tx.commit().await?;
             Ok(Some(applied))

@@ -3,7 +3,7 @@
 //! reproduction are marked "recalled from memory" (see `MEM_FROM`).
 
 /// ISO 273 clearance holes: (d, fine, medium, coarse), mm. M3–M16 as
-/// reproduced by engineeringhardware.com ("conform to ISO 273"); the other
+/// reproduced in a supplier's technical tables ("conform to ISO 273"); the other
 /// rows are recalled from memory.
 pub(crate) static ISO273: &[(f64, f64, f64, f64)] = &[
     (1.6, 1.7, 1.8, 2.0),
@@ -45,7 +45,7 @@ pub(crate) fn iso273_published(d: f64) -> bool {
 
 /// Hexagon head (ISO 4014 / ISO 4017) and hexagon nut (ISO 4032):
 /// (d, s, d_w,min product grade A, d_w,min product grade B), mm; 0 = not
-/// tabulated. M3–M10 d_w: a manufacturer's ISO 4017 table (shiyongjun.net);
+/// tabulated. M3–M10 d_w: a manufacturer's ISO 4017 table (as reproduced in a supplier's technical tables);
 /// M12 and above, and M1.6–M2.5, recalled from memory (grade A M12–M24
 /// agrees with VDI 2230-based torque tables back-calculated).
 pub(crate) static ISO4017: &[(f64, f64, f64, f64)] = &[
@@ -78,7 +78,7 @@ pub(crate) fn iso4017_published(d: f64) -> bool {
 }
 
 /// Socket head cap screws ISO 4762: (d, d_k,max, d_w,min), mm. d_k,max as
-/// reproduced at codecupboard.com; d_w,min recalled from memory.
+/// reproduced in an engineering reference table; d_w,min recalled from memory.
 pub(crate) static ISO4762: &[(f64, f64, f64)] = &[
     (3.0, 5.5, 5.07),
     (4.0, 7.0, 6.53),
@@ -163,7 +163,7 @@ pub(crate) static B18_2_8: &[(f64, f64, f64, f64)] = &[
 ];
 
 /// ASME B18.2.1 hex cap screws: (D, width across flats F min), inches, as
-/// reproduced at astma193gradeb7.com and usefastener.com. Bearing face is
+/// reproduced in two suppliers' technical tables. Bearing face is
 /// taken as F min (assumption: B18.2.1's washer-face diameter is about F
 /// min, recalled from memory; the reproductions do not print it).
 pub(crate) static B18_2_1_HEX: &[(f64, f64)] = &[
@@ -183,8 +183,8 @@ pub(crate) static B18_2_1_HEX: &[(f64, f64)] = &[
     (1.5, 2.175),
 ];
 
-/// ASME B18.2.1 heavy hex screws: (D, F min), inches, as reproduced at
-/// astmf468.com; bearing face taken as F min (same assumption).
+/// ASME B18.2.1 heavy hex screws: (D, F min), inches, as reproduced in
+/// a supplier's technical tables; bearing face taken as F min (same assumption).
 pub(crate) static B18_2_1_HEAVY: &[(f64, f64)] = &[
     (0.375, 0.669),
     (0.5, 0.850),

@@ -12,8 +12,8 @@ fn mm(l: Length) -> f64 {
 #[test]
 fn m12_hexagon_head_medium_hole() {
     // D_Km = (16.63 + 13.5)/2: ISO 4017 product grade A d_w,min 16.63 mm
-    // (recalled from memory) and ISO 273 medium 13.5 mm (engineeringhardware.com,
-    // "conform to ISO 273").
+    // (recalled from memory) and ISO 273 medium 13.5 mm (as reproduced in a
+    // supplier's technical tables, "conform to ISO 273").
     let b = bearing_surface(
         &thread("M12"),
         HeadType::HexagonHead,
@@ -27,7 +27,7 @@ fn m12_hexagon_head_medium_hole() {
 
 #[test]
 fn published_rows() {
-    // ISO 273 fine/medium/coarse (engineeringhardware.com, ISO 273).
+    // ISO 273 fine/medium/coarse (as reproduced in a supplier's technical tables).
     let t = thread("M8");
     let holes: Vec<f64> = HoleSeries::ALL
         .iter()
@@ -79,7 +79,7 @@ fn inch_bearing() {
     let t = thread("1/2-13 UNC");
     let b =
         bearing_surface(&t, HeadType::HexagonHead, Washer::None, HoleSeries::Medium).expect("row");
-    // ASME B18.2.1 F min 0.736 in (astma193gradeb7.com reproduction).
+    // ASME B18.2.1 F min 0.736 in (as reproduced in a supplier's technical tables).
     assert!((b.outer_diameter.get::<inch>() - 0.736).abs() < 1e-9);
     assert!(b.source.contains("assumption"));
     assert!(bearing_surface(&t, HeadType::SocketHead, Washer::Plain, HoleSeries::Fine).is_ok());

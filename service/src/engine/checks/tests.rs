@@ -55,6 +55,8 @@ fn input(c: &Case) -> CheckInput<'_> {
         measured_thread_friction: None,
         measured_bearing_friction: None,
         electroplated: false,
+        hot_dip_galvanized: false,
+        acid_cleaned: false,
         dry: false,
         stainless: false,
         angle: None,
@@ -73,7 +75,7 @@ fn clean_joint_has_no_findings() {
 
 /// Surface pressure p = F_M,max/A_p against p_G: S235 490 MPa (VDI 2230
 /// Part 1:2003 limiting surface pressure, as reproduced by a supplier page
-/// "based on VDI 2230, edition 2003", Mastik catalogue p. 678).
+/// "based on VDI 2230, edition 2003", in its technical tables).
 #[test]
 fn surface_pressure_on_soft_steel_is_flagged() {
     let c = case();
@@ -164,4 +166,39 @@ fn tool_window_warns_below_two_steps_and_refuses_one_value() {
     );
     assert!(tool_window(7.6, 9.6, (8.0, 9.0, 9.0), 1.0, "lbf·ft").is_none());
     assert!(tool_window(36.0, 39.5, (36.0, 37.5, 39.5), 0.5, "N·m").is_none());
+}
+
+#[test]
+fn hot_dip_galvanized_12_9_is_an_error_and_10_9_passes() {
+    let mut c = case();
+    c.strength = strength("12.9", 1220.0, 1100.0, 970.0);
+    let mut i = input(&c);
+    i.hot_dip_galvanized = true;
+    // acid cleaning is part of galvanizing: one finding, the error
+    i.acid_cleaned = true;
+    let found = run(&i);
+    assert_eq!(codes(&found), ["hot_dip_galvanized_class_not_covered"]);
+    assert_eq!(found[0].severity, Severity::Error);
+    assert!(found[0].message.contains("ISO 10684") && found[0].message.contains("12.9"));
+    // ISO 10684 covers 10.9
+    let c = case();
+    let mut i = input(&c);
+    i.hot_dip_galvanized = true;
+    assert!(run(&i).is_empty());
+}
+
+#[test]
+fn acid_cleaned_12_9_is_a_warning_and_10_9_passes() {
+    let mut c = case();
+    c.strength = strength("12.9", 1220.0, 1100.0, 970.0);
+    let mut i = input(&c);
+    i.acid_cleaned = true;
+    let found = run(&i);
+    assert_eq!(codes(&found), ["acid_cleaning_hydrogen_risk"]);
+    assert_eq!(found[0].severity, Severity::Warning);
+    assert!(found[0].message.contains("ISO 4042"));
+    let c = case();
+    let mut i = input(&c);
+    i.acid_cleaned = true;
+    assert!(run(&i).is_empty());
 }

@@ -49,7 +49,7 @@ const fn r(
 
 // ISO 898-1:2013 covers coarse threads M1.6 to M39 (scope, recalled from
 // memory). Values: ISO 898-1:2013 mechanical properties table, as
-// reproduced by nfgab.se and usefastener.com (EN ISO 898-1).
+// reproduced in two suppliers' technical tables (EN ISO 898-1).
 const ISO898: &str = "ISO 898-1:2013, mechanical properties of bolts, screws and studs";
 const ALL_ISO898: &str = "M1.6 to M39";
 const ISO898_SPLIT_NOTE: &str =
@@ -64,13 +64,13 @@ const ISO3506: &str = "ISO 3506-1:2009, austenitic stainless steel bolts";
 const STAINLESS_NOTE: &str =
     "ISO 3506-1 specifies no proof stress for bolts; the proof stress shown is Rp0.2 min";
 
-// SAE J429, as reproduced by china-bolts.com and the Shigley tables at
-// mst.edu (grades 2, 5, 8; psi).
+// SAE J429, as reproduced in a supplier's technical tables and in the
+// tables of Shigley's Mechanical Engineering Design (grades 2, 5, 8; psi).
 const J429: &str = "SAE J429, mechanical requirements for inch bolts, screws and studs";
 const GRADE2_NOTE: &str = "Grade 2 values for 1/4 to 3/4 in apply to bolts 6 in and shorter and to studs; longer bolts take Grade 1 values (SAE J429)";
 
-// ASTM A574 socket head cap screws, as reproduced by stsindustrial.com and
-// boltingspecialist.com (ksi given as psi). Yield: machined specimen 0.2 %
+// ASTM A574 socket head cap screws, as reproduced in two suppliers'
+// technical tables (ksi given as psi). Yield: machined specimen 0.2 %
 // offset. Size coverage #0 to 4 in (recalled from memory).
 const A574: &str = "ASTM A574, alloy steel socket head cap screws";
 

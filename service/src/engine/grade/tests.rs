@@ -24,8 +24,8 @@ fn sig3(x: f64) -> f64 {
 #[test]
 fn iso_898_1_proof_loads_8_8_10_9_12_9_m3_to_m39() {
     // ISO 898-1 proof loads Fp = As,nom × Sp (N), coarse thread, as reproduced
-    // by supplier tables of EN ISO 898-1 (optimas.com "ISO metric thread
-    // proof loads", M3–M27; slsbearings.com agrees). M30–M39: ISO 898-1
+    // by supplier tables of EN ISO 898-1 ("ISO metric thread proof loads",
+    // M3–M27; a second supplier's table agrees). M30–M39: ISO 898-1
     // values recalled from memory. The printed loads follow no single
     // rounding rule, so each is checked within ±0.5 % of As,nom × Sp, and
     // exactly where the printed value equals As,nom × Sp at 3 s.f.
@@ -81,7 +81,7 @@ fn iso_898_1_proof_loads_8_8_10_9_12_9_m3_to_m39() {
 
 #[test]
 fn iso_898_1_values_and_the_16_mm_switch() {
-    // ISO 898-1:2013 (nfgab.se / usefastener.com reproductions).
+    // ISO 898-1:2013, as reproduced in two suppliers' technical tables.
     let small = strength("8.8", "M16");
     assert_eq!(mpa(small.yield_strength_min), 640.0);
     assert_eq!(mpa(small.proof_stress), 580.0);
@@ -161,7 +161,8 @@ fn grade_and_thread_form_must_match() {
 
 #[test]
 fn sae_j429_strengths() {
-    // SAE J429 (china-bolts.com reproduction; Shigley tables at mst.edu).
+    // SAE J429, as reproduced in a supplier's technical tables and in the
+    // tables of Shigley's Mechanical Engineering Design.
     let cases = [
         ("sae-j429-2", "1/2-13", 55_000.0, 57_000.0, 74_000.0),
         ("sae-j429-2", "7/8-9", 33_000.0, 36_000.0, 60_000.0),
@@ -179,8 +180,8 @@ fn sae_j429_strengths() {
 
 #[test]
 fn astm_a574_proof_loads() {
-    // ASTM A574 coarse-thread proof loads (lbf), stsindustrial.com
-    // "ASTM A574 technical data" (same table at boltingspecialist.com).
+    // ASTM A574 coarse-thread proof loads (lbf), as reproduced in a
+    // supplier's technical tables (a second supplier prints the same table).
     // Printed loads are 3 s.f. of As × Sp; checked within 0.5 %.
     let table = [
         ("#10-24", 2450.0),

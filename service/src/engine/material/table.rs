@@ -4,8 +4,8 @@
 //! steel (recalled from memory); the other moduli are typical handbook
 //! values, recalled from memory. Limiting surface pressure p_G and the Rm
 //! beside it: VDI 2230 Part 1:2003, Table A9 (table number recalled from
-//! memory), as reproduced by a supplier catalogue page (mastik.pt p. 678,
-//! "based on VDI 2230, edition 2003"); values that page marks "not yet
+//! memory), as reproduced in a supplier's technical tables ("based on VDI 2230,
+//! edition 2003"); values that page marks "not yet
 //! checked against latest research" carry that note.
 
 /// Which row of the supplier engagement table a material reads.
@@ -38,8 +38,8 @@ pub(crate) struct RawMaterial {
     pub row_is_listed: bool,
 }
 
-const VDI2003: &str = "E: VDI 2230 Part 1 steel value 205 000 MPa (recalled from memory); p_G and Rm: VDI 2230 Part 1:2003 Table A9 (table number recalled from memory), as reproduced by mastik.pt p. 678";
-const VDI2003_UNCHECKED: &str = "E: typical value (recalled from memory); p_G and Rm: VDI 2230 Part 1:2003 Table A9 (table number recalled from memory), as reproduced by mastik.pt p. 678, marked there 'not yet checked against latest research'";
+const VDI2003: &str = "E: VDI 2230 Part 1 steel value 205 000 MPa (recalled from memory); p_G and Rm: VDI 2230 Part 1:2003 Table A9 (table number recalled from memory), as reproduced in a supplier's technical tables";
+const VDI2003_UNCHECKED: &str = "E: typical value (recalled from memory); p_G and Rm: VDI 2230 Part 1:2003 Table A9 (table number recalled from memory), as reproduced in a supplier's technical tables, marked there 'not yet checked against latest research'";
 
 pub(crate) static MATERIALS: &[RawMaterial] = &[
     RawMaterial {
@@ -93,7 +93,7 @@ pub(crate) static MATERIALS: &[RawMaterial] = &[
         e: 205_000.0,
         p_g: Some(630.0),
         rm: Some(700.0),
-        source: "E: VDI 2230 Part 1 steel value 205 000 MPa (recalled from memory); p_G 630 MPa and Rm 700 MPa: VDI 2230 Part 1:2003 Table A9 (table number recalled from memory), as reproduced by mastik.pt p. 678, marked 'not yet checked against latest research'",
+        source: "E: VDI 2230 Part 1 steel value 205 000 MPa (recalled from memory); p_G 630 MPa and Rm 700 MPa: VDI 2230 Part 1:2003 Table A9 (table number recalled from memory), as reproduced in a supplier's technical tables, marked 'not yet checked against latest research'",
         row: EngagementRow::StructuralSteel,
         row_is_listed: false,
     },
@@ -104,7 +104,7 @@ pub(crate) static MATERIALS: &[RawMaterial] = &[
         e: 205_000.0,
         p_g: Some(850.0),
         rm: Some(1000.0),
-        source: "E: VDI 2230 Part 1 steel value 205 000 MPa (recalled from memory); p_G 850 MPa and Rm 1000 MPa: VDI 2230:1986 limiting values (the 2003 table reproduced has no 42CrMo4 row), as reproduced by mastik.pt p. 678 and thyssenkrupp-rotheerde.com",
+        source: "E: VDI 2230 Part 1 steel value 205 000 MPa (recalled from memory); p_G 850 MPa and Rm 1000 MPa: VDI 2230:1986 limiting values (the 2003 table reproduced has no 42CrMo4 row), as reproduced in a supplier's technical tables and a bearing maker's design guide",
         row: EngagementRow::QuenchedTempered,
         row_is_listed: true,
     },
@@ -115,7 +115,7 @@ pub(crate) static MATERIALS: &[RawMaterial] = &[
         e: 110_000.0,
         p_g: Some(900.0),
         rm: Some(250.0),
-        source: "E 110 000 MPa: typical for EN-GJL-250 (recalled from memory); p_G and Rm: VDI 2230 Part 1:2003 Table A9 (table number recalled from memory), as reproduced by mastik.pt p. 678",
+        source: "E 110 000 MPa: typical for EN-GJL-250 (recalled from memory); p_G and Rm: VDI 2230 Part 1:2003 Table A9 (table number recalled from memory), as reproduced in a supplier's technical tables",
         row: EngagementRow::GreyCastIron,
         row_is_listed: true,
     },

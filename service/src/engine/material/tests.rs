@@ -16,7 +16,7 @@ fn factor(material: &str, grade: &str, thread: &str) -> EngagementFactor {
 #[test]
 fn surface_pressure_values() {
     // VDI 2230 Part 1:2003 limiting surface pressure (table number recalled
-    // from memory), as reproduced by mastik.pt p. 678.
+    // from memory), as reproduced in a supplier's technical tables.
     let cases = [
         ("S235", 490.0),
         ("steel-s355", 760.0),
@@ -76,8 +76,8 @@ fn unknown_material_suggests() {
 
 #[test]
 fn engagement_factors_from_the_supplier_sheet() {
-    // Supplier sheet of minimum engagement lengths from trials (mastik.pt
-    // p. 677 / Bossard F-039): S235 8.8 coarse 1.0·d, 10.9 coarse 1.25·d,
+    // Supplier sheet of minimum engagement lengths from trials (as
+    // reproduced in two suppliers' technical tables): S235 8.8 coarse 1.0·d, 10.9 coarse 1.25·d,
     // 12.9 1.4·d; S355 8.8 coarse 0.9·d (below the 1·d common-practice
     // floor, so 1·d); Q+T 10.9 coarse 0.9 → 1·d; GJL-250 8.8 fine 1.25·d;
     // aluminium 8.8 coarse 2·d.

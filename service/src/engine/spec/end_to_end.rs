@@ -56,7 +56,7 @@ fn input(designation: &str, class: &str) -> SpecInput {
 
 /// With single friction values and s = 0: torque.upper = VDI M_A and
 /// preload.max = F_M,zul (issue 2). Published anchor for the preload: M12 8.8
-/// μ 0.14 → 41.9 kN (supplier table based on VDI 2230 Part 1:2015, Bossard).
+/// μ 0.14 → 41.9 kN (VDI 2230 Part 1:2015, as reproduced in a supplier's technical tables).
 #[test]
 fn m10_and_m12_end_to_end() {
     let spec = compute(&input("M10", "8.8")).unwrap();
@@ -98,8 +98,8 @@ fn short_engagement_in_aluminium_is_flagged() {
     let spec = compute(&i).unwrap();
     let codes: Vec<_> = spec.checks.iter().map(|c| c.code).collect();
     assert!(codes.contains(&"thread_engagement_too_short"), "{codes:?}");
-    // p_G of GD-AlSi9Cu3 is 290 MPa (VDI 2230:2003 based supplier table,
-    // Mastik p. 678): an 8.8 hexagon head at full preload exceeds it.
+    // p_G of GD-AlSi9Cu3 is 290 MPa (VDI 2230:2003, as reproduced in a
+    // supplier's technical tables): an 8.8 hexagon head at full preload exceeds it.
     assert!(codes.contains(&"surface_pressure_exceeded"), "{codes:?}");
 }
 

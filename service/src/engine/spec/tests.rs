@@ -14,7 +14,7 @@ fn steel() -> ClampedMaterial {
         id: "test-steel".into(),
         name: "steel (test fixture)".into(),
         // E = 205 000 N/mm² (usual VDI 2230 value, recalled from memory);
-        // p_G of S355J0 760 MPa (VDI 2230:2003 based supplier table, Mastik p. 678).
+        // p_G of S355J0 760 MPa (VDI 2230:2003, as reproduced in a supplier's technical tables).
         elastic_modulus: mpa(205_000.0),
         permissible_surface_pressure: Some(mpa(760.0)),
         tensile_strength_min: Some(mpa(510.0)),

@@ -23,8 +23,8 @@ fn round_sig(x: f64, sig: i32) -> f64 {
 #[test]
 fn iso_898_1_nominal_stress_areas_coarse_m3_to_m39() {
     // ISO 898-1 nominal stress areas As,nom (mm²), as reproduced by supplier
-    // tables of EN ISO 898-1 (usefastener.com "minimum ultimate tensile loads
-    // for metric coarse pitch thread EN ISO 898-1"; same at slsbearings.com).
+    // tables of EN ISO 898-1 ("minimum ultimate tensile loads for metric coarse
+    // pitch thread EN ISO 898-1"; a second supplier's table agrees).
     // Printed to 3 significant figures (M3–M8 to 2 decimals below 10 mm²).
     let table: &[(&str, f64, i32)] = &[
         ("M3", 5.03, 3),
@@ -59,8 +59,9 @@ fn iso_898_1_nominal_stress_areas_coarse_m3_to_m39() {
 #[test]
 fn asme_b1_1_tensile_stress_areas_within_half_percent() {
     // ASME B1.1 tensile stress areas (in²), printed values: UNC from the
-    // ASTM A574 data table (stsindustrial.com, per Handbook H-28), UNF from
-    // the ASME B1.1 table reproduced at boltport.com/threads/unf.
+    // ASTM A574 data table as reproduced in a supplier's technical tables (per
+    // Handbook H-28), UNF from the ASME B1.1 table as reproduced in another
+    // supplier's technical tables.
     let table: &[(&str, f64)] = &[
         ("1/4-20 UNC", 0.0318),
         ("5/16-18 UNC", 0.0524),

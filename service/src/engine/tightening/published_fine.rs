@@ -4,8 +4,8 @@
 //! Source: supplier catalogue table "Approximate values for metric fine
 //! threads, preload and tightening torques", stated to be based on VDI 2230
 //! (2001/2003 edition), property classes 8.8/10.9/12.9 to ISO 898-1, 90 %
-//! utilisation of Rp0.2, μ_ges = μ_G = μ_K (Mastik catalogue p. 685,
-//! https://www.mastik.pt/wa_files/files/basic-html/page685.html).
+//! utilisation of Rp0.2, μ_ges = μ_G = μ_K (as reproduced in a supplier's
+//! technical tables).
 //! Head and hole: hexagon head ISO 4017 product grade A d_w,min, ISO 273 medium
 //! clearance hole (the basis such tables use; see the coarse-thread check in
 //! `tests.rs`). Tolerances from the issue: preload within 1 %, torque within 2 %.

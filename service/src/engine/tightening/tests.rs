@@ -17,9 +17,9 @@ fn zero() -> Torque {
 }
 
 /// Published anchor: M12 8.8, μ_G = μ_K = 0.14, ν = 0.9 → F_M = 41.9 kN.
-/// Source: supplier reference table based on VDI 2230 Part 1:2015 (Bossard,
-/// "Preload and tightening torques, approximate values for metric coarse
-/// threads VDI 2230" and its worked example "how to use reference values").
+/// Source: VDI 2230 Part 1:2015, as reproduced in a supplier's technical
+/// tables ("preload and tightening torques, approximate values for metric
+/// coarse threads" and the worked example beside them).
 /// Geometry: ISO 4017 grade A d_w,min 16.63 mm (recalled from memory, confirmed
 /// indirectly by the same tables), ISO 273 medium hole 13.5 mm.
 #[test]
@@ -32,8 +32,8 @@ fn m12_8_8_preload_matches_vdi_2230_supplier_table() {
 
 /// ISO 3506-1 A2/A4 classes 50/70/80 (Rp0.2 = 210/450/600 MPa), ν = 0.9,
 /// μ_G = μ_K = μ: preload (kN) and torque (N·m) from a supplier catalogue
-/// table "based on VDI 2230" (Mastik catalogue p. 686,
-/// https://www.mastik.pt/wa_files/files/basic-html/page686.html).
+/// table "based on VDI 2230", as reproduced in a supplier's technical
+/// tables.
 /// The printed preloads look truncated, not rounded, so the computed value
 /// must lie below the printed value plus one unit of its last digit, and no
 /// lower than −1 % (or one printed unit where 0.1 kN is coarser than 1 %, as

@@ -85,6 +85,9 @@ pub struct ProposalResponse {
     pub changes: Vec<RangeChange>,
     /// The `source` the entry would carry after the change.
     pub proposed_source: String,
+    /// The `notes` the entry would carry after the change: the earlier
+    /// notes described the earlier values (they stay in the history).
+    pub proposed_notes: String,
     pub effect: Vec<SpecEffect>,
     pub cautions: Vec<String>,
 }
@@ -93,6 +96,31 @@ pub struct ProposalResponse {
 pub struct Proposed {
     pub response: ProposalResponse,
     pub entry: EntryInput,
+}
+
+/// Notes for an entry changed by a series: which ranges it measured and
+/// which were kept, never the earlier notes about where values came from.
+fn proposed_notes(series_id: i64, changes: &[&RangeChange]) -> String {
+    let names = |changed: bool| {
+        changes
+            .iter()
+            .filter(|c| c.changed == changed && (changed || c.current.is_some()))
+            .map(|c| c.coefficient.replace('_', " "))
+            .collect::<Vec<_>>()
+    };
+    let (measured, kept) = (names(true), names(false));
+    let mut notes = format!("Changed by friction test series {series_id}");
+    if !measured.is_empty() {
+        notes.push_str(&format!(": {} from the series", measured.join(", ")));
+    }
+    if !kept.is_empty() {
+        notes.push_str(&format!(
+            "; {} kept from the earlier entry",
+            kept.join(", ")
+        ));
+    }
+    notes.push_str(". The earlier source and notes are in the entry's history.");
+    notes
 }
 
 fn wire(r: Option<(f64, f64)>) -> Option<RangeResponse> {
@@ -197,6 +225,8 @@ fn build_for(
     }
     input.total_friction = total_after.map(range);
     input.source = source.clone();
+    let notes = proposed_notes(series_id, &[&thread_c, &bearing_c, &total_c]);
+    input.notes = notes.clone();
 
     let flags = flags(snap, entry);
     let current = (pair(&entry.thread_friction), pair(&entry.bearing_friction));
@@ -219,6 +249,7 @@ fn build_for(
             lubricant: entry.lubricant.clone(),
             changes: vec![thread_c, bearing_c, total_c],
             proposed_source: source,
+            proposed_notes: notes,
             effect,
             cautions: crate::engine::cautions::CautionSet::base()
                 .texts()
@@ -230,11 +261,11 @@ fn build_for(
 }
 
 fn flags(snap: &Snapshot, entry: &FrictionEntry) -> SpecFlags {
+    let finish = snap.finish(&entry.finish).ok();
     SpecFlags {
-        electroplated: snap
-            .finish(&entry.finish)
-            .map(|f| f.electroplated)
-            .unwrap_or(false),
+        electroplated: finish.is_some_and(|f| f.electroplated),
+        hot_dip_galvanized: finish.is_some_and(|f| f.hot_dip_galvanized()),
+        acid_cleaned: finish.is_some_and(|f| f.acid_cleaned()),
         dry: snap
             .lubricant(&entry.lubricant)
             .map(|l| l.dry)
@@ -392,6 +423,23 @@ mod tests {
         );
         assert_eq!(p.entry.thread_friction.min, 0.11);
         assert!(p.entry.source.contains("friction test series 7"));
+        // the notes describe the change, not the earlier values' origin
+        assert!(p
+            .entry
+            .notes
+            .starts_with("Changed by friction test series 7"));
+        assert!(
+            p.entry.notes.contains("thread friction"),
+            "{}",
+            p.entry.notes
+        );
+        assert!(
+            p.entry.notes.contains("from the series"),
+            "{}",
+            p.entry.notes
+        );
+        assert!(!p.entry.notes.contains("recalled from memory"));
+        assert_eq!(r.proposed_notes, p.entry.notes);
         assert_eq!(r.effect.len(), 3);
         for e in &r.effect {
             // Lower minimum friction lowers the torque that reaches the

@@ -39,6 +39,10 @@ pub struct ResolvedFriction {
     pub electroplated: bool,
     /// The finish is austenitic stainless (galling caution when dry).
     pub stainless: bool,
+    /// Hot-dip galvanized (ISO 10684 scope check).
+    pub hot_dip_galvanized: bool,
+    /// Phosphated or otherwise acid-cleaned (hydrogen caution, ISO 4042).
+    pub acid_cleaned: bool,
     /// No lubricant added at assembly.
     pub dry: bool,
     /// The catalogue entry's thread and bearing ranges, when an entry
@@ -186,6 +190,8 @@ pub fn resolve_friction(
         lubricant: lubricant.map(|l| l.id.clone()),
         electroplated: finish.is_some_and(|f| f.electroplated),
         stainless: finish.is_some_and(|f| f.stainless),
+        hot_dip_galvanized: finish.is_some_and(|f| f.hot_dip_galvanized()),
+        acid_cleaned: finish.is_some_and(|f| f.acid_cleaned()),
         dry: lubricant.is_some_and(|l| l.dry),
         catalogue_ranges,
     })

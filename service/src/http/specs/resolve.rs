@@ -364,6 +364,8 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, ItemE
 
     let flags = SpecFlags {
         electroplated: friction.electroplated,
+        hot_dip_galvanized: friction.hot_dip_galvanized,
+        acid_cleaned: friction.acid_cleaned,
         dry: friction.dry,
         measured_thread_friction: friction.catalogue_ranges.map(|(t, _)| t),
         measured_bearing_friction: friction.catalogue_ranges.map(|(_, b)| b),

@@ -95,8 +95,24 @@ pub struct ToolOptions<'a> {
     pub accept: &'a [&'static str],
 }
 
-fn rounding_problem(field: &str, e: RoundingError) -> ApiError {
-    ItemErrors::from(ItemError::invalid(field, e.to_string())).into()
+/// The refusal of a window that cannot be rounded, with the window in the
+/// tool's unit to two decimal places more than the resolution has.
+fn rounding_problem(field: &str, unit: &str, e: RoundingError) -> ApiError {
+    let reason = match e {
+        RoundingError::NoStepInside {
+            lower,
+            upper,
+            resolution,
+        } => {
+            let d = super::rounding::decimals(resolution) as usize + 2;
+            format!(
+                "the window {lower:.d$}–{upper:.d$} {unit} holds no multiple of the resolution \
+                 {resolution} {unit}; use a finer tool resolution"
+            )
+        }
+        other => other.to_string(),
+    };
+    ItemErrors::from(ItemError::invalid(field, reason)).into()
 }
 
 /// The setpoints of a computed spec, or the refusal while an error check
@@ -114,7 +130,7 @@ pub fn setpoints(
     let value = |t| Quantity::torque_in(t, unit).value;
     let (lower, upper) = (value(w.lower), value(w.upper));
     let rounded = round_window(lower, value(w.target), upper, res)
-        .map_err(|e| rounding_problem("resolution", e))?;
+        .map_err(|e| rounding_problem("resolution", unit.symbol(), e))?;
     let sym = unit.symbol();
     let held = (rounded.lower, rounded.target, rounded.upper);
     let window_check = tool_window(lower, upper, held, res, sym);
@@ -130,7 +146,7 @@ pub fn setpoints(
                 let lo = a.angle_min.get::<uom::si::angle::degree>();
                 let hi = a.angle_max.get::<uom::si::angle::degree>();
                 let r = round_window(lo, (lo + hi) / 2.0, hi, angle_res)
-                    .map_err(|e| rounding_problem("angle_resolution", e))?;
+                    .map_err(|e| rounding_problem("angle_resolution", "degrees", e))?;
                 let snug = value(a.snug_torque);
                 // Nearest step, but never zero: a snug torque is always some torque.
                 let steps = (snug / res).round().max(1.0);
