@@ -20,6 +20,7 @@ mod catalogue_support;
 mod friction_tests;
 mod friction_tests_store;
 mod implausible;
+mod limits;
 mod setpoints;
 mod specs;
 mod specs_support;
