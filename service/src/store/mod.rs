@@ -250,6 +250,30 @@ impl Store {
         }
     }
 
+    /// The evidence reference (e.g. `friction-test:42`) of each revision
+    /// that last changed an entry of `snapshot`, by revision number; one
+    /// look-up per distinct revision.
+    pub async fn entry_evidence(
+        &self,
+        snapshot: &Snapshot,
+    ) -> Result<std::collections::HashMap<i64, String>, StoreError> {
+        let mut numbers: Vec<i64> = snapshot.entries.iter().map(|e| e.revision).collect();
+        numbers.sort_unstable();
+        numbers.dedup();
+        let mut found = std::collections::HashMap::new();
+        for n in numbers {
+            let info = self.revisions(Some(n.saturating_add(1)), 1).await?;
+            if let Some(evidence) = info
+                .into_iter()
+                .find(|i| i.revision == n)
+                .and_then(|i| i.evidence)
+            {
+                found.insert(n, evidence);
+            }
+        }
+        Ok(found)
+    }
+
     pub async fn revision(&self, n: i64) -> Result<(RevisionInfo, Vec<HistoryItem>), StoreError> {
         match self {
             Store::Postgres(p) => pg::revision(p, n).await,
