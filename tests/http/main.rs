@@ -8,6 +8,7 @@ mod errors;
 mod health;
 mod openapi;
 mod reference;
+mod revision_keys;
 
 mod answer_cache;
 mod auth;

@@ -52,7 +52,7 @@ async fn seed_is_revision_one_and_reopening_changes_nothing(db: &TestDb) {
     assert_eq!(revs.len(), 1);
     assert_eq!(revs[0].actor, "seed");
     assert_eq!(
-        revs[0].changes as usize,
+        revs[0].change_count as usize,
         seed.finishes.len() + seed.lubricants.len() + seed.entries.len()
     );
     let h = store.history(EntityKind::FrictionEntry, "1").await.unwrap();
@@ -105,7 +105,7 @@ async fn update_makes_one_revision_and_past_revisions_stay_readable(db: &TestDb)
     assert_eq!(r3.snapshot.revision, 3);
     let (info, changes) = store.revision(3).await.unwrap();
     assert_eq!(
-        (info.actor.as_str(), info.changes, info.evidence.as_deref()),
+        (info.actor.as_str(), info.change_count, info.evidence.as_deref()),
         ("hollowmere-editor", 2, Some("friction-test:3"))
     );
     assert_eq!(changes.len(), 2);

@@ -44,7 +44,9 @@ pub struct RevisionInfo {
     pub reason: String,
     /// Evidence the change rests on, e.g. `friction-test:42`.
     pub evidence: Option<String>,
-    pub changes: i64,
+    /// How many changes the revision made (the detail lists them under
+    /// `changes`).
+    pub change_count: i64,
 }
 
 /// One change to one item, as the append-only history holds it.
