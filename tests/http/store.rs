@@ -105,7 +105,11 @@ async fn update_makes_one_revision_and_past_revisions_stay_readable(db: &TestDb)
     assert_eq!(r3.snapshot.revision, 3);
     let (info, changes) = store.revision(3).await.unwrap();
     assert_eq!(
-        (info.actor.as_str(), info.change_count, info.evidence.as_deref()),
+        (
+            info.actor.as_str(),
+            info.change_count,
+            info.evidence.as_deref()
+        ),
         ("hollowmere-editor", 2, Some("friction-test:3"))
     );
     assert_eq!(changes.len(), 2);
