@@ -177,8 +177,8 @@ pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
                 return None;
             }
             match v.parse::<f64>() {
-                Ok(x) => Some(x),
-                Err(_) => {
+                Ok(x) if x.is_finite() => Some(x),
+                _ => {
                     problems.push(Problem::new(
                         format!("{at}{name}"),
                         format!("'{v}' is not a number"),
@@ -268,6 +268,17 @@ mod tests {
         for cell in ["plain", " leading blank", "'quoted", "1.5", ""] {
             assert_eq!(neutralise(cell), cell);
             assert_eq!(restore(cell), cell);
+        }
+    }
+
+    #[test]
+    fn numbers_that_are_not_finite_are_refused() {
+        let header = CSV_COLUMNS.join(",");
+        for bad in ["NaN", "inf", "1e400"] {
+            let text = format!("{header}\n,plain,none,,{bad},0.2,0.1,0.2,,,src,,,,\n");
+            let problems = parse_csv(&text).unwrap_err();
+            let fields: Vec<&str> = problems.iter().map(|p| p.field.as_str()).collect();
+            assert_eq!(fields, ["entries[0].thread_friction_min"], "{bad}");
         }
     }
 }

@@ -114,11 +114,24 @@ fn backticked(message: &str) -> Option<String> {
     Some(rest.split_once('`')?.0.to_string())
 }
 
-/// One raw item read as a spec request; a malformed one names its field.
+/// One raw item read as a spec request; a malformed one names its field:
+/// the path serde was at, else the name an unknown-field message quotes,
+/// else `item` (a quoted value such as a bad variant is never taken for a
+/// field name).
 pub fn read_item(raw: &RawValue) -> Result<SpecRequest, ApiError> {
-    serde_json::from_str(raw.get()).map_err(|e| {
-        let message = e.to_string();
-        let field = backticked(&message).unwrap_or_else(|| "item".to_string());
+    let mut de = serde_json::Deserializer::from_str(raw.get());
+    serde_path_to_error::deserialize(&mut de).map_err(|e| {
+        let path = e.path().to_string();
+        let message = e.inner().to_string();
+        let field = if path.is_empty() || path == "." {
+            Some(message.as_str())
+                .filter(|m| m.starts_with("unknown field"))
+                .and_then(backticked)
+                .filter(|f| !f.is_empty())
+                .unwrap_or_else(|| "item".to_string())
+        } else {
+            path
+        };
         ApiError::malformed(field, message)
     })
 }
