@@ -22,6 +22,7 @@ mod csv_export;
 mod friction_tests;
 mod friction_tests_store;
 mod implausible;
+mod kill9;
 mod limits;
 mod setpoints;
 mod specs;
