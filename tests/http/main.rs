@@ -24,6 +24,7 @@ mod friction_tests_store;
 mod implausible;
 mod kill9;
 mod limits;
+mod outage_freeze;
 mod setpoints;
 mod specs;
 mod specs_support;
