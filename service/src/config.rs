@@ -127,15 +127,30 @@ pub struct Limits {
     pub keep_alive_secs: u64,
     /// Seconds a client gets to send the request line and headers (408 and
     /// closed after); a connection that sends nothing is closed after it.
-    #[arg(long, env = "TIGHTSPEC_HEADER_READ_TIMEOUT_SECS", default_value_t = 10)]
+    #[arg(
+        long,
+        env = "TIGHTSPEC_HEADER_READ_TIMEOUT_SECS",
+        default_value_t = 10,
+        value_parser = clap::value_parser!(u64).range(1..)
+    )]
     pub header_read_timeout_secs: u64,
     /// Seconds a client gets to send the whole request body, counted from
     /// the end of the headers (408 problem and the connection closed after).
-    #[arg(long, env = "TIGHTSPEC_BODY_READ_TIMEOUT_SECS", default_value_t = 20)]
+    #[arg(
+        long,
+        env = "TIGHTSPEC_BODY_READ_TIMEOUT_SECS",
+        default_value_t = 20,
+        value_parser = clap::value_parser!(u64).range(1..)
+    )]
     pub body_read_timeout_secs: u64,
     /// Seconds a request may take until its answer starts, body read
     /// included (503 problem after; a streamed batch answer is not cut).
-    #[arg(long, env = "TIGHTSPEC_REQUEST_TIMEOUT_SECS", default_value_t = 30)]
+    #[arg(
+        long,
+        env = "TIGHTSPEC_REQUEST_TIMEOUT_SECS",
+        default_value_t = 30,
+        value_parser = clap::value_parser!(u64).range(1..)
+    )]
     pub request_timeout_secs: u64,
     /// Milliseconds the server waits for a client to acknowledge the close
     /// of a connection before dropping it.
@@ -228,6 +243,18 @@ mod tests {
         assert_eq!(c.limits.body_read_timeout_secs, d.body_read_timeout_secs);
         assert_eq!(c.limits.request_timeout_secs, d.request_timeout_secs);
         assert_eq!(c.limits.disconnect_timeout_ms, d.disconnect_timeout_ms);
+    }
+
+    #[test]
+    fn deadlines_of_zero_are_refused() {
+        for flag in [
+            "--header-read-timeout-secs",
+            "--body-read-timeout-secs",
+            "--request-timeout-secs",
+        ] {
+            assert!(Cli::try_parse_from(["tightspec", "serve", flag, "0"]).is_err());
+            assert!(Cli::try_parse_from(["tightspec", "serve", flag, "1"]).is_ok());
+        }
     }
 
     #[test]
