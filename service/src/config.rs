@@ -96,6 +96,89 @@ pub struct Config {
     /// for repeated queries (about 5 KB each; 0 keeps none).
     #[arg(long, env = "TIGHTSPEC_ANSWER_CACHE_ENTRIES", default_value_t = DEFAULT_ANSWER_CACHE)]
     pub answer_cache_entries: usize,
+    #[command(flatten)]
+    pub limits: Limits,
+}
+
+/// Connection and time limits of the HTTP server (request hardening). The
+/// connection caps, backlog, keep-alive, header and disconnect timeouts are
+/// actix-web's own server settings; the body-read and request deadlines
+/// are enforced by `http::deadline`.
+#[derive(Debug, Clone, Args)]
+pub struct Limits {
+    /// Open connections across all workers; each worker gets its share
+    /// (rounded up). Connections beyond it wait in the listen backlog.
+    /// Keep it below the process's open-file limit (`ulimit -n`).
+    #[arg(long, env = "TIGHTSPEC_MAX_CONNECTIONS", default_value_t = 4096)]
+    pub max_connections: usize,
+    /// Open connections per worker thread (the smaller of this and the
+    /// worker's share of `--max-connections` applies).
+    #[arg(
+        long,
+        env = "TIGHTSPEC_MAX_CONNECTIONS_PER_WORKER",
+        default_value_t = 1024
+    )]
+    pub max_connections_per_worker: usize,
+    /// Pending connections the kernel queues before they are accepted.
+    #[arg(long, env = "TIGHTSPEC_BACKLOG", default_value_t = 1024)]
+    pub backlog: u32,
+    /// Seconds an idle keep-alive connection stays open (0: no keep-alive).
+    #[arg(long, env = "TIGHTSPEC_KEEP_ALIVE_SECS", default_value_t = 5)]
+    pub keep_alive_secs: u64,
+    /// Seconds a client gets to send the request line and headers (408 and
+    /// closed after); a connection that sends nothing is closed after it.
+    #[arg(
+        long,
+        env = "TIGHTSPEC_HEADER_READ_TIMEOUT_SECS",
+        default_value_t = 10,
+        value_parser = clap::value_parser!(u64).range(1..)
+    )]
+    pub header_read_timeout_secs: u64,
+    /// Seconds a client gets to send the whole request body, counted from
+    /// the end of the headers (408 problem and the connection closed after).
+    #[arg(
+        long,
+        env = "TIGHTSPEC_BODY_READ_TIMEOUT_SECS",
+        default_value_t = 20,
+        value_parser = clap::value_parser!(u64).range(1..)
+    )]
+    pub body_read_timeout_secs: u64,
+    /// Seconds a request may take until its answer starts, body read
+    /// included (503 problem after; a streamed batch answer is not cut).
+    #[arg(
+        long,
+        env = "TIGHTSPEC_REQUEST_TIMEOUT_SECS",
+        default_value_t = 30,
+        value_parser = clap::value_parser!(u64).range(1..)
+    )]
+    pub request_timeout_secs: u64,
+    /// Milliseconds the server waits for a client to acknowledge the close
+    /// of a connection before dropping it.
+    #[arg(long, env = "TIGHTSPEC_DISCONNECT_TIMEOUT_MS", default_value_t = 1000)]
+    pub disconnect_timeout_ms: u64,
+}
+
+impl Default for Limits {
+    fn default() -> Self {
+        Self {
+            max_connections: 4096,
+            max_connections_per_worker: 1024,
+            backlog: 1024,
+            keep_alive_secs: 5,
+            header_read_timeout_secs: 10,
+            body_read_timeout_secs: 20,
+            request_timeout_secs: 30,
+            disconnect_timeout_ms: 1000,
+        }
+    }
+}
+
+impl Limits {
+    /// Connections one worker may hold with `workers` workers.
+    pub fn per_worker(&self, workers: usize) -> usize {
+        let share = self.max_connections.div_ceil(workers.max(1));
+        share.min(self.max_connections_per_worker).max(1)
+    }
 }
 
 impl Config {
@@ -110,6 +193,7 @@ impl Config {
             shutdown_timeout_secs: 5,
             workers: 2,
             answer_cache_entries: DEFAULT_ANSWER_CACHE,
+            limits: Limits::default(),
         }
     }
 }
@@ -136,6 +220,54 @@ mod tests {
             }
             other => panic!("expected serve, got {other:?}"),
         }
+    }
+
+    #[test]
+    fn limit_defaults_match_the_flags() {
+        let cli = Cli::try_parse_from(["tightspec", "serve"]).expect("parses");
+        let Command::Serve(c) = cli.command else {
+            panic!("expected serve");
+        };
+        let d = Limits::default();
+        assert_eq!(c.limits.max_connections, d.max_connections);
+        assert_eq!(
+            c.limits.max_connections_per_worker,
+            d.max_connections_per_worker
+        );
+        assert_eq!(c.limits.backlog, d.backlog);
+        assert_eq!(c.limits.keep_alive_secs, d.keep_alive_secs);
+        assert_eq!(
+            c.limits.header_read_timeout_secs,
+            d.header_read_timeout_secs
+        );
+        assert_eq!(c.limits.body_read_timeout_secs, d.body_read_timeout_secs);
+        assert_eq!(c.limits.request_timeout_secs, d.request_timeout_secs);
+        assert_eq!(c.limits.disconnect_timeout_ms, d.disconnect_timeout_ms);
+    }
+
+    #[test]
+    fn deadlines_of_zero_are_refused() {
+        for flag in [
+            "--header-read-timeout-secs",
+            "--body-read-timeout-secs",
+            "--request-timeout-secs",
+        ] {
+            assert!(Cli::try_parse_from(["tightspec", "serve", flag, "0"]).is_err());
+            assert!(Cli::try_parse_from(["tightspec", "serve", flag, "1"]).is_ok());
+        }
+    }
+
+    #[test]
+    fn connections_are_shared_among_workers() {
+        let l = Limits::default();
+        assert_eq!(l.per_worker(2), 1024);
+        assert_eq!(l.per_worker(8), 512);
+        let small = Limits {
+            max_connections: 5,
+            ..Limits::default()
+        };
+        assert_eq!(small.per_worker(2), 3);
+        assert_eq!(small.per_worker(0), 5);
     }
 
     #[test]

@@ -10,4 +10,7 @@ pub mod config;
 pub mod engine;
 pub mod http;
 pub mod startup;
+
+#[cfg(test)]
+mod fuzz_tests;
 pub mod store;

@@ -13,6 +13,7 @@ use std::time::Duration;
 
 use actix_web::body::MessageBody;
 use actix_web::dev::{Server, ServiceFactory, ServiceRequest, ServiceResponse};
+use actix_web::http::KeepAlive;
 use actix_web::middleware::from_fn;
 use actix_web::{web, App, HttpServer};
 use utoipa_actix_web::service_config::ServiceConfig;
@@ -23,7 +24,7 @@ use crate::http::catalogue::CatalogueWiring;
 use crate::http::error::ApiError;
 use crate::http::metrics::Metrics;
 use crate::http::state::AppState;
-use crate::http::{accept, extract, health, metrics, openapi, reference, request_id};
+use crate::http::{accept, deadline, extract, health, metrics, openapi, reference, request_id};
 
 /// Why the service could not start.
 #[derive(Debug, thiserror::Error)]
@@ -58,7 +59,8 @@ pub fn routes(cfg: &mut ServiceConfig) {
 }
 
 /// The application for one worker: routes, extractor error handlers,
-/// middleware (request id outermost, then metrics) and the 404 fallback.
+/// middleware (request id outermost, then metrics, the `Accept` check and
+/// the body-read and request deadlines) and the 404 fallback.
 pub fn app(
     state: AppState,
 ) -> App<
@@ -86,6 +88,7 @@ pub fn app(
         .app_data(extract::payload_config(limit))
         .route("/openapi.json", web::get().to(openapi::serve))
         .default_service(web::to(not_found))
+        .wrap(from_fn(deadline::middleware))
         .wrap(from_fn(accept::middleware))
         .wrap(from_fn(metrics::middleware))
         .wrap(from_fn(request_id::middleware))
@@ -97,6 +100,31 @@ async fn not_found(req: actix_web::HttpRequest) -> Result<actix_web::HttpRespons
         req.method(),
         req.path()
     )))
+}
+
+/// A listening socket on `addr` (`host:port`; the first address that
+/// binds) with a listen backlog of `backlog` pending connections (the
+/// standard library's `TcpListener::bind` has a fixed one).
+fn bind(addr: &str, backlog: u32) -> std::io::Result<TcpListener> {
+    use socket2::{Domain, Protocol, Socket, Type};
+    use std::net::ToSocketAddrs;
+    let mut last = None;
+    for a in addr.to_socket_addrs()? {
+        let socket = Socket::new(Domain::for_address(a), Type::STREAM, Some(Protocol::TCP))?;
+        // As the standard library does on Unix: rebinding right after a restart works.
+        #[cfg(unix)]
+        socket.set_reuse_address(true)?;
+        let bound = socket
+            .bind(&a.into())
+            .and_then(|()| socket.listen(i32::try_from(backlog).unwrap_or(i32::MAX)));
+        match bound {
+            Ok(()) => return Ok(socket.into()),
+            Err(e) => last = Some(e),
+        }
+    }
+    Err(last.unwrap_or_else(|| {
+        std::io::Error::new(std::io::ErrorKind::InvalidInput, "no address to listen on")
+    }))
 }
 
 /// A bound, not yet running service.
@@ -133,10 +161,11 @@ impl Application {
     /// wiring use it).
     pub fn build_with_state(state: AppState) -> Result<Self, StartupError> {
         let config = Arc::clone(&state.config);
-        let listener = TcpListener::bind(&config.listen).map_err(|source| StartupError::Bind {
-            addr: config.listen.clone(),
-            source,
-        })?;
+        let listener =
+            bind(&config.listen, config.limits.backlog).map_err(|source| StartupError::Bind {
+                addr: config.listen.clone(),
+                source,
+            })?;
         let port = listener
             .local_addr()
             .map_err(|source| StartupError::Bind {
@@ -148,13 +177,25 @@ impl Application {
         // TCP_NODELAY: a streamed answer ends with a small final chunk,
         // which Nagle's algorithm would hold back until the client's
         // delayed ACK (tens of milliseconds on a 6 MB batch answer).
-        let mut server = HttpServer::new(move || app(factory_state.clone()))
+        let limits = &config.limits;
+        let workers = if config.workers > 0 {
+            config.workers
+        } else {
+            // actix-web's own default: one worker per available core.
+            std::thread::available_parallelism().map_or(1, |n| n.get())
+        };
+        let keep_alive = match limits.keep_alive_secs {
+            0 => KeepAlive::Disabled,
+            s => KeepAlive::Timeout(Duration::from_secs(s)),
+        };
+        let server = HttpServer::new(move || app(factory_state.clone()))
             .tcp_nodelay(true)
-            .shutdown_timeout(config.shutdown_timeout_secs)
-            .client_request_timeout(Duration::from_secs(30));
-        if config.workers > 0 {
-            server = server.workers(config.workers);
-        }
+            .workers(workers)
+            .max_connections(limits.per_worker(workers))
+            .keep_alive(keep_alive)
+            .client_request_timeout(Duration::from_secs(limits.header_read_timeout_secs))
+            .client_disconnect_timeout(Duration::from_millis(limits.disconnect_timeout_ms))
+            .shutdown_timeout(config.shutdown_timeout_secs);
         let server = server
             .listen(listener)
             .map_err(|source| StartupError::Bind {

@@ -59,7 +59,7 @@ async fn seed_is_revision_one_and_reopening_changes_nothing(db: &TestDb) {
     let oldest = revs.last().unwrap();
     assert_eq!((oldest.revision, oldest.actor.as_str()), (1, "seed"));
     assert_eq!(
-        oldest.changes as usize,
+        oldest.change_count as usize,
         seed.finishes.len() + seed.lubricants.len() + seed.entries.len()
     );
     for r in &revs[..revs.len() - 1] {
@@ -136,7 +136,11 @@ async fn update_makes_one_revision_and_past_revisions_stay_readable(db: &TestDb)
     assert_eq!(r3.snapshot.revision, base + 2);
     let (info, changes) = store.revision(base + 2).await.unwrap();
     assert_eq!(
-        (info.actor.as_str(), info.changes, info.evidence.as_deref()),
+        (
+            info.actor.as_str(),
+            info.change_count,
+            info.evidence.as_deref()
+        ),
         ("hollowmere-editor", 2, Some("friction-test:3"))
     );
     assert_eq!(changes.len(), 2);

@@ -1,6 +1,12 @@
 //! The CSV form of the catalogue: friction entries only, one per row, with
 //! a header row of [`CSV_COLUMNS`]. Export writes it; import reads it back
 //! reporting every bad cell.
+//!
+//! Text cells a spreadsheet would evaluate as a formula (first character
+//! `=`, `+`, `-`, `@`, tab or carriage return, or `=`, `+`, `-`, `@` after
+//! leading blanks) are written with a leading `'`, leading whitespace kept;
+//! import removes that one `'` again, so export and import round-trip
+//! (common practice against CSV formula injection).
 
 use super::error::Problem;
 use super::exchange::{ImportEntry, ImportFile};
@@ -8,7 +14,7 @@ use super::types::{RangeInput, Status};
 use super::Snapshot;
 
 /// Column order of the CSV form.
-pub const CSV_COLUMNS: [&str; 14] = [
+pub const CSV_COLUMNS: [&str; 15] = [
     "id",
     "finish",
     "lubricant",
@@ -23,32 +29,86 @@ pub const CSV_COLUMNS: [&str; 14] = [
     "notes",
     "status",
     "revision",
+    "evidence",
 ];
+
+/// Characters that make a spreadsheet evaluate a cell when it starts with
+/// one (common practice against CSV formula injection).
+const FORMULA_START: [char; 6] = ['=', '+', '-', '@', '\t', '\r'];
+
+fn would_evaluate(cell: &str) -> bool {
+    cell.starts_with(FORMULA_START)
+        || cell
+            .trim_start()
+            .starts_with(['=', '+', '-', '@'].as_slice())
+}
+
+/// A text cell as exported: `'` in front of anything a spreadsheet would
+/// evaluate, otherwise unchanged (leading whitespace is never trimmed).
+pub fn neutralise(cell: &str) -> String {
+    if would_evaluate(cell) {
+        format!("'{cell}")
+    } else {
+        cell.to_string()
+    }
+}
+
+/// The inverse of [`neutralise`] for an imported cell.
+fn restore(cell: &str) -> &str {
+    match cell.strip_prefix('\'') {
+        Some(rest) if would_evaluate(rest) => rest,
+        _ => cell,
+    }
+}
+
+/// Options of the CSV export.
+#[derive(Debug, Default)]
+pub struct CsvOptions<'a> {
+    /// Start with a UTF-8 byte order mark (for spreadsheets that guess the
+    /// encoding otherwise).
+    pub bom: bool,
+    /// Evidence reference of the revision that last changed each entry
+    /// (e.g. `friction-test:42`), by revision number.
+    pub evidence: Option<&'a std::collections::HashMap<i64, String>>,
+}
 
 fn num(v: Option<f64>) -> String {
     v.map(|x| x.to_string()).unwrap_or_default()
 }
 
-/// The CSV export of the friction entries (header row first).
+/// The CSV export of the friction entries (header row first), no BOM and
+/// no evidence references.
 pub fn to_csv(s: &Snapshot) -> Result<String, String> {
-    let mut w = csv::Writer::from_writer(Vec::new());
+    to_csv_with(s, &CsvOptions::default())
+}
+
+/// The CSV export of the friction entries with `options`.
+pub fn to_csv_with(s: &Snapshot, options: &CsvOptions<'_>) -> Result<String, String> {
+    let start = if options.bom { "\u{feff}" } else { "" };
+    let mut w = csv::Writer::from_writer(start.as_bytes().to_vec());
     w.write_record(CSV_COLUMNS).map_err(|e| e.to_string())?;
     for e in &s.entries {
         w.write_record([
             e.id.to_string(),
-            e.finish.clone(),
-            e.lubricant.clone(),
-            e.bearing_surface.clone().unwrap_or_default(),
+            neutralise(&e.finish),
+            neutralise(&e.lubricant),
+            neutralise(e.bearing_surface.as_deref().unwrap_or_default()),
             e.thread_friction.min.to_string(),
             e.thread_friction.max.to_string(),
             e.bearing_friction.min.to_string(),
             e.bearing_friction.max.to_string(),
             num(e.total_friction.map(|t| t.min)),
             num(e.total_friction.map(|t| t.max)),
-            e.source.clone(),
-            e.notes.clone(),
+            neutralise(&e.source),
+            neutralise(&e.notes),
             e.status.as_str().to_string(),
             e.revision.to_string(),
+            neutralise(
+                options
+                    .evidence
+                    .and_then(|m| m.get(&e.revision))
+                    .map_or("", String::as_str),
+            ),
         ])
         .map_err(|e| e.to_string())?;
     }
@@ -57,10 +117,16 @@ pub fn to_csv(s: &Snapshot) -> Result<String, String> {
 }
 
 /// Reads a CSV import file (entries only; header row with [`CSV_COLUMNS`],
-/// `revision` optional). Every bad cell is reported.
+/// `revision` and `evidence` optional, the latter not read: evidence
+/// belongs to a revision). A leading byte order mark is skipped. Every bad
+/// cell is reported.
 pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+    // Flexible: a row may leave out trailing optional cells (`revision`,
+    // `evidence`); a missing cell reads as empty.
     let mut r = csv::ReaderBuilder::new()
         .trim(csv::Trim::All)
+        .flexible(true)
         .from_reader(text.as_bytes());
     let headers = match r.headers() {
         Ok(h) => h.clone(),
@@ -94,11 +160,13 @@ pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
             }
         };
         let cell = |name: &str| -> &str {
-            headers
-                .iter()
-                .position(|h| h == name)
-                .and_then(|p| rec.get(p))
-                .unwrap_or("")
+            restore(
+                headers
+                    .iter()
+                    .position(|h| h == name)
+                    .and_then(|p| rec.get(p))
+                    .unwrap_or(""),
+            )
         };
         let mut number = |name: &str, required: bool| -> Option<f64> {
             let v = cell(name);
@@ -109,8 +177,8 @@ pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
                 return None;
             }
             match v.parse::<f64>() {
-                Ok(x) => Some(x),
-                Err(_) => {
+                Ok(x) if x.is_finite() => Some(x),
+                _ => {
                     problems.push(Problem::new(
                         format!("{at}{name}"),
                         format!("'{v}' is not a number"),
@@ -183,5 +251,34 @@ pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
         Ok(file)
     } else {
         Err(problems)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn cells_a_spreadsheet_would_evaluate_get_a_quote_and_come_back() {
+        for cell in ["=1+1", "+1", "-1", "@SUM(A1)", "\t=1+1", "\r=1+1", "  =1+1"] {
+            let out = neutralise(cell);
+            assert_eq!(out, format!("'{cell}"), "{cell:?}");
+            assert_eq!(restore(&out), cell);
+        }
+        for cell in ["plain", " leading blank", "'quoted", "1.5", ""] {
+            assert_eq!(neutralise(cell), cell);
+            assert_eq!(restore(cell), cell);
+        }
+    }
+
+    #[test]
+    fn numbers_that_are_not_finite_are_refused() {
+        let header = CSV_COLUMNS.join(",");
+        for bad in ["NaN", "inf", "1e400"] {
+            let text = format!("{header}\n,plain,none,,{bad},0.2,0.1,0.2,,,src,,,,\n");
+            let problems = parse_csv(&text).unwrap_err();
+            let fields: Vec<&str> = problems.iter().map(|p| p.field.as_str()).collect();
+            assert_eq!(fields, ["entries[0].thread_friction_min"], "{bad}");
+        }
     }
 }

@@ -9,7 +9,7 @@ use super::error::Problem;
 use super::types::{RangeInput, Status};
 use super::{Finish, FrictionEntry, Lubricant, Snapshot};
 
-pub use super::csv_form::{parse_csv, to_csv, CSV_COLUMNS};
+pub use super::csv_form::{neutralise, parse_csv, to_csv, to_csv_with, CsvOptions, CSV_COLUMNS};
 
 /// The JSON export: the whole catalogue at one revision.
 #[derive(Debug, Clone, Serialize)]

@@ -75,7 +75,12 @@ pub async fn run_on(store: &Store, cmd: &CatalogueCommand, out: &mut dyn Write) 
                 None => store.load_current().await?,
             };
             if format == "csv" {
-                write!(out, "{}", exchange::to_csv(&snapshot)?)?;
+                let evidence = store.entry_evidence(&snapshot).await?;
+                let options = exchange::CsvOptions {
+                    bom: false,
+                    evidence: Some(&evidence),
+                };
+                write!(out, "{}", exchange::to_csv_with(&snapshot, &options)?)?;
             } else {
                 writeln!(
                     out,

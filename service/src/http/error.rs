@@ -114,6 +114,10 @@ pub enum ApiError {
     /// 406: no acceptable representation for the `Accept` header.
     #[error("not acceptable: {detail}")]
     NotAcceptable { detail: String },
+    /// 408: the request body did not arrive within the body-read deadline
+    /// (the connection is closed after this answer).
+    #[error("request timeout: {detail}")]
+    RequestTimeout { detail: String },
     /// 409: the change conflicts with the current state.
     #[error("conflict: {detail}")]
     Conflict {
@@ -212,6 +216,7 @@ impl ApiError {
             Self::Forbidden { .. } => ("forbidden", "Not allowed"),
             Self::NotFound { .. } => ("not-found", "Not found"),
             Self::NotAcceptable { .. } => ("not-acceptable", "Not acceptable"),
+            Self::RequestTimeout { .. } => ("request-timeout", "Request timeout"),
             Self::Conflict { .. } => ("conflict", "Conflict"),
             Self::PreconditionFailed { .. } => ("precondition-failed", "Precondition failed"),
             Self::PayloadTooLarge { .. } => ("payload-too-large", "Payload too large"),
@@ -285,6 +290,13 @@ impl ApiError {
                 ));
                 format!("the request body is larger than the limit of {limit_bytes} bytes")
             }
+            Self::RequestTimeout { detail } => {
+                errors.push(FieldError::new(
+                    "body",
+                    "not received completely within the body-read deadline",
+                ));
+                detail.clone()
+            }
             Self::Unavailable { detail, .. } => detail.clone(),
             Self::Internal(_) => {
                 "an internal error occurred; it has been logged with the request id".to_string()
@@ -323,6 +335,7 @@ impl ResponseError for ApiError {
             Self::Forbidden { .. } => StatusCode::FORBIDDEN,
             Self::NotFound { .. } => StatusCode::NOT_FOUND,
             Self::NotAcceptable { .. } => StatusCode::NOT_ACCEPTABLE,
+            Self::RequestTimeout { .. } => StatusCode::REQUEST_TIMEOUT,
             Self::Conflict { .. } => StatusCode::CONFLICT,
             Self::PreconditionFailed { .. } => StatusCode::PRECONDITION_FAILED,
             Self::PayloadTooLarge { .. } => StatusCode::PAYLOAD_TOO_LARGE,
@@ -358,6 +371,10 @@ impl ResponseError for ApiError {
             }
             Self::Unauthorized { .. } => {
                 builder.insert_header((header::WWW_AUTHENTICATE, "Bearer"));
+            }
+            // The rest of the body may still be on its way: close.
+            Self::RequestTimeout { .. } => {
+                builder.force_close();
             }
             _ => {}
         }

@@ -52,6 +52,10 @@ pub fn json_error(err: JsonPayloadError, limit_bytes: usize) -> ApiError {
         JsonPayloadError::Payload(e) => {
             if matches!(e, actix_web::error::PayloadError::Overflow) {
                 ApiError::PayloadTooLarge { limit_bytes }
+            } else if super::deadline::is_body_timeout(&e) {
+                ApiError::RequestTimeout {
+                    detail: e.to_string(),
+                }
             } else {
                 ApiError::malformed("body", format!("could not read the body: {e}"))
             }

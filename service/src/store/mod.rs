@@ -44,7 +44,9 @@ pub struct RevisionInfo {
     pub reason: String,
     /// Evidence the change rests on, e.g. `friction-test:42`.
     pub evidence: Option<String>,
-    pub changes: i64,
+    /// How many changes the revision made (the detail lists them under
+    /// `changes`).
+    pub change_count: i64,
 }
 
 /// One change to one item, as the append-only history holds it.
@@ -258,6 +260,30 @@ impl Store {
             Store::Postgres(p) => pg::revisions(p, before, limit).await,
             Store::Sqlite(p) => sqlite::revisions(p, before, limit).await,
         }
+    }
+
+    /// The evidence reference (e.g. `friction-test:42`) of each revision
+    /// that last changed an entry of `snapshot`, by revision number; one
+    /// look-up per distinct revision.
+    pub async fn entry_evidence(
+        &self,
+        snapshot: &Snapshot,
+    ) -> Result<std::collections::HashMap<i64, String>, StoreError> {
+        let mut numbers: Vec<i64> = snapshot.entries.iter().map(|e| e.revision).collect();
+        numbers.sort_unstable();
+        numbers.dedup();
+        let mut found = std::collections::HashMap::new();
+        for n in numbers {
+            let info = self.revisions(Some(n.saturating_add(1)), 1).await?;
+            if let Some(evidence) = info
+                .into_iter()
+                .find(|i| i.revision == n)
+                .and_then(|i| i.evidence)
+            {
+                found.insert(n, evidence);
+            }
+        }
+        Ok(found)
     }
 
     pub async fn revision(&self, n: i64) -> Result<(RevisionInfo, Vec<HistoryItem>), StoreError> {

@@ -215,7 +215,7 @@ macro_rules! backend {
                 actor: row.try_get("actor")?,
                 reason: row.try_get("reason")?,
                 evidence: row.try_get("evidence")?,
-                changes: row.try_get("changes")?,
+                change_count: row.try_get("changes")?,
             })
         }
 

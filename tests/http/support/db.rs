@@ -200,12 +200,39 @@ fn database_url_rewriting() {
 }
 
 /// A TCP relay in front of a database server that a test can cut (every
-/// connection dropped, new ones refused) and restore on the same port: a
-/// reliable way to take the database away from a running service.
+/// connection dropped, new ones refused) and restore on the same port, or
+/// freeze (connections stay open but no byte is forwarded, as with a hung
+/// server or a silent network) and thaw: reliable ways to take the
+/// database away from a running service.
 pub struct Relay {
     pub port: u16,
     target: String,
     tasks: std::sync::Arc<std::sync::Mutex<Vec<tokio::task::JoinHandle<()>>>>,
+    frozen: std::sync::Arc<tokio::sync::watch::Sender<bool>>,
+}
+
+/// Forwards bytes from `from` to `to`, holding them while frozen.
+async fn pump(
+    mut from: tokio::net::tcp::OwnedReadHalf,
+    mut to: tokio::net::tcp::OwnedWriteHalf,
+    mut frozen: tokio::sync::watch::Receiver<bool>,
+) {
+    use tokio::io::{AsyncReadExt, AsyncWriteExt};
+    let mut buf = vec![0u8; 16 * 1024];
+    loop {
+        let n = match from.read(&mut buf).await {
+            Ok(0) | Err(_) => return,
+            Ok(n) => n,
+        };
+        while *frozen.borrow_and_update() {
+            if frozen.changed().await.is_err() {
+                return;
+            }
+        }
+        if to.write_all(&buf[..n]).await.is_err() {
+            return;
+        }
+    }
 }
 
 impl Relay {
@@ -219,6 +246,7 @@ impl Relay {
             port,
             target: target.to_string(),
             tasks: Default::default(),
+            frozen: std::sync::Arc::new(tokio::sync::watch::channel(false).0),
         };
         relay.serve(listener);
         relay
@@ -227,12 +255,16 @@ impl Relay {
     fn serve(&self, listener: tokio::net::TcpListener) {
         let target = self.target.clone();
         let tasks = std::sync::Arc::clone(&self.tasks);
+        let frozen = std::sync::Arc::clone(&self.frozen);
         let accept = tokio::spawn(async move {
-            while let Ok((mut inbound, _)) = listener.accept().await {
+            while let Ok((inbound, _)) = listener.accept().await {
                 let target = target.clone();
+                let (up, down) = (frozen.subscribe(), frozen.subscribe());
                 let conn = tokio::spawn(async move {
-                    if let Ok(mut outbound) = tokio::net::TcpStream::connect(&target).await {
-                        let _ = tokio::io::copy_bidirectional(&mut inbound, &mut outbound).await;
+                    if let Ok(outbound) = tokio::net::TcpStream::connect(&target).await {
+                        let (in_read, in_write) = inbound.into_split();
+                        let (out_read, out_write) = outbound.into_split();
+                        tokio::join!(pump(in_read, out_write, up), pump(out_read, in_write, down));
                     }
                 });
                 if let Ok(mut t) = tasks.lock() {
@@ -252,6 +284,16 @@ impl Relay {
                 task.abort();
             }
         }
+    }
+
+    /// Stops forwarding bytes; every connection stays open.
+    pub fn freeze(&self) {
+        self.frozen.send_replace(true);
+    }
+
+    /// Forwards the held bytes and everything after them again.
+    pub fn thaw(&self) {
+        self.frozen.send_replace(false);
     }
 
     /// Accepts connections again on the same port.

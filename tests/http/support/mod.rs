@@ -65,6 +65,13 @@ impl TestAppBuilder {
         self
     }
 
+    /// Connection and time limits (request hardening); tests shorten the
+    /// deadlines to a second or so.
+    pub fn limits(mut self, set: impl FnOnce(&mut tightspec::config::Limits)) -> Self {
+        set(&mut self.config.limits);
+        self
+    }
+
     /// Rendered look-up answers kept per route (0 keeps none).
     pub fn answer_cache_entries(mut self, entries: usize) -> Self {
         self.config.answer_cache_entries = entries;

@@ -119,7 +119,12 @@ async fn export_catalogue(
             ))
             .json(exchange::export(&snap))),
         ExportFormat::Csv => {
-            let csv = exchange::to_csv(&snap).map_err(ApiError::Internal)?;
+            let evidence = svc.store.entry_evidence(&snap).await?;
+            let options = exchange::CsvOptions {
+                bom: q.bom.unwrap_or(false),
+                evidence: Some(&evidence),
+            };
+            let csv = exchange::to_csv_with(&snap, &options).map_err(ApiError::Internal)?;
             Ok(HttpResponse::Ok()
                 .content_type("text/csv; charset=utf-8")
                 .insert_header((

@@ -166,6 +166,9 @@ pub struct ExportQuery {
     /// `json` (default) or `csv` (friction entries).
     pub format: Option<ExportFormat>,
     pub catalogue_revision: Option<i64>,
+    /// CSV only: start with a UTF-8 byte order mark, for spreadsheets that
+    /// otherwise guess the encoding (default false).
+    pub bom: Option<bool>,
 }
 
 fn required<T>(v: Option<T>, field: &str, missing: &mut Vec<FieldError>) -> Option<T> {

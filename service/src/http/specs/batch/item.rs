@@ -100,6 +100,27 @@ fn malformed(e: serde_json::Error) -> ApiError {
     ApiError::malformed(field, message)
 }
 
+/// The spec part of an item; a malformed one names its field: the path
+/// serde was at, else the name an unknown-field message quotes, else
+/// `item` (a quoted value such as a bad variant is never taken for a field
+/// name).
+fn read_spec(map: Map<String, Value>) -> Result<SpecRequest, ApiError> {
+    serde_path_to_error::deserialize(Value::Object(map)).map_err(|e| {
+        let path = e.path().to_string();
+        let message = e.inner().to_string();
+        let field = if path.is_empty() || path == "." {
+            Some(message.as_str())
+                .filter(|m| m.starts_with("unknown field"))
+                .and_then(backticked)
+                .filter(|f| !f.is_empty())
+                .unwrap_or_else(|| "item".to_string())
+        } else {
+            path
+        };
+        ApiError::malformed(field, message)
+    })
+}
+
 /// One raw item read as a spec or setpoint request; a malformed one names
 /// its field.
 pub fn read_item(raw: &RawValue) -> Result<ItemRequest, ApiError> {
@@ -118,7 +139,7 @@ pub fn read_item(raw: &RawValue) -> Result<ItemRequest, ApiError> {
         angle_resolution: take(&mut map, "angle_resolution")?,
         accept_checks: take(&mut map, ACCEPT_FIELD)?,
     };
-    let spec: SpecRequest = serde_json::from_value(Value::Object(map)).map_err(malformed)?;
+    let spec = read_spec(map)?;
     Ok(ItemRequest {
         spec,
         answer: answer(options)?,

@@ -33,6 +33,12 @@ pub fn quantity_from_query(field: &str, text: &str) -> Result<Quantity, ItemErro
             format!("'{text}' is not a number followed by a unit"),
         )
     })?;
+    if !value.is_finite() {
+        return Err(ItemError::malformed(
+            field,
+            format!("'{text}': the number is too large to represent"),
+        ));
+    }
     if unit.is_empty() {
         return Err(ItemError::malformed(
             field,
