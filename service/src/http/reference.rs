@@ -48,6 +48,7 @@ pub struct ThreadsQuery {
     #[param(value_type = Option<Units>)]
     pub units: Option<Units>,
     /// Only this series: `coarse`, `fine`, `unc`, `unf`, `un8`.
+    #[param(pattern = "^(coarse|fine|unc|unf|un8)$")]
     pub series: Option<String>,
 }
 

@@ -44,6 +44,9 @@ pub struct RevisionInfo {
     pub reason: String,
     /// Evidence the change rests on, e.g. `friction-test:42`.
     pub evidence: Option<String>,
+    /// How many items the revision changed (named apart from the revision
+    /// detail's `changes` list, which flattens this struct beside it).
+    #[serde(rename = "change_count")]
     pub changes: i64,
 }
 

@@ -101,10 +101,12 @@ pub struct SpecRequest {
     /// Property class or grade, e.g. `8.8`, `10.9`, `A2-70`, `SAE J429 Grade 5`.
     #[schema(example = "8.8")]
     pub property_class: String,
-    /// Finish id from the friction catalogue, e.g. `zinc-electroplated`.
+    /// Finish id from the friction catalogue, e.g. `zinc-electroplated`;
+    /// required (with `lubricant`) unless both frictions are given directly.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub finish: Option<String>,
-    /// Lubricant id from the friction catalogue, e.g. `none`, `light-oil`.
+    /// Lubricant id from the friction catalogue, e.g. `none`, `light-oil`;
+    /// required (with `finish`) unless both frictions are given directly.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub lubricant: Option<String>,
     /// Thread friction μ_G: replaces the catalogue value.
@@ -168,7 +170,12 @@ pub struct SpecRequest {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub units: Option<Units>,
     /// Catalogue revision to answer from; default the current one.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
+    #[serde(
+        default,
+        skip_serializing_if = "Option::is_none",
+        deserialize_with = "crate::http::extract::integral"
+    )]
+    #[schema(minimum = 1)]
     pub catalogue_revision: Option<i64>,
 }
 
@@ -224,9 +231,13 @@ macro_rules! spec_query {
             /// Property class or grade, e.g. `8.8`, `A2-70`.
             #[param(example = "8.8")]
             pub property_class: String,
-            /// Finish id from the friction catalogue.
+            /// Finish id from the friction catalogue; required (with
+            /// `lubricant`) unless thread and bearing friction are both
+            /// given directly (422 naming it otherwise).
             pub finish: Option<String>,
-            /// Lubricant id from the friction catalogue.
+            /// Lubricant id from the friction catalogue; required (with
+            /// `finish`) unless thread and bearing friction are both given
+            /// directly (422 naming it otherwise).
             pub lubricant: Option<String>,
             /// One thread friction value μ_G (replaces the catalogue's).
             pub thread_friction: Option<f64>,
@@ -277,6 +288,8 @@ macro_rules! spec_query {
             /// Units of the response: `si` (default) or `us`.
             pub units: Option<Units>,
             /// Catalogue revision to answer from; default the current one.
+            #[serde(default, deserialize_with = "crate::http::extract::integral")]
+            #[param(minimum = 1)]
             pub catalogue_revision: Option<i64>,
             $($(#[$fmeta])* pub $extra: $ety,)*
         }
