@@ -17,6 +17,7 @@ mod catalogue_cli;
 mod catalogue_instances;
 mod catalogue_specs;
 mod catalogue_support;
+mod contract;
 mod friction_tests;
 mod friction_tests_store;
 mod implausible;

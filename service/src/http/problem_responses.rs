@@ -7,10 +7,11 @@
 //! - an operation with parameters or a body: 400 (unreadable value,
 //!   unknown query parameter) and 422 (well-formed but invalid input);
 //! - an operation with a body: 413 (over the limit) and 415 (not JSON);
-//! - every `/v1/` operation: 401 and 403 (a token is checked whenever one
-//!   is sent, and reads need one when anonymous reads are off) and 503
-//!   (checking a token, or writing, needs the database); with parameters
-//!   or a body also 404 (unknown name, id or revision);
+//! - every `/v1/` operation and `/metrics`: 401 and 403 (a token is
+//!   checked whenever one is sent, and reads need one when anonymous reads
+//!   are off) and 503 (checking a token, or writing, needs the database);
+//!   a `/v1/` operation with parameters or a body also 404 (unknown name,
+//!   id or revision);
 //! - a write (an operation with a security requirement): 409 (conflicts
 //!   with the current catalogue);
 //! - an operation taking `If-Match`: 412 (stale) and 428 (missing).
@@ -91,11 +92,11 @@ fn statuses(path: &str, op: &Operation) -> Vec<u16> {
     if op.request_body.is_some() {
         out.extend([413, 415]);
     }
-    if versioned {
+    if versioned || path == "/metrics" {
         out.extend([401, 403, 503]);
-        if has_input {
-            out.push(404);
-        }
+    }
+    if versioned && has_input {
+        out.push(404);
     }
     if op.security.as_ref().is_some_and(|s| !s.is_empty()) {
         out.push(409);

@@ -14,6 +14,7 @@ use crate::engine::material::{self, ClampedMaterial};
 use crate::engine::method::{MethodInfo, METHODS};
 use crate::engine::thread::{self, ThreadGeometry};
 
+use super::auth::Reader;
 use super::error::ApiError;
 use super::quantity::{Quantity, Units};
 
@@ -109,7 +110,7 @@ fn wire_thread(t: &ThreadGeometry, units: Units) -> Thread {
     )
 )]
 #[get("/v1/threads")]
-async fn threads(query: Query<ThreadsQuery>) -> Result<HttpResponse, ApiError> {
+async fn threads(_reader: Reader, query: Query<ThreadsQuery>) -> Result<HttpResponse, ApiError> {
     let units = query.units.unwrap_or_default();
     const SERIES: [&str; 5] = ["coarse", "fine", "unc", "unf", "un8"];
     if let Some(s) = &query.series {
@@ -150,6 +151,7 @@ async fn threads(query: Query<ThreadsQuery>) -> Result<HttpResponse, ApiError> {
 )]
 #[get("/v1/threads/{designation}")]
 async fn thread_detail(
+    _reader: Reader,
     req: HttpRequest,
     query: Query<UnitsQuery>,
 ) -> Result<HttpResponse, ApiError> {
@@ -248,7 +250,7 @@ fn wire_grade(g: &GradeInfo, units: Units) -> PropertyClass {
     responses((status = 200, description = "Property classes", body = Vec<PropertyClass>))
 )]
 #[get("/v1/property-classes")]
-async fn property_classes(query: Query<UnitsQuery>) -> HttpResponse {
+async fn property_classes(_reader: Reader, query: Query<UnitsQuery>) -> HttpResponse {
     let units = query.units.unwrap_or_default();
     let list: Vec<PropertyClass> = grade::property_classes()
         .iter()
@@ -268,6 +270,7 @@ async fn property_classes(query: Query<UnitsQuery>) -> HttpResponse {
 )]
 #[get("/v1/property-classes/{id}")]
 async fn property_class_detail(
+    _reader: Reader,
     req: HttpRequest,
     query: Query<UnitsQuery>,
 ) -> Result<HttpResponse, ApiError> {
@@ -319,7 +322,7 @@ fn wire_method(m: &MethodInfo) -> TighteningMethodWire {
 /// Tightening methods and their scatter.
 #[utoipa::path(tag = "reference", responses((status = 200, description = "Methods", body = Vec<TighteningMethodWire>)))]
 #[get("/v1/tightening-methods")]
-async fn tightening_methods() -> HttpResponse {
+async fn tightening_methods(_reader: Reader) -> HttpResponse {
     cached(METHODS.iter().map(wire_method).collect::<Vec<_>>())
 }
 
@@ -354,7 +357,7 @@ fn wire_material(m: &ClampedMaterial, units: Units) -> Material {
 /// Clamped-part materials with modulus and limiting surface pressure.
 #[utoipa::path(tag = "reference", params(UnitsQuery), responses((status = 200, description = "Materials", body = Vec<Material>)))]
 #[get("/v1/materials")]
-async fn materials(query: Query<UnitsQuery>) -> HttpResponse {
+async fn materials(_reader: Reader, query: Query<UnitsQuery>) -> HttpResponse {
     let units = query.units.unwrap_or_default();
     cached(
         material::clamped_materials()
