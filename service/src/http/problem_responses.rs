@@ -154,4 +154,23 @@ mod tests {
             );
         }
     }
+
+    #[test]
+    fn spec_body_names_its_friction_source() {
+        let doc = serde_json::to_value(crate::http::openapi::document()).expect("json");
+        let ways = &doc["components"]["schemas"]["SpecRequest"]["allOf"][1]["anyOf"];
+        let required: Vec<&serde_json::Value> = ways
+            .as_array()
+            .expect("anyOf")
+            .iter()
+            .map(|w| &w["required"])
+            .collect();
+        assert_eq!(
+            required,
+            [
+                &serde_json::json!(["finish", "lubricant"]),
+                &serde_json::json!(["thread_friction", "bearing_friction"])
+            ]
+        );
+    }
 }
