@@ -60,7 +60,7 @@ pub fn routes(cfg: &mut ServiceConfig) {
 
 /// The application for one worker: routes, extractor error handlers,
 /// middleware (request id outermost, then metrics, the `Accept` check and
-/// the body-read and request deadlines) and the 404 fallback.
+/// the body-read and request deadlines) and the 404/405 fallback.
 pub fn app(
     state: AppState,
 ) -> App<
@@ -94,7 +94,15 @@ pub fn app(
         .wrap(from_fn(request_id::middleware))
 }
 
+/// The fallback: 405 with `Allow` for a known path asked with another
+/// method, 404 for an unknown path.
 async fn not_found(req: actix_web::HttpRequest) -> Result<actix_web::HttpResponse, ApiError> {
+    if let Some(allowed) = crate::http::routes_table::allowed_methods(req.path()) {
+        return Err(ApiError::MethodNotAllowed {
+            method: req.method().to_string(),
+            allowed,
+        });
+    }
     Err(ApiError::not_found(format!(
         "no resource at {} {}; see /openapi.json for the routes",
         req.method(),

@@ -155,8 +155,8 @@ async fn reads_without_token_are_401_when_anonymous_reads_are_off() {
     let r = app.get("/v1/friction-entries").await;
     assert_eq!(r.headers()["www-authenticate"], "Bearer");
     expect_problem(r, 401).await;
-    // Reference tables from the engine stay public.
-    assert_eq!(app.get("/v1/threads/M10").await.status(), 200);
+    // Reference tables need a reader token too (README "Access").
+    expect_problem(app.get("/v1/threads/M10").await, 401).await;
 }
 
 #[tokio::test]

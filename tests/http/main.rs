@@ -19,6 +19,7 @@ mod catalogue_cli;
 mod catalogue_instances;
 mod catalogue_specs;
 mod catalogue_support;
+mod contract;
 mod csv_export;
 mod friction_tests;
 mod friction_tests_notes;

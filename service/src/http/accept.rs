@@ -1,7 +1,10 @@
-//! Content negotiation: the service answers JSON (problems as
-//! `application/problem+json`), `/metrics` as `text/plain` and catalogue
-//! exports as `text/csv`. A request whose `Accept` header admits none of
-//! these gets 406 (RFC 9110 §12.5.1); no `Accept` header means anything.
+//! Content negotiation, per route: `/metrics` answers `text/plain`, the
+//! catalogue export `application/json` or `text/csv`, every other route
+//! `application/json`. A request whose `Accept` header admits none of its
+//! route's types gets 406 (RFC 9110 §15.5.7) as a problem (error bodies are
+//! always `application/problem+json`, RFC 9110 §12.1 lets a server send
+//! an error in a type the client did not ask for); no `Accept` header
+//! means anything.
 
 use actix_web::body::MessageBody;
 use actix_web::dev::{ServiceRequest, ServiceResponse};
@@ -11,16 +14,17 @@ use actix_web::ResponseError;
 
 use super::error::ApiError;
 
-/// Media types the service can produce.
-const PRODUCED: [&str; 4] = [
-    "application/json",
-    "application/problem+json",
-    "text/plain",
-    "text/csv",
-];
+/// The media types a successful answer on `path` can have.
+pub fn produced(path: &str) -> &'static [&'static str] {
+    match path {
+        "/metrics" => &["text/plain"],
+        "/v1/catalogue/export" => &["application/json", "text/csv"],
+        _ => &["application/json"],
+    }
+}
 
-/// Whether an `Accept` header value admits something we produce.
-pub fn acceptable(accept: &str) -> bool {
+/// Whether an `Accept` header value admits one of `produced`.
+pub fn acceptable(accept: &str, produced: &[&str]) -> bool {
     accept.split(',').any(|range| {
         let mut parts = range.split(';');
         let media = parts.next().unwrap_or("").trim().to_ascii_lowercase();
@@ -37,8 +41,8 @@ pub fn acceptable(accept: &str) -> bool {
             return true;
         }
         match media.strip_suffix("/*") {
-            Some(kind) => PRODUCED.iter().any(|p| p.starts_with(&format!("{kind}/"))),
-            None => PRODUCED.contains(&media.as_str()),
+            Some(kind) => produced.iter().any(|p| p.starts_with(&format!("{kind}/"))),
+            None => produced.contains(&media.as_str()),
         }
     })
 }
@@ -52,17 +56,18 @@ pub async fn middleware(
         .headers()
         .get(ACCEPT)
         .map(|v| v.to_str().map(str::to_owned));
+    let produced = produced(req.path());
     let refused = match header {
         None => None,
-        Some(Ok(text)) if acceptable(&text) || text.trim().is_empty() => None,
+        Some(Ok(text)) if acceptable(&text, produced) || text.trim().is_empty() => None,
         Some(Ok(text)) => Some(text),
         Some(Err(_)) => Some("(not readable)".to_string()),
     };
     if let Some(text) = refused {
         let err = ApiError::NotAcceptable {
             detail: format!(
-                "Accept: {text} admits none of the types this service answers with: {}",
-                PRODUCED.join(", ")
+                "Accept: {text} admits none of the types this route answers with: {}",
+                produced.join(", ")
             ),
         };
         return Ok(req
@@ -74,19 +79,25 @@ pub async fn middleware(
 
 #[cfg(test)]
 mod tests {
-    use super::acceptable;
+    use super::{acceptable, produced};
 
     #[test]
     fn common_accept_headers() {
-        assert!(acceptable("*/*"));
-        assert!(acceptable("application/json"));
+        let json = produced("/v1/tightening-specs");
+        assert!(acceptable("*/*", json));
+        assert!(acceptable("application/json", json));
         assert!(acceptable(
-            "text/html,application/xhtml+xml,application/xml;q=0.9,*/*;q=0.8"
+            "text/html,application/xhtml+xml,application/xml;q=0.9,*/*;q=0.8",
+            json
         ));
-        assert!(acceptable("application/*"));
-        assert!(acceptable("text/csv"));
-        assert!(!acceptable("text/html"));
-        assert!(!acceptable("application/xml"));
-        assert!(!acceptable("application/json;q=0"));
+        assert!(acceptable("application/*", json));
+        assert!(!acceptable("text/csv", json));
+        assert!(!acceptable("text/*", json));
+        assert!(!acceptable("text/html", json));
+        assert!(!acceptable("application/xml", json));
+        assert!(!acceptable("application/json;q=0", json));
+        assert!(acceptable("text/csv", produced("/v1/catalogue/export")));
+        assert!(acceptable("text/*", produced("/metrics")));
+        assert!(!acceptable("application/json", produced("/metrics")));
     }
 }

@@ -15,73 +15,13 @@
 use actix_web::http::header::{self, HeaderValue};
 use actix_web::http::StatusCode;
 use actix_web::{HttpResponse, ResponseError};
-use serde::Serialize;
-use utoipa::ToSchema;
 
 use crate::engine::EngineError;
 use crate::http::specs::checks::CheckOut;
 
-/// Media type of every error body (RFC 9457 §3).
-pub const PROBLEM_JSON: &str = "application/problem+json";
+pub use super::problem::{FieldError, Problem};
 
-/// One bad field and why.
-#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
-pub struct FieldError {
-    /// The request field, as the client wrote it (`thread`, `body`,
-    /// `torque_unit`, a JSON path such as `thread_friction.min`, ...).
-    pub field: String,
-    /// Why the value was refused, in plain words.
-    pub reason: String,
-    /// Nearest known names, best first (only for unknown names).
-    #[serde(skip_serializing_if = "Vec::is_empty")]
-    pub suggestions: Vec<String>,
-}
-
-impl FieldError {
-    pub fn new(field: impl Into<String>, reason: impl Into<String>) -> Self {
-        Self {
-            field: field.into(),
-            reason: reason.into(),
-            suggestions: Vec::new(),
-        }
-    }
-
-    pub fn with_suggestions(mut self, suggestions: Vec<String>) -> Self {
-        self.suggestions = suggestions;
-        self
-    }
-}
-
-/// An RFC 9457 problem details object. Also used in place of a result
-/// inside batch responses.
-#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
-pub struct Problem {
-    /// Relative URI reference `/problems/<slug>` identifying the problem type.
-    #[serde(rename = "type")]
-    pub problem_type: String,
-    /// Short, fixed summary of the problem type.
-    pub title: String,
-    /// The HTTP status code.
-    pub status: u16,
-    /// What went wrong with this request.
-    pub detail: String,
-    /// The request path this problem occurred on.
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub instance: Option<String>,
-    /// The request id (same as the `X-Request-Id` header).
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub request_id: Option<String>,
-    /// Every bad field and why.
-    pub errors: Vec<FieldError>,
-    /// For 412: the current state of the resource, so the client can merge.
-    #[serde(skip_serializing_if = "Option::is_none")]
-    #[schema(value_type = Option<Object>)]
-    pub current: Option<serde_json::Value>,
-    /// For a refusal because error checks apply (`/problems/checks-not-accepted`):
-    /// every warning and error check of the answer, with code, severity and sentence.
-    #[serde(skip_serializing_if = "Vec::is_empty")]
-    pub checks: Vec<CheckOut>,
-}
+pub use super::problem::PROBLEM_JSON;
 
 /// Every way a request can fail.
 #[derive(Debug, thiserror::Error)]
@@ -110,6 +50,13 @@ pub enum ApiError {
     NotFound {
         detail: String,
         errors: Vec<FieldError>,
+    },
+    /// 405: the path exists but not with this method; `allowed` lists the
+    /// methods it answers (sent as the `Allow` header).
+    #[error("method not allowed: {method}")]
+    MethodNotAllowed {
+        method: String,
+        allowed: Vec<&'static str>,
     },
     /// 406: no acceptable representation for the `Accept` header.
     #[error("not acceptable: {detail}")]
@@ -215,6 +162,7 @@ impl ApiError {
             Self::Unauthorized { .. } => ("unauthorized", "Authentication required"),
             Self::Forbidden { .. } => ("forbidden", "Not allowed"),
             Self::NotFound { .. } => ("not-found", "Not found"),
+            Self::MethodNotAllowed { .. } => ("method-not-allowed", "Method not allowed"),
             Self::NotAcceptable { .. } => ("not-acceptable", "Not acceptable"),
             Self::RequestTimeout { .. } => ("request-timeout", "Request timeout"),
             Self::Conflict { .. } => ("conflict", "Conflict"),
@@ -297,6 +245,16 @@ impl ApiError {
                 ));
                 detail.clone()
             }
+            Self::MethodNotAllowed { method, allowed } => {
+                errors.push(FieldError::new(
+                    "method",
+                    format!(
+                        "{method} is not answered here; allowed: {}",
+                        allowed.join(", ")
+                    ),
+                ));
+                format!("this path answers {} only", allowed.join(", "))
+            }
             Self::Unavailable { detail, .. } => detail.clone(),
             Self::Internal(_) => {
                 "an internal error occurred; it has been logged with the request id".to_string()
@@ -334,6 +292,7 @@ impl ResponseError for ApiError {
             Self::Unauthorized { .. } => StatusCode::UNAUTHORIZED,
             Self::Forbidden { .. } => StatusCode::FORBIDDEN,
             Self::NotFound { .. } => StatusCode::NOT_FOUND,
+            Self::MethodNotAllowed { .. } => StatusCode::METHOD_NOT_ALLOWED,
             Self::NotAcceptable { .. } => StatusCode::NOT_ACCEPTABLE,
             Self::RequestTimeout { .. } => StatusCode::REQUEST_TIMEOUT,
             Self::Conflict { .. } => StatusCode::CONFLICT,
@@ -375,6 +334,9 @@ impl ResponseError for ApiError {
             // The rest of the body may still be on its way: close.
             Self::RequestTimeout { .. } => {
                 builder.force_close();
+            }
+            Self::MethodNotAllowed { allowed, .. } => {
+                builder.insert_header((header::ALLOW, allowed.join(", ")));
             }
             _ => {}
         }

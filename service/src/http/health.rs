@@ -1,13 +1,21 @@
 //! Operations endpoints: `/healthz` (alive), `/readyz` (store reachable and
 //! catalogue loaded), `/metrics` (Prometheus text format).
+//!
+//! With anonymous reads off: `/healthz` and `/readyz` stay open for probes
+//! (an orchestrator's probe carries no token), but `/readyz` then shows a
+//! caller without a reader token only the status and which checks passed,
+//! not the catalogue revision or entry count; `/metrics` needs a reader
+//! token (scrapers send one as a bearer token).
 
-use actix_web::{get, web, HttpResponse};
+use actix_web::{get, web, HttpRequest, HttpResponse};
 use serde::Serialize;
 use utoipa::ToSchema;
 use utoipa_actix_web::service_config::ServiceConfig;
 
+use super::auth::{Authenticator, Reader};
 use super::error::ApiError;
 use super::state::AppState;
+use crate::store::Role;
 
 pub fn configure(cfg: &mut ServiceConfig) {
     cfg.service(healthz).service(readyz).service(metrics);
@@ -34,8 +42,10 @@ pub struct ReadinessCheck {
 pub struct Readiness {
     /// `ready` or `not ready`.
     pub status: &'static str,
-    /// Catalogue revision served.
-    pub catalogue_revision: i64,
+    /// Catalogue revision served. Left out, with the checks' details, for a
+    /// caller without a reader token when anonymous reads are off.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub catalogue_revision: Option<i64>,
     /// True while the database cannot be reached: answers come from the
     /// catalogue held in memory and may be stale.
     pub catalogue_may_be_stale: bool,
@@ -99,7 +109,7 @@ pub async fn readiness(state: &AppState) -> Readiness {
     let ready = checks.iter().all(|c| c.ok);
     Readiness {
         status: if ready { "ready" } else { "not ready" },
-        catalogue_revision: snapshot.revision,
+        catalogue_revision: Some(snapshot.revision),
         catalogue_may_be_stale: state.catalogue.is_stale(),
         checks,
     }
@@ -115,13 +125,32 @@ pub async fn readiness(state: &AppState) -> Readiness {
     )
 )]
 #[get("/readyz")]
-async fn readyz(state: web::Data<AppState>) -> HttpResponse {
-    let r = readiness(&state).await;
+async fn readyz(state: web::Data<AppState>, req: HttpRequest) -> HttpResponse {
+    let mut r = readiness(&state).await;
+    if !may_read(&req).await {
+        r.catalogue_revision = None;
+        for check in &mut r.checks {
+            check.detail = "details need a reader token (anonymous reads are off)".into();
+        }
+    }
     if r.status == "ready" {
         HttpResponse::Ok().json(r)
     } else {
         HttpResponse::ServiceUnavailable().json(r)
     }
+}
+
+/// Whether the caller may see what the catalogue holds: anonymous reads
+/// on, or a token of role reader or above. Probes stay answered either way.
+async fn may_read(req: &HttpRequest) -> bool {
+    let Some(auth) = req.app_data::<web::Data<Authenticator>>() else {
+        return false;
+    };
+    let header = req
+        .headers()
+        .get(actix_web::http::header::AUTHORIZATION)
+        .and_then(|v| v.to_str().ok());
+    auth.check(header, Role::Reader).await.is_ok()
 }
 
 /// Prometheus metrics in the text exposition format.
@@ -130,7 +159,7 @@ async fn readyz(state: web::Data<AppState>) -> HttpResponse {
     responses((status = 200, description = "Prometheus text format", content_type = "text/plain; version=0.0.4", body = String))
 )]
 #[get("/metrics")]
-async fn metrics(state: web::Data<AppState>) -> Result<HttpResponse, ApiError> {
+async fn metrics(_reader: Reader, state: web::Data<AppState>) -> Result<HttpResponse, ApiError> {
     state
         .metrics
         .set_catalogue_revision(state.catalogue.revision());

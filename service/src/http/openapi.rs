@@ -20,7 +20,9 @@ use super::state::AppState;
 preload range and the friction assumptions behind them, from a versioned friction catalogue. \
 Values are engineering estimates from published methods; confirm them by joint tests on the real \
 parts (ISO 16047, tool capability). The drawing, local codes and licensed engineering practice take precedence. \
-Errors are RFC 9457 problem details (application/problem+json) with type `/problems/<slug>`.",
+Errors are RFC 9457 problem details (application/problem+json) with type `/problems/<slug>`; \
+every operation lists the problem statuses it can answer. Another method on a known path answers 405 \
+with an `Allow` header listing the methods that path answers.",
         license(name = "Apache-2.0", identifier = "Apache-2.0")
     ),
     tags(
@@ -40,7 +42,50 @@ pub fn document() -> utoipa::openapi::OpenApi {
         .openapi(ApiDoc::openapi())
         .configure(crate::startup::routes)
         .split_for_parts();
+    let mut api = api;
+    // After the routes are in: the shared problem responses go on every operation.
+    utoipa::Modify::modify(&super::problem_responses::ProblemResponses, &mut api);
+    require_friction_source(&mut api);
     api
+}
+
+/// A spec body must name where its friction comes from: `finish` and
+/// `lubricant` (catalogue look-up), or both `thread_friction` and
+/// `bearing_friction` given directly (the engine refuses anything else with
+/// 422 naming what is missing). Stated in the schema as an `anyOf` of the
+/// two ways, each with the fields present and not null.
+fn require_friction_source(api: &mut utoipa::openapi::OpenApi) {
+    use utoipa::openapi::schema::{AllOfBuilder, AnyOfBuilder, ObjectBuilder, Schema, Type};
+    use utoipa::openapi::RefOr;
+    let Some(components) = api.components.as_mut() else {
+        return;
+    };
+    let Some(original) = components.schemas.get("SpecRequest").cloned() else {
+        return;
+    };
+    let way = |a: &str, a_schema: RefOr<Schema>, b: &str, b_schema: RefOr<Schema>| {
+        ObjectBuilder::new()
+            .property(a, a_schema)
+            .property(b, b_schema)
+            .required(a)
+            .required(b)
+    };
+    let text = || {
+        RefOr::T(Schema::Object(
+            ObjectBuilder::new().schema_type(Type::String).build(),
+        ))
+    };
+    let friction = || RefOr::Ref(utoipa::openapi::Ref::from_schema_name("FrictionInput"));
+    let ways = AnyOfBuilder::new()
+        .item(way("finish", text(), "lubricant", text()))
+        .item(way("thread_friction", friction(), "bearing_friction", friction()))
+        .description(Some(
+            "Give finish and lubricant (catalogue look-up), or both thread_friction and bearing_friction",
+        ));
+    let combined = AllOfBuilder::new().item(original).item(ways).build();
+    components
+        .schemas
+        .insert("SpecRequest".to_string(), RefOr::T(Schema::AllOf(combined)));
 }
 
 /// The document as pretty JSON with a trailing newline (the committed form).

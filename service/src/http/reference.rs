@@ -13,6 +13,7 @@ use utoipa_actix_web::service_config::ServiceConfig;
 use crate::engine::grade::{self, GradeInfo};
 use crate::engine::thread::{self, ThreadGeometry};
 
+use super::auth::Reader;
 use super::error::ApiError;
 use super::quantity::{Quantity, Units};
 
@@ -46,6 +47,7 @@ pub struct ThreadsQuery {
     #[param(value_type = Option<Units>)]
     pub units: Option<Units>,
     /// Only this series: `coarse`, `fine`, `unc`, `unf`, `un8`.
+    #[param(pattern = "^(coarse|fine|unc|unf|un8)$")]
     pub series: Option<String>,
 }
 
@@ -106,7 +108,7 @@ fn wire_thread(t: &ThreadGeometry, units: Units) -> Thread {
     )
 )]
 #[get("/v1/threads")]
-async fn threads(query: Query<ThreadsQuery>) -> Result<HttpResponse, ApiError> {
+async fn threads(_reader: Reader, query: Query<ThreadsQuery>) -> Result<HttpResponse, ApiError> {
     let units = query.units.unwrap_or_default();
     const SERIES: [&str; 5] = ["coarse", "fine", "unc", "unf", "un8"];
     if let Some(s) = &query.series {
@@ -147,6 +149,7 @@ async fn threads(query: Query<ThreadsQuery>) -> Result<HttpResponse, ApiError> {
 )]
 #[get("/v1/threads/{designation}")]
 async fn thread_detail(
+    _reader: Reader,
     req: HttpRequest,
     query: Query<UnitsQuery>,
 ) -> Result<HttpResponse, ApiError> {
@@ -245,7 +248,7 @@ fn wire_grade(g: &GradeInfo, units: Units) -> PropertyClass {
     responses((status = 200, description = "Property classes", body = Vec<PropertyClass>))
 )]
 #[get("/v1/property-classes")]
-async fn property_classes(query: Query<UnitsQuery>) -> HttpResponse {
+async fn property_classes(_reader: Reader, query: Query<UnitsQuery>) -> HttpResponse {
     let units = query.units.unwrap_or_default();
     let list: Vec<PropertyClass> = grade::property_classes()
         .iter()
@@ -265,6 +268,7 @@ async fn property_classes(query: Query<UnitsQuery>) -> HttpResponse {
 )]
 #[get("/v1/property-classes/{id}")]
 async fn property_class_detail(
+    _reader: Reader,
     req: HttpRequest,
     query: Query<UnitsQuery>,
 ) -> Result<HttpResponse, ApiError> {

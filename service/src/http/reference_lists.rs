@@ -12,6 +12,7 @@ use crate::engine::material::{self, ClampedMaterial};
 use crate::engine::method::{MethodInfo, METHODS};
 use crate::http::extract::Query;
 
+use super::auth::Reader;
 use super::quantity::{Quantity, Units};
 use super::reference::{cached, UnitsQuery};
 
@@ -70,7 +71,7 @@ pub struct TighteningMethodList {
 /// Tightening methods and their scatter.
 #[utoipa::path(tag = "reference", responses((status = 200, description = "Methods", body = TighteningMethodList)))]
 #[get("/v1/tightening-methods")]
-async fn tightening_methods() -> HttpResponse {
+async fn tightening_methods(_reader: Reader) -> HttpResponse {
     cached(TighteningMethodList {
         tightening_methods: METHODS.iter().map(wire_method).collect(),
     })
@@ -113,7 +114,7 @@ pub struct MaterialList {
 /// Clamped-part materials with modulus and limiting surface pressure.
 #[utoipa::path(tag = "reference", params(UnitsQuery), responses((status = 200, description = "Materials", body = MaterialList)))]
 #[get("/v1/materials")]
-async fn materials(query: Query<UnitsQuery>) -> HttpResponse {
+async fn materials(_reader: Reader, query: Query<UnitsQuery>) -> HttpResponse {
     let units = query.units.unwrap_or_default();
     cached(MaterialList {
         materials: material::clamped_materials()
@@ -146,7 +147,7 @@ pub struct BearingTypes {
 /// The bearing-surface choices: head types, washers and hole series.
 #[utoipa::path(tag = "reference", responses((status = 200, description = "Head types, washers and hole series", body = BearingTypes)))]
 #[get("/v1/bearing-types")]
-async fn bearing_types() -> HttpResponse {
+async fn bearing_types(_reader: Reader) -> HttpResponse {
     cached(BearingTypes {
         head_types: bearing::head_types()
             .iter()

@@ -225,6 +225,7 @@ async fn update_entry(
 #[utoipa::path(
     tag = "catalogue",
     params(("id" = i64, Path, description = "Entry id"), ("If-Match" = String, Header, description = "ETag from GET"), RetireQuery),
+    request_body(content = Option<ReasonBody>, description = "Optional: the reason as JSON, in place of `?reason=`; unknown fields are refused"),
     security(("bearer" = [])),
     responses(
         (status = 200, description = "Retired", body = EntryView),
@@ -241,14 +242,17 @@ async fn retire_entry(
     id: web::Path<i64>,
     req: HttpRequest,
     q: Query<RetireQuery>,
-    body: Option<web::Json<ReasonBody>>,
+    body: web::Bytes,
 ) -> Result<HttpResponse, ApiError> {
     let id = id.into_inner();
+    // Read the body before anything else: a body naming an unknown field
+    // is refused (naming it) and nothing is retired.
+    let body = reason_body(&body)?;
     let expected = if_match(req.headers(), &format!("entry-{id}"))?;
     let reason = q
         .into_inner()
         .reason
-        .or(body.map(|b| b.into_inner().reason))
+        .or(body.map(|b| b.reason))
         .unwrap_or_default();
     let set = ChangeSet::single(
         &who.0.name,
@@ -266,6 +270,33 @@ async fn retire_entry(
         applied.snapshot.revision,
         actix_web::http::StatusCode::OK,
     ))
+}
+
+/// The optional `{"reason": …}` body of a retirement: empty or `null`
+/// means none; anything else must be that object, with no other field.
+fn reason_body(bytes: &[u8]) -> Result<Option<ReasonBody>, ApiError> {
+    if bytes.iter().all(u8::is_ascii_whitespace) {
+        return Ok(None);
+    }
+    let value: serde_json::Value = serde_json::from_slice(bytes)
+        .map_err(|e| ApiError::malformed("body", format!("not JSON: {e}")))?;
+    if value.is_null() {
+        return Ok(None);
+    }
+    let body = serde_path_to_error::deserialize(value).map_err(|e| {
+        let path = e.path().to_string();
+        let message = e.into_inner().to_string();
+        let named = ["unknown field `", "missing field `"]
+            .iter()
+            .find_map(|lead| message.split(lead).nth(1))
+            .and_then(|rest| rest.split('`').next())
+            .map(str::to_owned);
+        let field = named
+            .or_else(|| (path != "." && !path.is_empty()).then_some(path))
+            .unwrap_or_else(|| "body".to_string());
+        ApiError::malformed(field, message)
+    })?;
+    Ok(Some(body))
 }
 
 /// Every change to one entry, oldest first: revision, before, after, who,

@@ -106,6 +106,7 @@ pub struct EntryListQuery {
     /// A past revision (default: current).
     pub catalogue_revision: Option<i64>,
     /// `active`, `retired` or `all` (default).
+    #[param(inline)]
     pub status: Option<StatusFilter>,
     pub finish: Option<String>,
     pub lubricant: Option<String>,
@@ -121,6 +122,7 @@ pub struct NoQuery {}
 #[serde(deny_unknown_fields)]
 pub struct RevisionQuery {
     /// A past revision (default: current).
+    #[serde(default, deserialize_with = "crate::http::extract::integral")]
     pub catalogue_revision: Option<i64>,
 }
 
@@ -141,8 +143,10 @@ pub struct ReasonBody {
 #[serde(deny_unknown_fields)]
 pub struct RevisionsQuery {
     /// Only revisions older than this (paging cursor).
+    #[serde(default, deserialize_with = "crate::http::extract::integral")]
     pub before: Option<i64>,
     /// At most this many (1–1000, default 100).
+    #[serde(default, deserialize_with = "crate::http::extract::integral")]
     pub limit: Option<i64>,
 }
 
@@ -164,7 +168,9 @@ pub enum ExportFormat {
 #[serde(deny_unknown_fields)]
 pub struct ExportQuery {
     /// `json` (default) or `csv` (friction entries).
+    #[param(inline)]
     pub format: Option<ExportFormat>,
+    #[serde(default, deserialize_with = "crate::http::extract::integral")]
     pub catalogue_revision: Option<i64>,
     /// CSV only: start with a UTF-8 byte order mark, for spreadsheets that
     /// otherwise guess the encoding (default false).
@@ -185,8 +191,11 @@ fn required<T>(v: Option<T>, field: &str, missing: &mut Vec<FieldError>) -> Opti
 #[derive(Debug, Deserialize, ToSchema)]
 #[serde(deny_unknown_fields)]
 pub struct EntryWrite {
+    #[serde(default, deserialize_with = "crate::http::extract::integral")]
     pub id: Option<i64>,
+    #[serde(default, deserialize_with = "crate::http::extract::integral")]
     pub revision: Option<i64>,
+    #[serde(default, deserialize_with = "crate::http::extract::integral")]
     pub catalogue_revision: Option<i64>,
     pub catalogue_may_be_stale: Option<bool>,
     pub finish: Option<String>,
@@ -250,7 +259,9 @@ impl EntryWrite {
 #[serde(deny_unknown_fields)]
 pub struct FinishWrite {
     pub id: Option<String>,
+    #[serde(default, deserialize_with = "crate::http::extract::integral")]
     pub revision: Option<i64>,
+    #[serde(default, deserialize_with = "crate::http::extract::integral")]
     pub catalogue_revision: Option<i64>,
     pub catalogue_may_be_stale: Option<bool>,
     pub name: Option<String>,
@@ -287,7 +298,9 @@ impl FinishWrite {
 #[serde(deny_unknown_fields)]
 pub struct LubricantWrite {
     pub id: Option<String>,
+    #[serde(default, deserialize_with = "crate::http::extract::integral")]
     pub revision: Option<i64>,
+    #[serde(default, deserialize_with = "crate::http::extract::integral")]
     pub catalogue_revision: Option<i64>,
     pub catalogue_may_be_stale: Option<bool>,
     pub name: Option<String>,

@@ -32,7 +32,7 @@ pub fn configure(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
 #[into_params(parameter_in = Query)]
 pub struct UnitsQuery {
     /// `si` (default) or `us`.
-    #[param(value_type = Option<String>)]
+    #[param(value_type = Option<String>, pattern = "^(si|us)$")]
     pub units: Option<UnitSystem>,
 }
 
@@ -42,8 +42,10 @@ pub struct UnitsQuery {
 #[into_params(parameter_in = Query)]
 pub struct ProposalQuery {
     /// `observed` (min to max of the series) or `three_sigma` (mean ± 3σ).
+    #[param(pattern = "^(observed|three_sigma)$")]
     pub basis: Option<String>,
-    #[param(value_type = Option<String>)]
+    /// `si` (default) or `us`.
+    #[param(value_type = Option<String>, pattern = "^(si|us)$")]
     pub units: Option<UnitSystem>,
 }
 

@@ -93,6 +93,7 @@ pub struct CurvePointRequest {
 #[into_params(parameter_in = Query)]
 pub struct UnitsQuery {
     /// `si` (default) or `us`.
+    #[param(pattern = "^(si|us|SI|US)$")]
     pub units: Option<String>,
 }
 

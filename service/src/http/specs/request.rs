@@ -100,10 +100,12 @@ pub struct SpecRequest {
     /// Property class or grade, e.g. `8.8`, `10.9`, `A2-70`, `SAE J429 Grade 5`.
     #[schema(example = "8.8")]
     pub property_class: String,
-    /// Finish id from the friction catalogue, e.g. `zinc-electroplated`.
+    /// Finish id from the friction catalogue, e.g. `zinc-electroplated`;
+    /// required (with `lubricant`) unless both frictions are given directly.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub finish: Option<String>,
-    /// Lubricant id from the friction catalogue, e.g. `none`, `light-oil`.
+    /// Lubricant id from the friction catalogue, e.g. `none`, `light-oil`;
+    /// required (with `finish`) unless both frictions are given directly.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub lubricant: Option<String>,
     /// Thread friction μ_G: replaces the catalogue value.
@@ -167,7 +169,12 @@ pub struct SpecRequest {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub units: Option<Units>,
     /// Catalogue revision to answer from; default the current one.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
+    #[serde(
+        default,
+        skip_serializing_if = "Option::is_none",
+        deserialize_with = "crate::http::extract::integral"
+    )]
+    #[schema(minimum = 1)]
     pub catalogue_revision: Option<i64>,
 }
 

@@ -66,9 +66,13 @@ macro_rules! spec_query {
             /// Property class or grade, e.g. `8.8`, `A2-70`.
             #[param(example = "8.8")]
             pub property_class: String,
-            /// Finish id from the friction catalogue.
+            /// Finish id from the friction catalogue; required (with
+            /// `lubricant`) unless thread and bearing friction are both
+            /// given directly (422 naming it otherwise).
             pub finish: Option<String>,
-            /// Lubricant id from the friction catalogue.
+            /// Lubricant id from the friction catalogue; required (with
+            /// `finish`) unless thread and bearing friction are both given
+            /// directly (422 naming it otherwise).
             pub lubricant: Option<String>,
             /// One thread friction value μ_G (replaces the catalogue's).
             pub thread_friction: Option<f64>,
@@ -119,6 +123,8 @@ macro_rules! spec_query {
             /// Units of the response: `si` (default) or `us`.
             pub units: Option<Units>,
             /// Catalogue revision to answer from; default the current one.
+            #[serde(default, deserialize_with = "crate::http::extract::integral")]
+            #[param(minimum = 1)]
             pub catalogue_revision: Option<i64>,
             $($(#[$fmeta])* pub $extra: $ety,)*
         }
