@@ -167,6 +167,7 @@ async fn anonymous_reads_off_leaves_only_probes_open(db: &TestDb) {
         "/v1/property-classes/8.8",
         "/v1/tightening-methods",
         "/v1/materials",
+        "/v1/bearing-types",
     ] {
         let r = app.get(path).await;
         assert_eq!(r.status(), StatusCode::UNAUTHORIZED, "{path} anonymous");

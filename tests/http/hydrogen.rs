@@ -24,7 +24,12 @@ async fn checks(
         .expect("checks")
         .iter()
         .map(|c| {
-            assert!(c["message"].as_str().is_some_and(|m| m.len() > 40), "{c}");
+            assert!(
+                c["message"]
+                    .as_str()
+                    .is_some_and(|m| m.len() > 40 && !m.contains("  ")),
+                "{c}"
+            );
             (
                 c["code"].as_str().unwrap().to_string(),
                 c["severity"].as_str().unwrap().to_string(),

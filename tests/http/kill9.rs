@@ -153,6 +153,7 @@ async fn every_acknowledged_write_survives_kill_9(db: &TestDb) {
     numbers.sort_unstable();
     let head = *numbers.last().expect("a revision");
     let first = numbers[0];
+    assert_eq!(first, 1, "history starts at the seed");
     assert_eq!(
         numbers,
         (first..=head).collect::<Vec<_>>(),

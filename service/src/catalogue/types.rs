@@ -55,18 +55,25 @@ pub struct Finish {
 
 impl Finish {
     /// Hot-dip galvanized (ISO 10684). The catalogue has no process field:
-    /// the finish is recognised by its id or name ("hot-dip", "galvanized").
+    /// the finish is recognised by its id or name ("hot-dip", "hot dip",
+    /// or "galvanized" without "electro": electrogalvanizing is plating).
     pub fn hot_dip_galvanized(&self) -> bool {
         let text = format!("{} {}", self.id, self.name).to_lowercase();
-        text.contains("hot-dip") || text.contains("hot dip") || text.contains("galvani")
+        text.contains("hot-dip")
+            || text.contains("hot dip")
+            || (text.contains("galvani") && !text.contains("electro"))
     }
 
     /// Phosphated, pickled or otherwise acid-cleaned before or during
-    /// coating, recognised by id or name ("phosphat", "pickl", "acid").
+    /// coating, recognised by id or name ("phosphat", "pickl", "acid";
+    /// not "acid-free" or "acid free").
     /// Hot-dip galvanizing pickles too, but ISO 10684 excludes the classes
     /// concerned altogether; that check is [`Finish::hot_dip_galvanized`].
     pub fn acid_cleaned(&self) -> bool {
-        let text = format!("{} {}", self.id, self.name).to_lowercase();
+        let text = format!("{} {}", self.id, self.name)
+            .to_lowercase()
+            .replace("acid-free", "")
+            .replace("acid free", "");
         ["phosphat", "pickl", "acid"]
             .iter()
             .any(|w| text.contains(w))
@@ -244,6 +251,27 @@ mod tests {
         let ok: FrictionRange = serde_json::from_str(r#"{"min":0.1,"max":0.2}"#).unwrap();
         assert_eq!(ok.max, 0.2);
         assert!(serde_json::from_str::<FrictionRange>(r#"{"min":0.3,"max":0.2}"#).is_err());
+    }
+
+    #[test]
+    fn coating_process_recognised_by_id_or_name() {
+        let finish = |id: &str, name: &str| Finish {
+            id: id.to_string(),
+            name: name.to_string(),
+            electroplated: false,
+            stainless: false,
+            notes: String::new(),
+            status: Status::Active,
+            revision: 1,
+        };
+        assert!(finish("hot-dip-galvanized", "Hot-dip galvanized").hot_dip_galvanized());
+        assert!(finish("hdg", "Galvanized (zinc bath)").hot_dip_galvanized());
+        // electrogalvanizing is plating, not a zinc bath
+        assert!(!finish("electrogalvanized", "Electrogalvanized").hot_dip_galvanized());
+        assert!(finish("zinc-phosphate", "Zinc phosphate").acid_cleaned());
+        assert!(finish("pickled", "Pickled and oiled").acid_cleaned());
+        assert!(!finish("zinc-flake", "Zinc flake, acid-free process").acid_cleaned());
+        assert!(!finish("plain", "Plain").acid_cleaned());
     }
 
     #[test]

@@ -287,7 +287,10 @@ fn coating_process(i: &CheckInput, out: &mut Vec<Check>) {
             code: "hot_dip_galvanized_class_not_covered",
             severity: Severity::Error,
             message: format!(
-                "Hot-dip galvanizing is not for {} fasteners: ISO 10684 covers hot-dip                  galvanized fasteners up to property class 10.9 only, because the pickling and                  the zinc bath put this strength at risk of cracking. Use class 10.9 or a                  coating without acid and heat, e.g. zinc flake.",
+                "Hot-dip galvanizing is not for {} fasteners: ISO 10684 covers hot-dip \
+                 galvanized fasteners up to property class 10.9 only, because the pickling and \
+                 the zinc bath put this strength at risk of cracking. Use class 10.9 or a \
+                 coating without acid and heat, e.g. zinc flake.",
                 i.strength.id
             ),
         });
@@ -296,7 +299,10 @@ fn coating_process(i: &CheckInput, out: &mut Vec<Check>) {
             code: "acid_cleaning_hydrogen_risk",
             severity: Severity::Warning,
             message: format!(
-                "{} fasteners that were phosphated or otherwise cleaned in acid can take up                  hydrogen and crack after tightening; ISO 4042 treats such processes as a                  hydrogen-embrittlement risk for parts this hard. Ask the supplier for a                  process without acid cleaning, or for baking and an embrittlement test.",
+                "{} fasteners that were phosphated or otherwise cleaned in acid can take up \
+                 hydrogen and crack after tightening; ISO 4042 treats such processes as a \
+                 hydrogen-embrittlement risk for parts this hard. Ask the supplier for a \
+                 process without acid cleaning, or for baking and an embrittlement test.",
                 i.strength.id
             ),
         });
