@@ -123,12 +123,7 @@ async fn threads(query: Query<ThreadsQuery>) -> Result<HttpResponse, ApiError> {
         }
     }
     let list: Vec<Thread> = thread::standard_threads()
-        .filter(|t| {
-            query
-                .series
-                .as_deref()
-                .map_or(true, |s| slug(&t.series) == s)
-        })
+        .filter(|t| query.series.as_deref().is_none_or(|s| slug(&t.series) == s))
         .map(|t| wire_thread(&t, units))
         .collect();
     Ok(cached(list))

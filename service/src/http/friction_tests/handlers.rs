@@ -170,7 +170,7 @@ async fn record(
     let req = body.into_inner();
     let missing: Vec<FieldError> = [("finish", &req.finish), ("lubricant", &req.lubricant)]
         .into_iter()
-        .filter(|(_, v)| v.as_deref().map_or(true, |s| s.trim().is_empty()))
+        .filter(|(_, v)| v.as_deref().is_none_or(|s| s.trim().is_empty()))
         .map(|(f, _)| {
             FieldError::new(
                 f,
