@@ -14,7 +14,7 @@ use crate::engine::calibration::proposal::Basis;
 use crate::http::auth::{Editor, Reader};
 use crate::http::catalogue::{if_match, CatalogueService};
 use crate::http::error::{ApiError, FieldError, Problem};
-use crate::store::friction_tests::{evidence, Application, NewSeries, StoredSeries};
+use crate::store::friction_series::{evidence, Application, NewSeries, StoredSeries};
 
 const TAG: &str = "friction-tests";
 
