@@ -2,10 +2,11 @@
 //! catalogue revisions made from them. Both tables are immutable: the
 //! database refuses UPDATE and DELETE (migration 20261202090000).
 
-use super::backend::dispatch;
-use super::{Store, StoreError};
 use chrono::{DateTime, Utc};
 use serde::Serialize;
+
+use super::backend::dispatch;
+use super::{Store, StoreError};
 
 /// A series to store: the posted series and its evaluation, as JSON text.
 #[derive(Debug, Clone, PartialEq)]
