@@ -2,7 +2,7 @@
 //! and linked to the catalogue revisions made from them. Both backends.
 
 use chrono::Utc;
-use tightspec::store::friction_tests::{evidence, Application, NewSeries};
+use tightspec::store::friction_series::{evidence, Application, NewSeries};
 use tightspec::store::{Store, StoreError};
 
 use crate::on_both_backends;

@@ -127,7 +127,7 @@ pub fn changes_for(current: &Snapshot, file: &ImportFile) -> Vec<ChangeItem> {
                     && x.electroplated == input.electroplated
                     && x.stainless == input.stainless
                     && x.notes == input.notes
-                    && input.status.map_or(true, |s| s == x.status);
+                    && input.status.is_none_or(|s| s == x.status);
                 if !same {
                     out.push(ChangeItem {
                         at,
@@ -158,7 +158,7 @@ pub fn changes_for(current: &Snapshot, file: &ImportFile) -> Vec<ChangeItem> {
                 let same = x.name == input.name
                     && x.dry == input.dry
                     && x.notes == input.notes
-                    && input.status.map_or(true, |s| s == x.status);
+                    && input.status.is_none_or(|s| s == x.status);
                 if !same {
                     out.push(ChangeItem {
                         at,

@@ -125,12 +125,7 @@ async fn threads(_reader: Reader, query: Query<ThreadsQuery>) -> Result<HttpResp
         }
     }
     let list: Vec<Thread> = thread::standard_threads()
-        .filter(|t| {
-            query
-                .series
-                .as_deref()
-                .map_or(true, |s| slug(&t.series) == s)
-        })
+        .filter(|t| query.series.as_deref().is_none_or(|s| slug(&t.series) == s))
         .map(|t| wire_thread(&t, units))
         .collect();
     Ok(cached(list))

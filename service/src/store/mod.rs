@@ -1,35 +1,38 @@
-//! Persistence of the friction catalogue and API tokens (sqlx).
-//! PostgreSQL in production, SQLite as the embedded default; one
-//! interface, [`Store`], whose SQL is shared (`sql.rs`). Catalogue rules
-//! live in `catalogue::apply`; the store only persists what it returns.
+//! Persistence of the friction catalogue, friction test series and API
+//! tokens (sqlx). PostgreSQL in production, SQLite as the embedded default,
+//! behind one [`Store`]. Each query is written once, in the module of its
+//! aggregate, as a method of `Store`:
+//!
+//! - `snapshots` — head revision, current catalogue, catalogue at a
+//!   revision, writing a change set as a new revision, the seed;
+//! - `history` — revisions, one revision's changes, one item's changes;
+//! - `friction_series` — stored friction test series and their uses;
+//! - `tokens` — API tokens.
+//!
+//! `backend` holds what differs between the databases (connecting,
+//! migrations, transaction start, head lock, notification) and the
+//! `dispatch!` that compiles a query body for both. Catalogue rules live in
+//! `catalogue::apply`; the store only persists what it returns.
 
+mod backend;
 pub mod error;
-pub mod friction_tests;
-mod pg;
-mod sql;
-mod sqlite;
+pub mod friction_series;
+mod history;
+mod snapshots;
 pub mod tokens;
 pub mod watch;
 
-use std::path::Path;
-use std::str::FromStr;
-use std::sync::Arc;
-use std::time::Duration;
-
 use chrono::{DateTime, Utc};
 use serde::Serialize;
-use sqlx::postgres::PgPoolOptions;
-use sqlx::sqlite::{SqliteConnectOptions, SqliteJournalMode, SqlitePoolOptions};
 
 use crate::catalogue::{
-    Action, Applied, Change, ChangeItem, ChangeSet, EntityKind, EntryInput, FinishInput, Live,
-    LubricantInput, Snapshot,
+    Action, Change, ChangeItem, ChangeSet, EntityKind, EntryInput, FinishInput, LubricantInput,
+    Snapshot,
 };
+pub use backend::DEFAULT_SQLITE_PATH;
+use backend::{PG_MIGRATOR, SQLITE_MIGRATOR};
 pub use error::{StoreError, RETRY_AFTER_SECS};
 pub use tokens::{Role, TokenInfo};
-
-/// Where the embedded store lives when no database URL is configured.
-pub const DEFAULT_SQLITE_PATH: &str = "./data/tightspec.sqlite";
 
 /// Author recorded for revision 1.
 pub const SEED_ACTOR: &str = "seed";
@@ -75,61 +78,21 @@ pub enum Store {
     Sqlite(sqlx::SqlitePool),
 }
 
-/// How long a request waits for a database connection before the store
-/// reports itself unavailable (writes then get 503 + Retry-After).
-const ACQUIRE_TIMEOUT: Duration = Duration::from_secs(3);
-
 impl Store {
     /// Connects, runs the migrations and writes the seed (revision 1) into
     /// an empty catalogue. `None` → the embedded SQLite file
     /// [`DEFAULT_SQLITE_PATH`] (its directory is created).
+    #[tracing::instrument(skip_all, level = "debug")]
     pub async fn open(url: Option<&str>) -> Result<Store, StoreError> {
         let store = Store::connect(url).await?;
         store.migrate().await?;
         Ok(store)
     }
 
-    /// Connects without migrating.
+    /// Connects without migrating (the URL may hold a password: not logged).
+    #[tracing::instrument(skip_all, level = "debug")]
     pub async fn connect(url: Option<&str>) -> Result<Store, StoreError> {
-        let url = url.map(str::trim).filter(|u| !u.is_empty());
-        match url {
-            Some(u) if u.starts_with("postgres://") || u.starts_with("postgresql://") => {
-                let pool = PgPoolOptions::new()
-                    .max_connections(16)
-                    .acquire_timeout(ACQUIRE_TIMEOUT)
-                    .connect(u)
-                    .await?;
-                Ok(Store::Postgres(pool))
-            }
-            Some(u) if u.starts_with("sqlite:") => Store::sqlite(u).await,
-            Some(u) => Err(StoreError::Internal(format!(
-                "unsupported database URL '{}': use postgres://… or sqlite://…",
-                u.split('@').next_back().unwrap_or("")
-            ))),
-            None => {
-                let path = Path::new(DEFAULT_SQLITE_PATH);
-                if let Some(dir) = path.parent() {
-                    std::fs::create_dir_all(dir).map_err(|e| {
-                        StoreError::Internal(format!("cannot create {}: {e}", dir.display()))
-                    })?;
-                }
-                Store::sqlite(&format!("sqlite://{DEFAULT_SQLITE_PATH}")).await
-            }
-        }
-    }
-
-    async fn sqlite(url: &str) -> Result<Store, StoreError> {
-        let options = SqliteConnectOptions::from_str(url)?
-            .create_if_missing(true)
-            .journal_mode(SqliteJournalMode::Wal)
-            .foreign_keys(true)
-            .busy_timeout(Duration::from_secs(5));
-        let pool = SqlitePoolOptions::new()
-            .max_connections(8)
-            .acquire_timeout(ACQUIRE_TIMEOUT)
-            .connect_with(options)
-            .await?;
-        Ok(Store::Sqlite(pool))
+        backend::connect(url).await
     }
 
     pub fn backend(&self) -> &'static str {
@@ -144,211 +107,22 @@ impl Store {
     /// [`FIRST_CATALOGUE_MIGRATION`] run first, then the seed is written as
     /// revision 1 into an empty catalogue, then the rest, which may write
     /// later catalogue revisions on top of it.
+    #[tracing::instrument(skip(self), level = "debug")]
     pub async fn migrate(&self) -> Result<(), StoreError> {
         match self {
-            Store::Postgres(p) => schema_only(&pg::MIGRATOR).run(p).await?,
-            Store::Sqlite(p) => schema_only(&sqlite::MIGRATOR).run(p).await?,
+            Store::Postgres(p) => schema_only(&PG_MIGRATOR).run(p).await?,
+            Store::Sqlite(p) => schema_only(&SQLITE_MIGRATOR).run(p).await?,
         }
         self.ensure_seeded().await?;
         match self {
-            Store::Postgres(p) => pg::MIGRATOR.run(p).await?,
-            Store::Sqlite(p) => sqlite::MIGRATOR.run(p).await?,
+            Store::Postgres(p) => PG_MIGRATOR.run(p).await?,
+            Store::Sqlite(p) => SQLITE_MIGRATOR.run(p).await?,
         }
         Ok(())
-    }
-
-    /// Writes the seed catalogue as revision 1 when the catalogue is empty.
-    /// Safe when several instances start at once (the head row is locked).
-    pub async fn ensure_seeded(&self) -> Result<(), StoreError> {
-        if self.head().await? > 0 {
-            return Ok(());
-        }
-        let set = seed_change_set();
-        let applied = match self {
-            Store::Postgres(p) => pg::apply(p, &set, true).await?,
-            Store::Sqlite(p) => sqlite::apply(p, &set, true).await?,
-        };
-        if let Some(applied) = applied {
-            let mut expected = Snapshot::seed_revision_1();
-            expected.normalise();
-            if applied.snapshot != expected {
-                return Err(StoreError::Internal(
-                    "the seed written differs from the embedded seed catalogue".into(),
-                ));
-            }
-            tracing::info!(backend = self.backend(), "catalogue seeded as revision 1");
-        }
-        Ok(())
-    }
-
-    /// The catalogue's current revision number (a cheap query; also the
-    /// watcher's health probe).
-    pub async fn head(&self) -> Result<i64, StoreError> {
-        match self {
-            Store::Postgres(p) => pg::head(p).await,
-            Store::Sqlite(p) => sqlite::head(p).await,
-        }
-    }
-
-    pub async fn load_current(&self) -> Result<Snapshot, StoreError> {
-        match self {
-            Store::Postgres(p) => pg::load_current(p).await,
-            Store::Sqlite(p) => sqlite::load_current(p).await,
-        }
-    }
-
-    pub async fn load_at(&self, revision: i64) -> Result<Snapshot, StoreError> {
-        match self {
-            Store::Postgres(p) => pg::load_at(p, revision).await,
-            Store::Sqlite(p) => sqlite::load_at(p, revision).await,
-        }
-    }
-
-    /// Checks and writes a batch as one new revision, in one transaction;
-    /// nothing is written on any error.
-    pub async fn apply(&self, set: &ChangeSet) -> Result<Applied, StoreError> {
-        let applied = match self {
-            Store::Postgres(p) => pg::apply(p, set, false).await?,
-            Store::Sqlite(p) => sqlite::apply(p, set, false).await?,
-        };
-        applied.ok_or_else(|| StoreError::Internal("write skipped".into()))
-    }
-
-    /// As [`Store::apply`], then swaps the new revision into `live` (other
-    /// instances pick it up through the watcher). An outage marks `live`
-    /// as possibly stale.
-    pub async fn apply_live(&self, live: &Live, set: &ChangeSet) -> Result<Applied, StoreError> {
-        match self.apply(set).await {
-            Ok(applied) => {
-                live.set_stale(false);
-                live.swap(applied.snapshot.clone());
-                Ok(applied)
-            }
-            Err(e) => {
-                if e.is_unavailable() {
-                    live.set_stale(true);
-                }
-                Err(e)
-            }
-        }
-    }
-
-    /// The catalogue at `revision`: from memory when cached, else rebuilt
-    /// from history and cached.
-    pub async fn snapshot_at(
-        &self,
-        live: &Live,
-        revision: i64,
-    ) -> Result<Arc<Snapshot>, StoreError> {
-        if let Some(s) = live.at(revision) {
-            return Ok(s);
-        }
-        let s = Arc::new(self.load_at(revision).await?);
-        live.remember(Arc::clone(&s));
-        Ok(s)
-    }
-
-    /// Revisions newest first; `before` is an exclusive cursor.
-    pub async fn revisions(
-        &self,
-        before: Option<i64>,
-        limit: i64,
-    ) -> Result<Vec<RevisionInfo>, StoreError> {
-        let before = before.unwrap_or(i64::MAX);
-        let limit = limit.clamp(1, 1000);
-        match self {
-            Store::Postgres(p) => pg::revisions(p, before, limit).await,
-            Store::Sqlite(p) => sqlite::revisions(p, before, limit).await,
-        }
-    }
-
-    /// The evidence reference (e.g. `friction-test:42`) of each revision
-    /// that last changed an entry of `snapshot`, by revision number; one
-    /// look-up per distinct revision.
-    pub async fn entry_evidence(
-        &self,
-        snapshot: &Snapshot,
-    ) -> Result<std::collections::HashMap<i64, String>, StoreError> {
-        let mut numbers: Vec<i64> = snapshot.entries.iter().map(|e| e.revision).collect();
-        numbers.sort_unstable();
-        numbers.dedup();
-        let mut found = std::collections::HashMap::new();
-        for n in numbers {
-            let info = self.revisions(Some(n.saturating_add(1)), 1).await?;
-            if let Some(evidence) = info
-                .into_iter()
-                .find(|i| i.revision == n)
-                .and_then(|i| i.evidence)
-            {
-                found.insert(n, evidence);
-            }
-        }
-        Ok(found)
-    }
-
-    pub async fn revision(&self, n: i64) -> Result<(RevisionInfo, Vec<HistoryItem>), StoreError> {
-        match self {
-            Store::Postgres(p) => pg::revision(p, n).await,
-            Store::Sqlite(p) => sqlite::revision(p, n).await,
-        }
-    }
-
-    pub async fn history(
-        &self,
-        kind: EntityKind,
-        id: &str,
-    ) -> Result<Vec<HistoryItem>, StoreError> {
-        match self {
-            Store::Postgres(p) => pg::history(p, kind, id).await,
-            Store::Sqlite(p) => sqlite::history(p, kind, id).await,
-        }
-    }
-
-    /// Creates a token; returns it with its secret, which is never stored
-    /// (only its SHA-256) and cannot be shown again.
-    pub async fn create_token(
-        &self,
-        name: &str,
-        role: Role,
-        expires_at: Option<DateTime<Utc>>,
-    ) -> Result<(TokenInfo, String), StoreError> {
-        tokens::valid_name(name).map_err(|reason| {
-            StoreError::Catalogue(crate::catalogue::CatalogueError::invalid_one(
-                "name", reason,
-            ))
-        })?;
-        let secret = tokens::new_secret();
-        let hash = tokens::hash_secret(&secret);
-        let info = match self {
-            Store::Postgres(p) => pg::create_token(p, name, role, expires_at, &hash).await?,
-            Store::Sqlite(p) => sqlite::create_token(p, name, role, expires_at, &hash).await?,
-        };
-        Ok((info, secret))
-    }
-
-    pub async fn list_tokens(&self) -> Result<Vec<TokenInfo>, StoreError> {
-        match self {
-            Store::Postgres(p) => pg::list_tokens(p).await,
-            Store::Sqlite(p) => sqlite::list_tokens(p).await,
-        }
-    }
-
-    pub async fn revoke_token(&self, name_or_id: &str) -> Result<TokenInfo, StoreError> {
-        match self {
-            Store::Postgres(p) => pg::revoke_token(p, name_or_id).await,
-            Store::Sqlite(p) => sqlite::revoke_token(p, name_or_id).await,
-        }
-    }
-
-    /// Looks a presented secret up by its hash (constant-time compare).
-    pub async fn find_token(&self, secret: &str) -> Result<Option<TokenInfo>, StoreError> {
-        match self {
-            Store::Postgres(p) => pg::find_token(p, secret).await,
-            Store::Sqlite(p) => sqlite::find_token(p, secret).await,
-        }
     }
 
     /// Closes the pool (tests and shutdown).
+    #[tracing::instrument(skip(self), level = "debug")]
     pub async fn close(&self) {
         match self {
             Store::Postgres(p) => p.close().await,

@@ -1,12 +1,17 @@
 //! API tokens: roles, secrets and their hashes. A secret is 256 random
 //! bits from the operating system's generator, shown once; only its
 //! SHA-256 is stored, and a presented secret is compared in constant time.
+//! The `api_tokens` queries are at the end, in `impl Store`.
 
 use chrono::{DateTime, Utc};
 use rand::RngCore;
 use serde::{Deserialize, Serialize};
 use sha2::{Digest, Sha256};
 use subtle::ConstantTimeEq;
+
+use super::backend::dispatch;
+use super::{Store, StoreError};
+use crate::catalogue::CatalogueError;
 
 /// What a token may do. Each role includes the ones below it.
 #[derive(
@@ -115,6 +120,141 @@ pub fn valid_name(name: &str) -> Result<(), String> {
         Ok(())
     } else {
         Err("a token name is 1–64 characters of letters, digits, '-', '_', '.', '@'".into())
+    }
+}
+
+const TOKEN_COLUMNS: &str = "id, name, role, created_at, expires_at, revoked_at";
+
+/// An `api_tokens` row (without the hash unless asked for).
+#[derive(sqlx::FromRow)]
+struct TokenRow {
+    id: i64,
+    name: String,
+    role: String,
+    created_at: DateTime<Utc>,
+    expires_at: Option<DateTime<Utc>>,
+    revoked_at: Option<DateTime<Utc>>,
+    #[sqlx(default)]
+    secret_hash: Option<String>,
+}
+
+impl TryFrom<TokenRow> for TokenInfo {
+    type Error = StoreError;
+
+    fn try_from(r: TokenRow) -> Result<Self, StoreError> {
+        let role = &r.role;
+        Ok(TokenInfo {
+            id: r.id,
+            name: r.name,
+            role: Role::parse(role)
+                .ok_or_else(|| StoreError::Internal(format!("unknown role {role}")))?,
+            created_at: r.created_at,
+            expires_at: r.expires_at,
+            revoked_at: r.revoked_at,
+        })
+    }
+}
+
+impl Store {
+    /// Creates a token; returns it with its secret, which is never stored
+    /// (only its SHA-256) and cannot be shown again.
+    #[tracing::instrument(skip(self), level = "debug")]
+    pub async fn create_token(
+        &self,
+        name: &str,
+        role: Role,
+        expires_at: Option<DateTime<Utc>>,
+    ) -> Result<(TokenInfo, String), StoreError> {
+        valid_name(name)
+            .map_err(|reason| StoreError::Catalogue(CatalogueError::invalid_one("name", reason)))?;
+        let secret = new_secret();
+        let hash = hash_secret(&secret);
+        let sql = format!(
+            "INSERT INTO api_tokens (name, role, secret_hash, created_at, expires_at) \
+             VALUES ($1, $2, $3, $4, $5) RETURNING {TOKEN_COLUMNS}"
+        );
+        let inserted: Result<TokenRow, sqlx::Error> = dispatch!(Store, self, |pool| {
+            sqlx::query_as(&sql)
+                .bind(name)
+                .bind(role.as_str())
+                .bind(&hash)
+                .bind(Utc::now())
+                .bind(expires_at)
+                .fetch_one(pool)
+                .await
+        });
+        let row = inserted.map_err(|e| match StoreError::from(e) {
+            StoreError::Conflict { .. } => StoreError::Conflict {
+                field: "name".into(),
+                reason: format!(
+                    "a token named '{name}' already exists (names identify authors in history)"
+                ),
+            },
+            other => other,
+        })?;
+        Ok((row.try_into()?, secret))
+    }
+
+    /// Every token, oldest first.
+    #[tracing::instrument(skip(self), level = "debug")]
+    pub async fn list_tokens(&self) -> Result<Vec<TokenInfo>, StoreError> {
+        let sql = format!("SELECT {TOKEN_COLUMNS} FROM api_tokens ORDER BY id");
+        let rows: Vec<TokenRow> = dispatch!(Store, self, |pool| sqlx::query_as(&sql)
+            .fetch_all(pool)
+            .await?);
+        rows.into_iter().map(TokenInfo::try_from).collect()
+    }
+
+    /// Revokes by name or numeric id; revoking twice keeps the first time.
+    #[tracing::instrument(skip(self), level = "debug")]
+    pub async fn revoke_token(&self, name_or_id: &str) -> Result<TokenInfo, StoreError> {
+        let sql = format!(
+            "UPDATE api_tokens SET revoked_at = $1 WHERE (name = $2 OR CAST(id AS TEXT) = $2) \
+             AND revoked_at IS NULL RETURNING {TOKEN_COLUMNS}"
+        );
+        let revoked: Option<TokenRow> = dispatch!(Store, self, |pool| sqlx::query_as(&sql)
+            .bind(Utc::now())
+            .bind(name_or_id)
+            .fetch_optional(pool)
+            .await?);
+        if let Some(row) = revoked {
+            return row.try_into();
+        }
+        let sql = format!(
+            "SELECT {TOKEN_COLUMNS} FROM api_tokens WHERE name = $1 OR CAST(id AS TEXT) = $1"
+        );
+        let found: Option<TokenRow> = dispatch!(Store, self, |pool| sqlx::query_as(&sql)
+            .bind(name_or_id)
+            .fetch_optional(pool)
+            .await?);
+        match found {
+            Some(row) => row.try_into(),
+            None => Err(StoreError::NotFound {
+                field: "token".into(),
+                reason: format!("no token named or numbered '{name_or_id}'"),
+            }),
+        }
+    }
+
+    /// The token whose secret this is (revoked and expired ones too: the
+    /// caller decides), or `None`. Looked up by hash, then compared in
+    /// constant time.
+    #[tracing::instrument(skip_all, level = "debug")]
+    pub async fn find_token(&self, secret: &str) -> Result<Option<TokenInfo>, StoreError> {
+        let hash = hash_secret(secret);
+        let sql =
+            format!("SELECT {TOKEN_COLUMNS}, secret_hash FROM api_tokens WHERE secret_hash = $1");
+        let found: Option<TokenRow> = dispatch!(Store, self, |pool| sqlx::query_as(&sql)
+            .bind(&hash)
+            .fetch_optional(pool)
+            .await?);
+        let Some(row) = found else {
+            return Ok(None);
+        };
+        match &row.secret_hash {
+            Some(stored) if hashes_match(stored, &hash) => Ok(Some(row.try_into()?)),
+            _ => Ok(None),
+        }
     }
 }
 

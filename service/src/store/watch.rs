@@ -64,7 +64,7 @@ async fn listen(pool: &sqlx::PgPool) -> Option<PgListener> {
             return None;
         }
     };
-    match l.listen(super::pg::CHANNEL).await {
+    match l.listen(super::backend::CHANNEL).await {
         Ok(()) => Some(l),
         Err(e) => {
             tracing::debug!(error = %e, "LISTEN failed");

@@ -90,7 +90,7 @@ trait NoneOrEq {
 
 impl NoneOrEq for Option<&String> {
     fn is_none_or_eq(&self, v: &str) -> bool {
-        self.map_or(true, |s| s == v)
+        self.is_none_or(|s| s == v)
     }
 }
 

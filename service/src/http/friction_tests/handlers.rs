@@ -14,7 +14,7 @@ use crate::engine::calibration::proposal::Basis;
 use crate::http::auth::{Editor, Reader};
 use crate::http::catalogue::{if_match, CatalogueService};
 use crate::http::error::{ApiError, FieldError, Problem};
-use crate::store::friction_tests::{evidence, Application, NewSeries, StoredSeries};
+use crate::store::friction_series::{evidence, Application, NewSeries, StoredSeries};
 
 const TAG: &str = "friction-tests";
 
@@ -172,7 +172,7 @@ async fn record(
     let req = body.into_inner();
     let missing: Vec<FieldError> = [("finish", &req.finish), ("lubricant", &req.lubricant)]
         .into_iter()
-        .filter(|(_, v)| v.as_deref().map_or(true, |s| s.trim().is_empty()))
+        .filter(|(_, v)| v.as_deref().is_none_or(|s| s.trim().is_empty()))
         .map(|(f, _)| {
             FieldError::new(
                 f,

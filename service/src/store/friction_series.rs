@@ -4,8 +4,8 @@
 
 use chrono::{DateTime, Utc};
 use serde::Serialize;
-use sqlx::Row;
 
+use super::backend::dispatch;
 use super::{Store, StoreError};
 
 /// A series to store: the posted series and its evaluation, as JSON text.
@@ -22,7 +22,7 @@ pub struct NewSeries {
 }
 
 /// A stored series.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, sqlx::FromRow)]
 pub struct StoredSeries {
     pub id: i64,
     pub created_at: DateTime<Utc>,
@@ -37,7 +37,7 @@ pub struct StoredSeries {
 }
 
 /// A catalogue revision made from a series.
-#[derive(Debug, Clone, PartialEq, Serialize, utoipa::ToSchema)]
+#[derive(Debug, Clone, PartialEq, Serialize, utoipa::ToSchema, sqlx::FromRow)]
 pub struct Application {
     pub series_id: i64,
     pub revision: i64,
@@ -58,49 +58,6 @@ pub fn evidence(id: i64) -> String {
 const SERIES_COLUMNS: &str = "SELECT id, created_at, actor, thread, property_class, finish, \
      lubricant, catalogue_revision, series_json, evaluation_json FROM friction_test_series";
 
-macro_rules! rows {
-    ($row:expr) => {{
-        let row = $row;
-        StoredSeries {
-            id: row.try_get("id")?,
-            created_at: row.try_get("created_at")?,
-            actor: row.try_get("actor")?,
-            thread: row.try_get("thread")?,
-            property_class: row.try_get("property_class")?,
-            finish: row.try_get("finish")?,
-            lubricant: row.try_get("lubricant")?,
-            catalogue_revision: row.try_get("catalogue_revision")?,
-            series_json: row.try_get("series_json")?,
-            evaluation_json: row.try_get("evaluation_json")?,
-        }
-    }};
-}
-
-macro_rules! application {
-    ($row:expr) => {{
-        let row = $row;
-        Application {
-            series_id: row.try_get("series_id")?,
-            revision: row.try_get("revision")?,
-            entry_id: row.try_get("entry_id")?,
-            basis: row.try_get("basis")?,
-            actor: row.try_get("actor")?,
-            reason: row.try_get("reason")?,
-            created_at: row.try_get("created_at")?,
-        }
-    }};
-}
-
-// The same portable SQL ($n placeholders, RETURNING) for both backends.
-macro_rules! on_pool {
-    ($store:expr, |$pool:ident| $body:expr) => {
-        match $store {
-            Store::Postgres($pool) => $body,
-            Store::Sqlite($pool) => $body,
-        }
-    };
-}
-
 const INSERT_SERIES: &str = "INSERT INTO friction_test_series (created_at, actor, thread, \
      property_class, finish, lubricant, catalogue_revision, series_json, evaluation_json) \
      VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9) RETURNING id";
@@ -113,34 +70,32 @@ const APPLICATIONS: &str = "SELECT series_id, revision, entry_id, basis, actor, 
 
 impl Store {
     /// Stores a series; returns it with its id and time.
+    #[tracing::instrument(skip_all, level = "debug", fields(actor = %s.actor, thread = %s.thread))]
     pub async fn insert_friction_test(&self, s: &NewSeries) -> Result<StoredSeries, StoreError> {
         let now = Utc::now();
-        let id: i64 = on_pool!(self, |pool| {
-            sqlx::query_scalar(INSERT_SERIES)
-                .bind(now)
-                .bind(&s.actor)
-                .bind(&s.thread)
-                .bind(&s.property_class)
-                .bind(&s.finish)
-                .bind(&s.lubricant)
-                .bind(s.catalogue_revision)
-                .bind(&s.series_json)
-                .bind(&s.evaluation_json)
-                .fetch_one(pool)
-                .await?
-        });
+        let id: i64 = dispatch!(Store, self, |pool| sqlx::query_scalar(INSERT_SERIES)
+            .bind(now)
+            .bind(&s.actor)
+            .bind(&s.thread)
+            .bind(&s.property_class)
+            .bind(&s.finish)
+            .bind(&s.lubricant)
+            .bind(s.catalogue_revision)
+            .bind(&s.series_json)
+            .bind(&s.evaluation_json)
+            .fetch_one(pool)
+            .await?);
         self.friction_test(id).await
     }
 
     /// A stored series by id (`NotFound` naming `id`).
+    #[tracing::instrument(skip(self), level = "debug")]
     pub async fn friction_test(&self, id: i64) -> Result<StoredSeries, StoreError> {
         let sql = format!("{SERIES_COLUMNS} WHERE id = $1");
-        let found = on_pool!(self, |pool| {
-            match sqlx::query(&sql).bind(id).fetch_optional(pool).await? {
-                Some(row) => Some(rows!(row)),
-                None => None,
-            }
-        });
+        let found: Option<StoredSeries> = dispatch!(Store, self, |pool| sqlx::query_as(&sql)
+            .bind(id)
+            .fetch_optional(pool)
+            .await?);
         found.ok_or_else(|| StoreError::NotFound {
             field: "id".into(),
             reason: format!("no friction test series {id}"),
@@ -148,40 +103,34 @@ impl Store {
     }
 
     /// Records that `a.revision` was made from series `a.series_id`.
+    #[tracing::instrument(skip(self), level = "debug")]
     pub async fn record_friction_test_application(
         &self,
         a: &Application,
     ) -> Result<(), StoreError> {
-        on_pool!(self, |pool| {
-            sqlx::query(INSERT_APPLICATION)
-                .bind(a.series_id)
-                .bind(a.revision)
-                .bind(a.entry_id)
-                .bind(&a.basis)
-                .bind(&a.actor)
-                .bind(&a.reason)
-                .bind(a.created_at)
-                .execute(pool)
-                .await?;
-        });
+        dispatch!(Store, self, |pool| sqlx::query(INSERT_APPLICATION)
+            .bind(a.series_id)
+            .bind(a.revision)
+            .bind(a.entry_id)
+            .bind(&a.basis)
+            .bind(&a.actor)
+            .bind(&a.reason)
+            .bind(a.created_at)
+            .execute(pool)
+            .await
+            .map(drop)?);
         Ok(())
     }
 
     /// Catalogue revisions made from a series, oldest first.
+    #[tracing::instrument(skip(self), level = "debug")]
     pub async fn friction_test_applications(
         &self,
         series_id: i64,
     ) -> Result<Vec<Application>, StoreError> {
-        let mut out = Vec::new();
-        on_pool!(self, |pool| {
-            for row in sqlx::query(APPLICATIONS)
-                .bind(series_id)
-                .fetch_all(pool)
-                .await?
-            {
-                out.push(application!(row));
-            }
-        });
-        Ok(out)
+        Ok(dispatch!(Store, self, |pool| sqlx::query_as(APPLICATIONS)
+            .bind(series_id)
+            .fetch_all(pool)
+            .await?))
     }
 }
