@@ -20,6 +20,7 @@ use crate::http::specs::batch::read_item;
 use crate::http::specs::handlers::compute_one;
 use crate::http::specs::item_error::ItemError;
 use crate::http::specs::request::{quantity_from_query, SpecQuery, SpecRequest};
+use crate::http::specs::response::spec_response;
 
 fn config() -> Config {
     let cases = std::env::var("TIGHTSPEC_FUZZ_CASES")
@@ -43,9 +44,47 @@ fn items_name_fields(errors: &[ItemError]) -> bool {
 }
 
 /// Computes an accepted request; a refusal must name its fields.
+/// An accepted one is rendered as the spec answer, and every number in it
+/// must be finite: the walk visits each value of the JSON answer, and a
+/// non-finite figure would have become `null` (serde_json writes NaN and
+/// infinity so), which the answer never holds otherwise.
 fn computes_or_names(req: &SpecRequest, seed: &Snapshot) -> Result<(), TestCaseError> {
-    if let Err(errors) = compute_one(req, seed) {
-        prop_assert!(items_name_fields(&errors.0), "{:?}", errors.0);
+    match compute_one(req, seed) {
+        Err(errors) => prop_assert!(items_name_fields(&errors.0), "{:?}", errors.0),
+        Ok((resolved, spec)) => {
+            let answer = serde_json::to_value(spec_response(&spec, &resolved, false))
+                .map_err(|e| TestCaseError::fail(e.to_string()))?;
+            let mut numbers = 0;
+            every_number_finite(&answer, "answer", &mut numbers)?;
+            prop_assert!(numbers >= 10, "only {numbers} numbers in {answer}");
+        }
+    }
+    Ok(())
+}
+
+fn every_number_finite(
+    v: &serde_json::Value,
+    path: &str,
+    numbers: &mut usize,
+) -> Result<(), TestCaseError> {
+    use serde_json::Value;
+    match v {
+        Value::Null => prop_assert!(false, "{path} is null (a non-finite figure?)"),
+        Value::Number(n) => {
+            *numbers += 1;
+            prop_assert!(n.as_f64().is_some_and(f64::is_finite), "{path} = {n}");
+        }
+        Value::Array(items) => {
+            for (i, item) in items.iter().enumerate() {
+                every_number_finite(item, &format!("{path}[{i}]"), numbers)?;
+            }
+        }
+        Value::Object(map) => {
+            for (k, item) in map {
+                every_number_finite(item, &format!("{path}.{k}"), numbers)?;
+            }
+        }
+        Value::Bool(_) | Value::String(_) => {}
     }
     Ok(())
 }
@@ -231,4 +270,73 @@ proptest! {
             }
         }
     }
+}
+
+/// A plausible spec request: every figure its answer holds is walked.
+fn plausible_request() -> impl Strategy<Value = serde_json::Value> {
+    let threads = prop::sample::select(vec!["M5", "M6", "M8", "M10", "M12", "M16", "M20", "M24"]);
+    let classes = prop::sample::select(vec!["8.8", "10.9", "12.9", "A2-70"]);
+    let pairs = prop::sample::select(vec![
+        ("plain", "light-oil"),
+        ("plain", "mos2-paste"),
+        ("zinc-electroplated", "none"),
+        ("zinc-flake", "light-oil"),
+        ("phosphate-oil", "none"),
+    ]);
+    let methods = prop::sample::select(
+        crate::engine::method::METHODS
+            .iter()
+            .map(|m| m.id)
+            .collect::<Vec<_>>(),
+    );
+    let materials = prop::sample::select(vec!["steel", "steel-s355", "cast-iron-gjl-250"]);
+    (
+        threads,
+        classes,
+        pairs,
+        methods,
+        materials,
+        0.5f64..8.0,
+        any::<bool>(),
+        0.5f64..0.95,
+    )
+        .prop_map(
+            |(thread, class, (finish, lubricant), method, material, clamp_per_d, us, utilisation)| {
+                let d: f64 = thread[1..].parse().unwrap_or(10.0);
+                serde_json::json!({
+                    "thread": thread,
+                    "property_class": class,
+                    "finish": finish,
+                    "lubricant": lubricant,
+                    "tightening_method": method,
+                    "clamped_material": material,
+                    "clamp_length": {"value": (clamp_per_d * d * 10.0).round() / 10.0, "unit": "mm"},
+                    "utilisation": utilisation,
+                    "units": if us { "us" } else { "si" },
+                })
+            },
+        )
+}
+
+proptest! {
+    #![proptest_config(Config { cases: 256, failure_persistence: None, ..Config::default() })]
+
+    /// Runs in every `cargo test`: plausible requests that compute give an
+    /// answer whose every number is finite.
+    #[test]
+    fn every_number_of_a_computed_answer_is_finite(body in plausible_request()) {
+        let req: SpecRequest = serde_json::from_value(body.clone())
+            .map_err(|e| TestCaseError::fail(format!("{body}: {e}")))?;
+        computes_or_names(&req, &Snapshot::seed())?;
+    }
+}
+
+#[test]
+fn the_walk_refuses_null_and_counts_numbers() {
+    let mut n = 0;
+    let ok = serde_json::json!({"a": [1.5, {"b": 2}], "c": "x"});
+    assert!(every_number_finite(&ok, "answer", &mut n).is_ok());
+    assert_eq!(n, 2);
+    let bad = serde_json::json!({"window": {"lower": null}});
+    assert!(every_number_finite(&bad, "answer", &mut n).is_err());
 }
