@@ -29,8 +29,16 @@ fn temp_file(name: &str, text: &str) -> std::path::PathBuf {
 }
 
 #[tokio::test]
-async fn tokens_and_catalogue_import_export_from_the_command_line() {
-    let db = TestDb::sqlite();
+async fn tokens_and_catalogue_import_export_from_the_command_line_sqlite() {
+    command_line(TestDb::sqlite(), "sqlite");
+}
+
+#[tokio::test]
+async fn tokens_and_catalogue_import_export_from_the_command_line_postgres() {
+    command_line(TestDb::postgres().await, "postgres");
+}
+
+fn command_line(db: TestDb, backend: &str) {
     let o = tightspec(&db, &["migrate"]);
     assert!(o.status.success(), "{}", stderr(&o));
     let migrated = stdout(&o);
@@ -91,7 +99,7 @@ async fn tokens_and_catalogue_import_export_from_the_command_line() {
     let o = tightspec(&db, &["catalogue", "export", "--format", "csv"]);
     assert!(o.status.success(), "{}", stderr(&o));
     let csv = stdout(&o);
-    let same = temp_file("same.csv", &csv);
+    let same = temp_file(&format!("{backend}_same.csv"), &csv);
     let o = tightspec(
         &db,
         &[
@@ -114,7 +122,7 @@ async fn tokens_and_catalogue_import_export_from_the_command_line() {
         1,
     );
     assert_ne!(edited, csv);
-    let edited_file = temp_file("edited.csv", &edited);
+    let edited_file = temp_file(&format!("{backend}_edited.csv"), &edited);
     let o = tightspec(
         &db,
         &[
@@ -137,7 +145,7 @@ async fn tokens_and_catalogue_import_export_from_the_command_line() {
         "{}\n7,zinc-electroplated,none,,0.7,0.2,0.14,0.24,,,src,,active,\n,plain,oyl,,0.1,0.2,0.1,0.2,,,src,,active,\n",
         csv.lines().next().unwrap()
     );
-    let file = temp_file("bad.csv", &bad);
+    let file = temp_file(&format!("{backend}_bad.csv"), &bad);
     let o = tightspec(
         &db,
         &[
