@@ -160,3 +160,35 @@ async fn a_flood_of_idle_connections_leaves_healthz_answering() {
     let (_, closed) = read_until_closed(&mut first).await;
     assert!(closed, "an idle connection was kept open");
 }
+
+#[tokio::test]
+async fn a_stalled_retirement_body_gets_408_and_retires_nothing() {
+    // The one route that reads its body raw (DELETE with an optional
+    // reason) answers the same problem as the JSON routes.
+    let app = short_deadlines(1, 30).await;
+    let secret = crate::catalogue_support::token(
+        &app.db,
+        "hollowmere-retirer",
+        tightspec::store::Role::Editor,
+    )
+    .await;
+    let entry = app.get_json("/v1/friction-entries/1").await;
+    let mut s = TcpStream::connect(("127.0.0.1", app.port)).await.unwrap();
+    let started = Instant::now();
+    let head = format!(
+        "DELETE /v1/friction-entries/1 HTTP/1.1\r\nHost: localhost\r\n\
+         Authorization: Bearer {secret}\r\nIf-Match: \"entry-1-r{}\"\r\n\
+         Content-Type: application/json\r\nContent-Length: 1000\r\n\r\n",
+        entry["revision"]
+    );
+    s.write_all(head.as_bytes()).await.unwrap();
+    s.write_all(br#"{"reason":"#).await.unwrap();
+    let (answer, closed) = read_until_closed(&mut s).await;
+    assert!(closed, "the connection stayed open: {answer}");
+    assert!(started.elapsed() < BOUND, "{:?}", started.elapsed());
+    assert!(answer.starts_with("HTTP/1.1 408"), "{answer}");
+    assert!(answer.contains("/problems/request-timeout"), "{answer}");
+    let after = app.get_json("/v1/friction-entries/1").await;
+    assert_eq!(after["status"], "active", "{after}");
+    assert_eq!(after["revision"], entry["revision"]);
+}

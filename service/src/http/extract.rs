@@ -62,19 +62,40 @@ pub fn json_error(err: JsonPayloadError, limit_bytes: usize) -> ApiError {
             let field = field_in_message(&message).unwrap_or_else(|| "body".to_string());
             ApiError::malformed(field, message)
         }
-        JsonPayloadError::Payload(e) => {
-            if matches!(e, actix_web::error::PayloadError::Overflow) {
-                ApiError::PayloadTooLarge { limit_bytes }
-            } else if super::deadline::is_body_timeout(&e) {
-                ApiError::RequestTimeout {
-                    detail: e.to_string(),
-                }
-            } else {
-                ApiError::malformed("body", format!("could not read the body: {e}"))
-            }
-        }
+        JsonPayloadError::Payload(e) => payload_error(e, limit_bytes),
         other => ApiError::malformed("body", other.to_string()),
     }
+}
+
+fn payload_error(e: actix_web::error::PayloadError, limit_bytes: usize) -> ApiError {
+    if matches!(e, actix_web::error::PayloadError::Overflow) {
+        ApiError::PayloadTooLarge { limit_bytes }
+    } else if super::deadline::is_body_timeout(&e) {
+        ApiError::RequestTimeout {
+            detail: e.to_string(),
+        }
+    } else {
+        ApiError::malformed("body", format!("could not read the body: {e}"))
+    }
+}
+
+/// A raw body read whole, with the same problems as a JSON body: over
+/// `limit_bytes` is 413, not received within the body-read deadline is 408
+/// (`web::Bytes` would answer actix's own plain-text errors instead).
+pub async fn body_bytes(
+    mut payload: web::Payload,
+    limit_bytes: usize,
+) -> Result<web::Bytes, ApiError> {
+    use futures_util::StreamExt;
+    let mut body = web::BytesMut::new();
+    while let Some(chunk) = payload.next().await {
+        let chunk = chunk.map_err(|e| payload_error(e, limit_bytes))?;
+        if body.len() + chunk.len() > limit_bytes {
+            return Err(ApiError::PayloadTooLarge { limit_bytes });
+        }
+        body.extend_from_slice(&chunk);
+    }
+    Ok(body.freeze())
 }
 
 /// [`query_error`], naming the parameter whose value serde refused when

@@ -238,16 +238,18 @@ async fn update_entry(
 #[delete("/v1/friction-entries/{id}")]
 async fn retire_entry(
     svc: web::Data<CatalogueService>,
+    state: web::Data<crate::http::state::AppState>,
     who: Editor,
     id: web::Path<i64>,
     req: HttpRequest,
     q: Query<RetireQuery>,
-    body: web::Bytes,
+    payload: web::Payload,
 ) -> Result<HttpResponse, ApiError> {
     let id = id.into_inner();
     // Read the body before anything else: a body naming an unknown field
     // is refused (naming it) and nothing is retired.
-    let body = reason_body(&body)?;
+    let limit = state.config.max_body_bytes;
+    let body = reason_body(&crate::http::extract::body_bytes(payload, limit).await?)?;
     let expected = if_match(req.headers(), &format!("entry-{id}"))?;
     let reason = q
         .into_inner()
