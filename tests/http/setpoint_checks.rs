@@ -198,6 +198,55 @@ async fn window_held_by_the_tool(app: TestApp) {
         }
     }
     assert!(warned > 0, "some resolution gives fewer than two steps");
+
+    // The same for the angle window of torque-angle tightening.
+    let base = "thread=M10&property_class=8.8&finish=zinc-electroplated&lubricant=none\
+        &tightening_method=torque-angle&clamp_length=40mm&joint_outer_diameter=30mm\
+        &clamped_material=steel-s355";
+    let spec = app.get_json(&format!("/v1/tightening-specs?{base}")).await;
+    let width = spec["angle"]["max"]["value"].as_f64().unwrap()
+        - spec["angle"]["min"]["value"].as_f64().unwrap();
+    let (mut warned, mut single) = (0, 0);
+    for halves in 1..=40 {
+        let res = f64::from(halves) / 2.0;
+        let r = app
+            .get(&format!("/v1/setpoints?{base}&angle_resolution={res}"))
+            .await;
+        let status = r.status().as_u16();
+        let body: Value = r.json().await.unwrap();
+        let found = codes(&body["checks"]);
+        if status == 200 {
+            let narrow = width < 2.0 * res;
+            assert_eq!(
+                found.contains(&"setpoint_angle_window_under_two_steps"),
+                narrow,
+                "{res}: {body}"
+            );
+            assert_ne!(body["angle"]["min"], body["angle"]["max"], "{body}");
+            warned += usize::from(narrow);
+        } else {
+            assert_eq!(status, 422, "{body}");
+            let zero = found.contains(&"setpoint_angle_window_zero_width");
+            assert!(
+                zero || body["errors"][0]["field"] == "angle_resolution",
+                "{body}"
+            );
+            if zero {
+                single += 1;
+                let accepted = app
+                    .get_json(&format!(
+                        "/v1/setpoints?{base}&angle_resolution={res}\
+                         &accept_checks=setpoint_angle_window_zero_width"
+                    ))
+                    .await;
+                assert_eq!(
+                    accepted["angle"]["min"], accepted["angle"]["max"],
+                    "{accepted}"
+                );
+            }
+        }
+    }
+    assert!(warned > 0 && single > 0, "warned {warned}, single {single}");
 }
 
 #[tokio::test]

@@ -17,6 +17,12 @@ use super::quantity::FrictionRange;
 use super::thread::ThreadGeometry;
 use super::window::{ClampLoadVerdict, TorqueWindow};
 
+mod held;
+pub use held::{
+    tool_angle_window, tool_window, ANGLE_WINDOW_UNDER_TWO_STEPS, ANGLE_WINDOW_ZERO_WIDTH,
+    WINDOW_UNDER_TWO_STEPS, WINDOW_ZERO_WIDTH,
+};
+
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Severity {
@@ -81,13 +87,8 @@ const HYDROGEN_RM_MPA: f64 = 1000.0;
 
 /// Code of the check that the angle window reaches the yield angle.
 pub const ANGLE_MAY_YIELD: &str = "angle_may_yield_bolt";
-/// Code of the warning that a tool's window holds fewer than two steps.
-pub const WINDOW_UNDER_TWO_STEPS: &str = "setpoint_window_under_two_steps";
-/// Code of the error that rounding left lower = target = upper.
-pub const WINDOW_ZERO_WIDTH: &str = "setpoint_window_zero_width";
-
 /// Every code a check can have (the names `accept_checks` may use).
-pub const CODES: [&str; 14] = [
+pub const CODES: [&str; 16] = [
     "surface_pressure_exceeded",
     "surface_pressure_not_checked",
     "thread_engagement_too_short",
@@ -102,47 +103,9 @@ pub const CODES: [&str; 14] = [
     ANGLE_MAY_YIELD,
     WINDOW_UNDER_TWO_STEPS,
     WINDOW_ZERO_WIDTH,
+    ANGLE_WINDOW_UNDER_TWO_STEPS,
+    ANGLE_WINDOW_ZERO_WIDTH,
 ];
-
-/// Checks of a torque window as a tool holds it, in the tool's unit: the
-/// window before rounding (`lower`, `upper`) and after (`rounded`), and the
-/// tool's resolution. Fewer than two steps fit in a window narrower than
-/// two steps (a warning: the tool can hardly tell a good joint from a bad
-/// one); a window that rounds to one value has no tolerance left at all
-/// (an error). Both rules are common practice.
-pub fn tool_window(
-    lower: f64,
-    upper: f64,
-    rounded: (f64, f64, f64),
-    resolution: f64,
-    unit: &str,
-) -> Option<Check> {
-    let (lo, target, up) = rounded;
-    if lo == target && target == up {
-        return Some(Check {
-            code: WINDOW_ZERO_WIDTH,
-            severity: Severity::Error,
-            message: format!(
-                "At a resolution of {resolution} {unit} the window {lower:.3}–{upper:.3} {unit} \
-                 rounds to the single value {target} {unit}: lower, target and upper are the \
-                 same, so the tool has no tolerance to accept or reject a joint. Use a tool \
-                 with a finer resolution or a method with less scatter."
-            ),
-        });
-    }
-    if upper - lower < 2.0 * resolution {
-        return Some(Check {
-            code: WINDOW_UNDER_TWO_STEPS,
-            severity: Severity::Warning,
-            message: format!(
-                "The window {lower:.3}–{upper:.3} {unit} is narrower than two steps of the \
-                 tool's resolution ({resolution} {unit}): the tool can barely tell a joint \
-                 inside the window from one outside. A finer resolution is advisable."
-            ),
-        });
-    }
-    None
-}
 
 /// Property class 12.9 and stronger: Rm,min 1220 MPa for 12.9 (ISO 898-1:2013,
 /// Table 3). ISO 10684 covers hot-dip galvanized fasteners up to class 10.9

@@ -202,3 +202,19 @@ fn acid_cleaned_12_9_is_a_warning_and_10_9_passes() {
     i.acid_cleaned = true;
     assert!(run(&i).is_empty());
 }
+
+#[test]
+fn tool_angle_window_warns_below_two_steps_and_refuses_one_value() {
+    let zero = tool_angle_window(30.3, 39.2, (35.0, 35.0), 5.0).unwrap();
+    assert_eq!(
+        (zero.code, zero.severity),
+        (ANGLE_WINDOW_ZERO_WIDTH, Severity::Error)
+    );
+    assert!(zero.message.contains("35°"), "{}", zero.message);
+    let narrow = tool_angle_window(30.3, 39.2, (31.5, 36.0), 4.5).unwrap();
+    assert_eq!(
+        (narrow.code, narrow.severity),
+        (ANGLE_WINDOW_UNDER_TWO_STEPS, Severity::Warning)
+    );
+    assert!(tool_angle_window(30.3, 39.2, (32.0, 36.0), 4.0).is_none());
+}

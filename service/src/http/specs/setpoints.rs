@@ -12,7 +12,7 @@ use utoipa::ToSchema;
 
 use crate::engine::angle::AngleOutcome;
 use crate::engine::cautions::Caution;
-use crate::engine::checks::tool_window;
+use crate::engine::checks::{tool_angle_window, tool_window};
 use crate::engine::spec::Spec;
 use crate::http::error::ApiError;
 use crate::http::quantity::{Quantity, TorqueUnit};
@@ -134,10 +134,9 @@ pub fn setpoints(
     let sym = unit.symbol();
     let held = (rounded.lower, rounded.target, rounded.upper);
     let window_check = tool_window(lower, upper, held, res, sym);
-    let checks = checks_out(spec.checks.iter().chain(&window_check));
-    let accepted_checks = gate(&checks, tool.accept)?;
     let q = |v: f64| Quantity::new(v, sym);
 
+    let mut angle_check = None;
     let angle = if spec.method.torque_controlled {
         None
     } else {
@@ -147,6 +146,7 @@ pub fn setpoints(
                 let hi = a.angle_max.get::<uom::si::angle::degree>();
                 let r = round_window(lo, (lo + hi) / 2.0, hi, angle_res)
                     .map_err(|e| rounding_problem("angle_resolution", "degrees", e))?;
+                angle_check = tool_angle_window(lo, hi, (r.lower, r.upper), angle_res);
                 let snug = value(a.snug_torque);
                 // Nearest step, but never zero: a snug torque is always some torque.
                 let steps = (snug / res).round().max(1.0);
@@ -172,6 +172,8 @@ pub fn setpoints(
             }
         }
     };
+    let checks = checks_out(spec.checks.iter().chain(&window_check).chain(&angle_check));
+    let accepted_checks = gate(&checks, tool.accept)?;
     // The elastic-model caution goes with an angle window in the answer.
     let cautions = if angle.is_some() {
         spec.cautions
