@@ -11,7 +11,8 @@ the run:
 3. no `allOf` is unsatisfiable in the two ways found in this document
    before: a property declared by two branches with types that share no
    value, or a branch closed with `additionalProperties: false` while
-   another branch requires a property the closed branch does not list;
+   another branch requires or declares a property the closed branch does
+   not list (required: no value fits; declared: it can never be sent);
 4. openapi-python-client generates a client without a warning, and every
    operation (method + path) of the document has a generated endpoint
    module with its request functions.
@@ -92,15 +93,16 @@ def branch_shape(doc, schema, depth=0):
     props, required, closed = {}, set(), []
     if depth < 20:
         for inner in schema.get("allOf", []):
-            p, r, _ = branch_shape(doc, inner, depth + 1)
+            p, r, c = branch_shape(doc, inner, depth + 1)
             for name, s in p.items():
                 props.setdefault(name, []).extend(s)
             required |= r
+            closed.extend(c)
     for name, s in schema.get("properties", {}).items():
         props.setdefault(name, []).append(s)
     required |= set(schema.get("required", []))
     if schema.get("additionalProperties") is False:
-        closed = [set(schema.get("properties", {}))]
+        closed.append(set(schema.get("properties", {})))
     return props, required, closed
 
 
@@ -133,12 +135,14 @@ def unsatisfiable_all_ofs(doc):
                 problems.append(f"{where}/allOf: property `{name}` is {kinds}: no value fits all")
         for i, (_, _, closed) in enumerate(shapes):
             for allowed in closed:
-                for j, (_, required, _) in enumerate(shapes):
-                    missing = sorted(required - allowed) if i != j else []
-                    for name in missing:
+                for j, (declared, required, _) in enumerate(shapes):
+                    if i == j:
+                        continue
+                    for name in sorted((set(declared) | required) - allowed):
+                        how = "requires" if name in required else "declares"
                         problems.append(
                             f"{where}/allOf/{i} is closed (additionalProperties: false) "
-                            f"but allOf/{j} requires `{name}`"
+                            f"but allOf/{j} {how} `{name}`"
                         )
     return problems
 
@@ -157,6 +161,7 @@ def self_check(doc):
                 },
             },
             {"type": "object", "additionalProperties": False, "properties": {"changes": {}}},
+            {"type": "object", "properties": {"optional": {"type": "string"}}},
         ]
     }
     _, refs = dangling_refs(broken)
@@ -167,6 +172,8 @@ def self_check(doc):
         fail(f"self-check: an integer/array allOf clash went unnoticed: {all_ofs}")
     if not any("requires `extra`" in p for p in all_ofs):
         fail(f"self-check: a closed allOf branch went unnoticed: {all_ofs}")
+    if not any("declares `optional`" in p for p in all_ofs):
+        fail(f"self-check: a key refused by a closed allOf branch went unnoticed: {all_ofs}")
 
 
 def validate(doc):
@@ -254,8 +261,10 @@ def main():
     print(f"$refs: {count}/{count} resolve")
 
     all_ofs = unsatisfiable_all_ofs(doc)
-    for p in all_ofs:
+    for p in all_ofs[:20]:
         print(f"  {p}", file=sys.stderr)
+    if len(all_ofs) > 20:
+        print(f"  ... and {len(all_ofs) - 20} more", file=sys.stderr)
     if all_ofs:
         fail(f"{len(all_ofs)} unsatisfiable allOf part(s)")
     print("allOf: none unsatisfiable")
