@@ -4,6 +4,7 @@
 //! `cargo run -q -- openapi > openapi/openapi.json`.
 
 use actix_web::{web, App, HttpResponse};
+use utoipa::openapi::schema::{AllOfBuilder, AnyOfBuilder};
 use utoipa::OpenApi;
 use utoipa_actix_web::AppExt;
 
@@ -45,8 +46,48 @@ pub fn document() -> utoipa::openapi::OpenApi {
     let mut api = api;
     // After the routes are in: the shared problem responses go on every operation.
     utoipa::Modify::modify(&super::problem_responses::ProblemResponses, &mut api);
+    flat_batch_item(&mut api);
     require_friction_source(&mut api);
     api
+}
+
+/// A batch item is one flat object: the spec request's fields and the
+/// answer options side by side, nothing else (see `specs::batch::item`).
+/// The derived schema is an `allOf` of the two, each closed with
+/// `additionalProperties: false`, which no item can satisfy: each branch
+/// refuses the other's keys. Written instead as one closed object with
+/// both sets of properties (and, from [`require_friction_source`], the
+/// friction source rule).
+fn flat_batch_item(api: &mut utoipa::openapi::OpenApi) {
+    use utoipa::openapi::schema::Schema;
+    use utoipa::openapi::RefOr;
+    let Some(components) = api.components.as_mut() else {
+        return;
+    };
+    let object = |name: &str| match components.schemas.get(name) {
+        Some(RefOr::T(Schema::Object(o))) => Some(o.clone()),
+        _ => None,
+    };
+    let (Some(mut item), Some(options)) = (object("SpecRequest"), object("AnswerOptions")) else {
+        return;
+    };
+    let description = match components.schemas.get("BatchItemRequest") {
+        Some(RefOr::T(Schema::AllOf(all))) => all.description.clone(),
+        _ => None,
+    };
+    item.properties.extend(options.properties);
+    item.required.extend(options.required);
+    item.description = None;
+    let combined = AllOfBuilder::new()
+        .item(RefOr::T(Schema::Object(item)))
+        .item(friction_ways())
+        .description(description)
+        .build();
+    components.schemas.insert(
+        "BatchItemRequest".to_string(),
+        RefOr::T(Schema::AllOf(combined)),
+    );
+    components.schemas.remove("AnswerOptions");
 }
 
 /// A spec body must name where its friction comes from: `finish` and
@@ -55,7 +96,7 @@ pub fn document() -> utoipa::openapi::OpenApi {
 /// 422 naming what is missing). Stated in the schema as an `anyOf` of the
 /// two ways, each with the fields present and not null.
 fn require_friction_source(api: &mut utoipa::openapi::OpenApi) {
-    use utoipa::openapi::schema::{AllOfBuilder, AnyOfBuilder, ObjectBuilder, Schema, Type};
+    use utoipa::openapi::schema::Schema;
     use utoipa::openapi::RefOr;
     let Some(components) = api.components.as_mut() else {
         return;
@@ -63,6 +104,19 @@ fn require_friction_source(api: &mut utoipa::openapi::OpenApi) {
     let Some(original) = components.schemas.get("SpecRequest").cloned() else {
         return;
     };
+    let combined = AllOfBuilder::new()
+        .item(original)
+        .item(friction_ways())
+        .build();
+    components
+        .schemas
+        .insert("SpecRequest".to_string(), RefOr::T(Schema::AllOf(combined)));
+}
+
+/// The two ways of giving the friction source, as an `anyOf`.
+fn friction_ways() -> utoipa::openapi::RefOr<utoipa::openapi::schema::Schema> {
+    use utoipa::openapi::schema::{ObjectBuilder, Schema, Type};
+    use utoipa::openapi::RefOr;
     let way = |a: &str, a_schema: RefOr<Schema>, b: &str, b_schema: RefOr<Schema>| {
         ObjectBuilder::new()
             .property(a, a_schema)
@@ -81,11 +135,9 @@ fn require_friction_source(api: &mut utoipa::openapi::OpenApi) {
         .item(way("thread_friction", friction(), "bearing_friction", friction()))
         .description(Some(
             "Give finish and lubricant (catalogue look-up), or both thread_friction and bearing_friction",
-        ));
-    let combined = AllOfBuilder::new().item(original).item(ways).build();
-    components
-        .schemas
-        .insert("SpecRequest".to_string(), RefOr::T(Schema::AllOf(combined)));
+        ))
+        .build();
+    RefOr::T(Schema::AnyOf(ways))
 }
 
 /// The document as pretty JSON with a trailing newline (the committed form).
@@ -101,4 +153,62 @@ pub async fn serve(state: web::Data<AppState>) -> HttpResponse {
     HttpResponse::Ok()
         .content_type("application/json")
         .body(state.openapi_json.to_string())
+}
+
+#[cfg(test)]
+mod tests {
+    use std::collections::BTreeSet;
+
+    use serde_json::value::RawValue;
+    use serde_json::{json, Value};
+
+    use crate::http::specs::batch::read_item;
+
+    fn keys(v: &Value) -> BTreeSet<String> {
+        v.as_object().expect("properties").keys().cloned().collect()
+    }
+
+    #[test]
+    fn batch_item_schema_is_one_closed_object_with_every_key_an_item_reads() {
+        let doc = serde_json::to_value(super::document()).expect("json");
+        let schemas = &doc["components"]["schemas"];
+        let item = &schemas["BatchItemRequest"]["allOf"][0];
+        assert_eq!(item["additionalProperties"], json!(false), "{item}");
+        assert_eq!(item["required"], json!(["thread", "property_class"]));
+        let answer_keys = [
+            "answer",
+            "torque_unit",
+            "resolution",
+            "angle_resolution",
+            "accept_checks",
+        ];
+        let mut expected = keys(&schemas["SpecRequest"]["allOf"][0]["properties"]);
+        expected.extend(answer_keys.map(String::from));
+        assert_eq!(keys(&item["properties"]), expected);
+        assert!(
+            schemas.get("AnswerOptions").is_none(),
+            "no closed half left"
+        );
+
+        // What the schema admits the reader takes, and what it refuses the
+        // reader refuses.
+        let mut body = json!({
+            "thread": "M10", "property_class": "8.8",
+            "thread_friction": 0.12, "bearing_friction": 0.12,
+            "answer": "setpoints", "torque_unit": "N·m",
+            "resolution": 0.5, "angle_resolution": 1.0, "accept_checks": [],
+        });
+        for key in keys(&body) {
+            assert!(expected.contains(&key), "{key} read but not in the schema");
+        }
+        let raw = RawValue::from_string(body.to_string()).expect("raw");
+        read_item(&raw).expect("a setpoint item the schema admits is read");
+        body["bogus"] = json!(1);
+        assert!(!expected.contains("bogus"));
+        let raw = RawValue::from_string(body.to_string()).expect("raw");
+        assert!(
+            read_item(&raw).is_err(),
+            "a key outside the schema is refused"
+        );
+    }
 }
