@@ -22,10 +22,10 @@ pub use change::{
     HistoryRecord, LubricantInput,
 };
 pub use diff::{diff, DiffItem, DiffKind};
-pub use error::{CatalogueError, CurrentState, Problem};
+pub use error::{CatalogueError, ChangeProblem, CurrentState};
 pub use live::Live;
 pub use snapshot::Snapshot;
 pub use types::{
-    item_etag, revision_from_etag, Finish, FrictionEntry, FrictionRange, Lubricant, RangeInput,
-    Status, FRICTION_MAX, FRICTION_MIN,
+    item_etag, revision_from_etag, Finish, FrictionEntry, Lubricant, RangeInput, Status,
+    TabulatedFriction, FRICTION_MAX, FRICTION_MIN,
 };

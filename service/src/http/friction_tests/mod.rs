@@ -18,7 +18,7 @@ use crate::http::error::{ApiError, FieldError};
 
 pub use handlers::configure;
 use parse::ParsedSeries;
-use units::UnitSystem;
+use units::Units;
 use wire::{EvaluationResponse, SeriesRequest};
 
 /// Parse and evaluate a series. Every problem is listed, reading problems
@@ -46,7 +46,7 @@ pub fn run(req: &SeriesRequest) -> Result<(ParsedSeries, SeriesEvaluation), Cali
 /// `POST /v1/friction-tests/evaluate`, shared with the CLI.
 pub fn evaluate(
     req: &SeriesRequest,
-    units: UnitSystem,
+    units: Units,
 ) -> Result<EvaluationResponse, CalibrationErrors> {
     let (parsed, eval) = run(req)?;
     Ok(respond::evaluation(req, &parsed, &eval, units))

@@ -8,7 +8,7 @@
 use serde::{Deserialize, Serialize};
 use utoipa::ToSchema;
 
-use super::units::{self, Quantity, UnitSystem};
+use super::units::{self, Quantity, Units};
 use crate::catalogue::{EntryInput, FrictionEntry, RangeInput, Snapshot};
 use crate::engine::bearing::{bearing_surface, HeadType, HoleSeries, Washer};
 use crate::engine::calibration::proposal::{propose, Basis, ProposedRange};
@@ -173,7 +173,7 @@ pub fn build(
     stats: &SeriesStatistics,
     count: usize,
     basis: Basis,
-    u: UnitSystem,
+    u: Units,
 ) -> Result<Proposed, ApiError> {
     let entry = snap.friction_for(finish, lubricant)?.clone();
     Ok(build_for(snap, &entry, series_id, stats, count, basis, u)?)
@@ -186,10 +186,10 @@ fn build_for(
     stats: &SeriesStatistics,
     count: usize,
     basis: Basis,
-    u: UnitSystem,
+    u: Units,
 ) -> Result<Proposed, EngineError> {
     let p = propose(stats, basis)?;
-    let pair = |r: &crate::catalogue::FrictionRange| (r.min, r.max);
+    let pair = |r: &crate::catalogue::TabulatedFriction| (r.min, r.max);
     let (thread_c, thread_after) = change(
         "thread_friction",
         Some(pair(&entry.thread_friction)),
@@ -280,7 +280,7 @@ fn figures(
     designation: &str,
     (th, b): (Pair, Pair),
     flags: &SpecFlags,
-    u: UnitSystem,
+    u: Units,
 ) -> Result<SpecFigures, EngineError> {
     let thread = thread::parse_designation(designation)?;
     let strength = grade::strength_for(REPRESENTATIVE_CLASS, &thread)?;
@@ -323,7 +323,7 @@ fn effect(
     current: (Pair, Pair),
     proposed: (Pair, Pair),
     flags: &SpecFlags,
-    u: UnitSystem,
+    u: Units,
 ) -> Result<SpecEffect, EngineError> {
     let before = figures(designation, current, flags, u)?;
     let after = figures(designation, proposed, flags, u)?;
@@ -403,7 +403,7 @@ mod tests {
             &stats,
             n,
             Basis::Observed,
-            UnitSystem::Si,
+            Units::Si,
         )
         .unwrap();
         let r = &p.response;
@@ -462,7 +462,7 @@ mod tests {
             &stats,
             n,
             Basis::Observed,
-            UnitSystem::Si,
+            Units::Si,
         );
         assert!(err.is_err());
     }
