@@ -3,7 +3,9 @@
 //! and apply the catalogue change it supports.
 //!
 //! Layout: `wire` (request and answer types), `units` (quantities in and
-//! out), `parse` (wire → engine input), `respond` (engine → wire).
+//! out), `parse` (wire → engine input), `respond` (engine → wire),
+//! `proposal` (the catalogue change a stored series supports) and
+//! `handlers` (the routes).
 
 mod handlers;
 pub mod parse;
