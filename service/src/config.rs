@@ -1,9 +1,10 @@
 //! Configuration from flags and environment (12-factor): every flag of
 //! `tightspec serve` has an environment variable of the same meaning.
 //!
-//! Subcommands: `serve`, `openapi`; other modules add theirs (`spec`,
-//! `token`, `catalogue`, `migrate`, `friction`) as variants of [`Command`]
-//! dispatched in `main.rs`.
+//! Subcommands are the variants of [`Command`] (`serve`, `openapi`, `spec`,
+//! `migrate`, `token`, `catalogue`, `friction`); the arguments of the last
+//! ones are defined beside their code in `crate::cli`. `main.rs` parses
+//! [`Cli`] and `crate::cli::run` dispatches the command.
 
 use clap::{Args, Parser, Subcommand};
 

@@ -1,8 +1,11 @@
 //! tightspec: tightening specifications for threaded fasteners.
 //!
-//! Dependencies point one way: `engine` (pure computation) ← `catalogue`
-//! (friction data as domain types) ← `store` (sqlx) ← `http` and `cli`.
-//! `startup` wires them; `config` reads flags and environment.
+//! Dependencies point one way: `engine` (pure computation) and `catalogue`
+//! (friction data as domain types) use no other module of the crate;
+//! `store` (sqlx) uses `catalogue`; `http` and `cli` use all three.
+//! `startup` wires `http` and `store` into a server (and holds the route
+//! registrations the OpenAPI document is generated from); `config` reads
+//! flags and environment.
 
 pub mod catalogue;
 pub mod cli;

@@ -2,7 +2,7 @@
 //! and linked to the catalogue revisions made from them. Both backends.
 
 use chrono::Utc;
-use tightspec::store::friction_series::{evidence, Application, NewSeries};
+use tightspec::store::friction_series::{evidence, NewSeries, SeriesApplication};
 use tightspec::store::{Store, StoreError};
 
 use crate::on_both_backends;
@@ -50,7 +50,7 @@ async fn stored_series_cannot_be_changed_or_deleted(db: &TestDb) {
     let store = Store::open(Some(&db.url)).await.unwrap();
     let stored = store.insert_friction_test(&series()).await.unwrap();
     store
-        .record_friction_test_application(&Application {
+        .record_friction_test_application(&SeriesApplication {
             series_id: stored.id,
             revision: 1,
             entry_id: 1,

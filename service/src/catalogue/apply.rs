@@ -4,7 +4,7 @@
 //! persists the result; it adds no rules of its own.
 
 use super::change::{Action, Applied, Change, ChangeSet, EntityKind, HistoryRecord};
-use super::error::{CatalogueError, CurrentState, Problem};
+use super::error::{CatalogueError, ChangeProblem, CurrentState};
 use super::rules::{check_item_names, check_whole, entry_from, json, stale};
 use super::types::{Finish, FrictionEntry, Lubricant, Status};
 use super::Snapshot;
@@ -22,16 +22,19 @@ pub fn apply(current: &Snapshot, set: &ChangeSet) -> Result<Applied, CatalogueEr
     let mut touched_entries: Vec<(String, i64)> = Vec::new();
     let single = set.items.len() == 1;
     if set.reason.trim().is_empty() {
-        problems.push(Problem::new(
+        problems.push(ChangeProblem::new(
             "reason",
             "a reason is required for every catalogue change",
         ));
     }
     if set.actor.trim().is_empty() {
-        problems.push(Problem::new("actor", "the author of the change is unknown"));
+        problems.push(ChangeProblem::new(
+            "actor",
+            "the author of the change is unknown",
+        ));
     }
     if set.items.is_empty() {
-        problems.push(Problem::new("changes", "nothing to change"));
+        problems.push(ChangeProblem::new("changes", "nothing to change"));
     }
     let mut next_id = next.entries.iter().map(|e| e.id).max().unwrap_or(0) + 1;
     for item in &set.items {
@@ -75,7 +78,7 @@ pub fn apply(current: &Snapshot, set: &ChangeSet) -> Result<Applied, CatalogueEr
                             id: id.to_string(),
                         });
                     }
-                    problems.push(Problem::new(
+                    problems.push(ChangeProblem::new(
                         format!("{at}id"),
                         format!("no friction entry with id {id}"),
                     ));
@@ -106,7 +109,7 @@ pub fn apply(current: &Snapshot, set: &ChangeSet) -> Result<Applied, CatalogueEr
                     ),
                     _ => {
                         if !before.status.is_active() {
-                            problems.push(Problem::new(
+                            problems.push(ChangeProblem::new(
                                 format!("{at}id"),
                                 format!("friction entry {id} is already retired"),
                             ));
@@ -123,7 +126,7 @@ pub fn apply(current: &Snapshot, set: &ChangeSet) -> Result<Applied, CatalogueEr
                     ..after.clone()
                 }) == before
                 {
-                    problems.push(Problem::new(format!("{at}id"), format!("friction entry {id}: the submitted entry is identical to the current one; nothing to change")));
+                    problems.push(ChangeProblem::new(format!("{at}id"), format!("friction entry {id}: the submitted entry is identical to the current one; nothing to change")));
                 }
                 let action = if after.status == Status::Retired && before.status.is_active() {
                     Action::Retire
@@ -159,7 +162,7 @@ pub fn apply(current: &Snapshot, set: &ChangeSet) -> Result<Applied, CatalogueEr
                     revision,
                 };
                 match (existing, expected) {
-                    (Some(_), None) => problems.push(Problem::new(
+                    (Some(_), None) => problems.push(ChangeProblem::new(
                         format!("{at}id"),
                         format!("finish '{}' already exists", f.id),
                     )),
@@ -181,7 +184,7 @@ pub fn apply(current: &Snapshot, set: &ChangeSet) -> Result<Applied, CatalogueEr
                                 id: f.id.clone(),
                             });
                         }
-                        problems.push(Problem::new(
+                        problems.push(ChangeProblem::new(
                             format!("{at}id"),
                             format!("no finish '{}'", f.id),
                         ));
@@ -206,7 +209,7 @@ pub fn apply(current: &Snapshot, set: &ChangeSet) -> Result<Applied, CatalogueEr
                             ..after.clone()
                         }) == before
                         {
-                            problems.push(Problem::new(
+                            problems.push(ChangeProblem::new(
                                 format!("{at}id"),
                                 format!("finish '{}': nothing to change", f.id),
                             ));
@@ -246,7 +249,7 @@ pub fn apply(current: &Snapshot, set: &ChangeSet) -> Result<Applied, CatalogueEr
                     revision,
                 };
                 match (existing, expected) {
-                    (Some(_), None) => problems.push(Problem::new(
+                    (Some(_), None) => problems.push(ChangeProblem::new(
                         format!("{at}id"),
                         format!("lubricant '{}' already exists", l.id),
                     )),
@@ -268,7 +271,7 @@ pub fn apply(current: &Snapshot, set: &ChangeSet) -> Result<Applied, CatalogueEr
                                 id: l.id.clone(),
                             });
                         }
-                        problems.push(Problem::new(
+                        problems.push(ChangeProblem::new(
                             format!("{at}id"),
                             format!("no lubricant '{}'", l.id),
                         ));
@@ -293,7 +296,7 @@ pub fn apply(current: &Snapshot, set: &ChangeSet) -> Result<Applied, CatalogueEr
                             ..after.clone()
                         }) == before
                         {
-                            problems.push(Problem::new(
+                            problems.push(ChangeProblem::new(
                                 format!("{at}id"),
                                 format!("lubricant '{}': nothing to change", l.id),
                             ));

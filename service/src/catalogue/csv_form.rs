@@ -8,7 +8,7 @@
 //! import removes that one `'` again, so export and import round-trip
 //! (common practice against CSV formula injection).
 
-use super::error::Problem;
+use super::error::ChangeProblem;
 use super::exchange::{ImportEntry, ImportFile};
 use super::types::{RangeInput, Status};
 use super::Snapshot;
@@ -120,7 +120,7 @@ pub fn to_csv_with(s: &Snapshot, options: &CsvOptions<'_>) -> Result<String, Str
 /// `revision` and `evidence` optional, the latter not read: evidence
 /// belongs to a revision). A leading byte order mark is skipped. Every bad
 /// cell is reported.
-pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
+pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<ChangeProblem>> {
     let text = text.strip_prefix('\u{feff}').unwrap_or(text);
     // Flexible: a row may leave out trailing optional cells (`revision`,
     // `evidence`); a missing cell reads as empty.
@@ -130,12 +130,12 @@ pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
         .from_reader(text.as_bytes());
     let headers = match r.headers() {
         Ok(h) => h.clone(),
-        Err(e) => return Err(vec![Problem::new("header", e.to_string())]),
+        Err(e) => return Err(vec![ChangeProblem::new("header", e.to_string())]),
     };
     let mut problems = Vec::new();
     for required in &CSV_COLUMNS[1..12] {
         if !headers.iter().any(|h| h == *required) {
-            problems.push(Problem::new(
+            problems.push(ChangeProblem::new(
                 "header",
                 format!("missing column '{required}'"),
             ));
@@ -143,7 +143,10 @@ pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
     }
     for h in headers.iter() {
         if !CSV_COLUMNS.contains(&h) {
-            problems.push(Problem::new("header", format!("unknown column '{h}'")));
+            problems.push(ChangeProblem::new(
+                "header",
+                format!("unknown column '{h}'"),
+            ));
         }
     }
     if !problems.is_empty() {
@@ -155,7 +158,7 @@ pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
         let rec = match rec {
             Ok(rec) => rec,
             Err(e) => {
-                problems.push(Problem::new(format!("entries[{i}]"), e.to_string()));
+                problems.push(ChangeProblem::new(format!("entries[{i}]"), e.to_string()));
                 continue;
             }
         };
@@ -172,14 +175,17 @@ pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
             let v = cell(name);
             if v.is_empty() {
                 if required {
-                    problems.push(Problem::new(format!("{at}{name}"), "a number is required"));
+                    problems.push(ChangeProblem::new(
+                        format!("{at}{name}"),
+                        "a number is required",
+                    ));
                 }
                 return None;
             }
             match v.parse::<f64>() {
                 Ok(x) if x.is_finite() => Some(x),
                 _ => {
-                    problems.push(Problem::new(
+                    problems.push(ChangeProblem::new(
                         format!("{at}{name}"),
                         format!("'{v}' is not a number"),
                     ));
@@ -198,7 +204,7 @@ pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
             v => match v.parse::<i64>() {
                 Ok(n) => Some(n),
                 Err(_) => {
-                    problems.push(Problem::new(
+                    problems.push(ChangeProblem::new(
                         format!("{at}id"),
                         format!("'{v}' is not an entry id"),
                     ));
@@ -211,7 +217,7 @@ pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
             "active" => Some(Status::Active),
             "retired" => Some(Status::Retired),
             v => {
-                problems.push(Problem::new(
+                problems.push(ChangeProblem::new(
                     format!("{at}status"),
                     format!("'{v}' is neither active nor retired"),
                 ));
@@ -219,7 +225,7 @@ pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<Problem>> {
             }
         };
         if omin.is_some() != omax.is_some() {
-            problems.push(Problem::new(
+            problems.push(ChangeProblem::new(
                 format!("{at}total_friction_min"),
                 "give both total_friction_min and total_friction_max, or neither",
             ));

@@ -7,14 +7,14 @@ use super::types::FrictionEntry;
 /// One problem with a submitted change: the field (a path such as
 /// `thread_friction.min` or `entries[3].finish`) and why.
 #[derive(Debug, Clone, PartialEq, serde::Serialize)]
-pub struct Problem {
+pub struct ChangeProblem {
     pub field: String,
     pub reason: String,
     #[serde(skip_serializing_if = "Vec::is_empty")]
     pub suggestions: Vec<String>,
 }
 
-impl Problem {
+impl ChangeProblem {
     pub fn new(field: impl Into<String>, reason: impl Into<String>) -> Self {
         Self {
             field: field.into(),
@@ -91,13 +91,13 @@ pub enum CatalogueError {
     /// Well-formed but invalid change (422): every problem listed, nothing
     /// written.
     #[error("{} problem(s) in the submitted change", problems.len())]
-    Invalid { problems: Vec<Problem> },
+    Invalid { problems: Vec<ChangeProblem> },
 }
 
 impl CatalogueError {
     pub fn invalid_one(field: impl Into<String>, reason: impl Into<String>) -> Self {
         Self::Invalid {
-            problems: vec![Problem::new(field, reason)],
+            problems: vec![ChangeProblem::new(field, reason)],
         }
     }
 
@@ -124,10 +124,10 @@ impl CatalogueError {
     }
 
     /// Every problem as a list (one item for the single-field variants).
-    pub fn problems(&self) -> Vec<Problem> {
+    pub fn problems(&self) -> Vec<ChangeProblem> {
         match self {
             Self::Invalid { problems } => problems.clone(),
-            other => vec![Problem::new(other.field(), other.to_string())
+            other => vec![ChangeProblem::new(other.field(), other.to_string())
                 .with_suggestions(other.suggestions().to_vec())],
         }
     }

@@ -5,7 +5,7 @@
 use serde::{Deserialize, Serialize};
 
 use super::change::{Change, ChangeItem, EntryInput, FinishInput, LubricantInput};
-use super::error::Problem;
+use super::error::ChangeProblem;
 use super::types::{RangeInput, Status};
 use super::{Finish, FrictionEntry, Lubricant, Snapshot};
 
@@ -93,9 +93,9 @@ pub struct ImportFile {
 }
 
 /// Reads a JSON import file.
-pub fn parse_json(text: &str) -> Result<ImportFile, Vec<Problem>> {
+pub fn parse_json(text: &str) -> Result<ImportFile, Vec<ChangeProblem>> {
     serde_json::from_str(text).map_err(|e| {
-        vec![Problem::new(
+        vec![ChangeProblem::new(
             format!("line {}, column {}", e.line(), e.column()),
             e.to_string(),
         )]

@@ -1,8 +1,11 @@
-//! The friction catalogue as domain types, with no I/O: finishes,
-//! lubricants and friction entries (`types`), one revision held in memory
-//! (`snapshot`), the seed catalogue (`seed`), changes and the rule that turns
-//! a batch of them into one new revision (`change`), the live catalogue the
-//! service answers from (`live`), and typed errors (`error`).
+//! The friction catalogue as domain types, with no database or network I/O:
+//! finishes, lubricants and friction entries (`types`), one revision held in
+//! memory (`snapshot`), the seed catalogue (`seed`), changes as submitted
+//! (`change`), the rule that turns a batch of them into one new revision
+//! (`apply`, with its item checks in `rules`), the difference between two
+//! revisions (`diff`), export and import as JSON or CSV (`exchange`,
+//! `csv_form`), the live catalogue the service answers from (`live`), and
+//! typed errors (`error`).
 
 pub mod apply;
 pub mod change;
@@ -22,10 +25,10 @@ pub use change::{
     HistoryRecord, LubricantInput,
 };
 pub use diff::{diff, DiffItem, DiffKind};
-pub use error::{CatalogueError, CurrentState, Problem};
+pub use error::{CatalogueError, ChangeProblem, CurrentState};
 pub use live::Live;
 pub use snapshot::Snapshot;
 pub use types::{
-    item_etag, revision_from_etag, Finish, FrictionEntry, FrictionRange, Lubricant, RangeInput,
-    Status, FRICTION_MAX, FRICTION_MIN,
+    item_etag, revision_from_etag, Finish, FrictionEntry, Lubricant, RangeInput, Status,
+    TabulatedFriction, FRICTION_MAX, FRICTION_MIN,
 };

@@ -6,8 +6,8 @@ use serde::Serialize;
 use serde_json::Value;
 
 use super::change::EntryInput;
-use super::error::{suggest, CatalogueError, CurrentState, Problem};
-use super::types::{is_slug, FrictionEntry, FrictionRange, RangeInput, Status};
+use super::error::{suggest, CatalogueError, ChangeProblem, CurrentState};
+use super::types::{is_slug, FrictionEntry, RangeInput, Status, TabulatedFriction};
 use super::Snapshot;
 
 pub(super) fn json<T: Serialize>(v: &T) -> Value {
@@ -18,15 +18,15 @@ pub(super) fn range(
     at: &str,
     name: &str,
     raw: &RangeInput,
-    problems: &mut Vec<Problem>,
-) -> FrictionRange {
-    match FrictionRange::new(raw.min, raw.max) {
+    problems: &mut Vec<ChangeProblem>,
+) -> TabulatedFriction {
+    match TabulatedFriction::new(raw.min, raw.max) {
         Ok(r) => r,
         Err(ps) => {
             for (sub, reason) in ps {
-                problems.push(Problem::new(format!("{at}{name}.{sub}"), reason));
+                problems.push(ChangeProblem::new(format!("{at}{name}.{sub}"), reason));
             }
-            FrictionRange {
+            TabulatedFriction {
                 min: raw.min,
                 max: raw.max,
             }
@@ -61,7 +61,7 @@ pub(super) fn entry_from(
     id: i64,
     status: Status,
     revision: i64,
-    problems: &mut Vec<Problem>,
+    problems: &mut Vec<ChangeProblem>,
 ) -> FrictionEntry {
     for (field, value, known) in [
         (
@@ -83,12 +83,12 @@ pub(super) fn entry_from(
     ] {
         match known.iter().find(|(k, _)| *k == value.as_str()) {
             Some((_, Status::Active)) => {}
-            Some((_, Status::Retired)) => problems.push(Problem::new(
+            Some((_, Status::Retired)) => problems.push(ChangeProblem::new(
                 format!("{at}{field}"),
                 format!("{field} '{value}' is retired"),
             )),
             None => problems.push(
-                Problem::new(format!("{at}{field}"), format!("unknown {field} '{value}'"))
+                ChangeProblem::new(format!("{at}{field}"), format!("unknown {field} '{value}'"))
                     .with_suggestions(suggest(
                         value,
                         known.iter().filter(|(_, s)| s.is_active()).map(|(k, _)| *k),
@@ -98,14 +98,14 @@ pub(super) fn entry_from(
     }
     if let Some(s) = &input.bearing_surface {
         if !is_slug(s) {
-            problems.push(Problem::new(
+            problems.push(ChangeProblem::new(
                 format!("{at}bearing_surface"),
                 "must be a slug: lower-case letters, digits and hyphens, at most 64",
             ));
         }
     }
     if input.source.trim().is_empty() {
-        problems.push(Problem::new(
+        problems.push(ChangeProblem::new(
             format!("{at}source"),
             "the source is required (a published table, a handbook, or a test series id)",
         ));
@@ -131,21 +131,28 @@ pub(super) fn entry_from(
     }
 }
 
-pub(super) fn check_item_names(at: &str, id: &str, name: &str, problems: &mut Vec<Problem>) {
+pub(super) fn check_item_names(at: &str, id: &str, name: &str, problems: &mut Vec<ChangeProblem>) {
     if !is_slug(id) {
-        problems.push(Problem::new(
+        problems.push(ChangeProblem::new(
             format!("{at}id"),
             "must be a slug: lower-case letters, digits and hyphens, at most 64",
         ));
     }
     if name.trim().is_empty() {
-        problems.push(Problem::new(format!("{at}name"), "a name is required"));
+        problems.push(ChangeProblem::new(
+            format!("{at}name"),
+            "a name is required",
+        ));
     }
 }
 
 /// Rules over the catalogue as a whole after the batch: one active entry
 /// per key, and no active entry on a retired finish or lubricant.
-pub(super) fn check_whole(next: &Snapshot, touched: &[(String, i64)], problems: &mut Vec<Problem>) {
+pub(super) fn check_whole(
+    next: &Snapshot,
+    touched: &[(String, i64)],
+    problems: &mut Vec<ChangeProblem>,
+) {
     for (at, id) in touched {
         let Some(e) = next.entries.iter().find(|e| e.id == *id) else {
             continue;
@@ -157,7 +164,7 @@ pub(super) fn check_whole(next: &Snapshot, touched: &[(String, i64)], problems: 
             .active_entries()
             .find(|o| o.id != e.id && o.key() == e.key())
         {
-            problems.push(Problem::new(
+            problems.push(ChangeProblem::new(
                 format!("{at}lubricant"),
                 format!(
                     "an active friction entry (id {}) already exists for finish '{}', lubricant '{}', bearing surface '{}'; update or retire it instead",
@@ -168,12 +175,12 @@ pub(super) fn check_whole(next: &Snapshot, touched: &[(String, i64)], problems: 
     }
     for f in next.finishes.iter().filter(|f| !f.status.is_active()) {
         if let Some(e) = next.active_entries().find(|e| e.finish == f.id) {
-            problems.push(Problem::new("finish", format!("finish '{}' cannot be retired while friction entry {} uses it; retire the entry first", f.id, e.id)));
+            problems.push(ChangeProblem::new("finish", format!("finish '{}' cannot be retired while friction entry {} uses it; retire the entry first", f.id, e.id)));
         }
     }
     for l in next.lubricants.iter().filter(|l| !l.status.is_active()) {
         if let Some(e) = next.active_entries().find(|e| e.lubricant == l.id) {
-            problems.push(Problem::new("lubricant", format!("lubricant '{}' cannot be retired while friction entry {} uses it; retire the entry first", l.id, e.id)));
+            problems.push(ChangeProblem::new("lubricant", format!("lubricant '{}' cannot be retired while friction entry {} uses it; retire the entry first", l.id, e.id)));
         }
     }
 }

@@ -8,7 +8,7 @@
 
 use serde::Deserialize;
 
-use super::types::{Finish, FrictionEntry, FrictionRange, Lubricant, Status};
+use super::types::{Finish, FrictionEntry, Lubricant, Status, TabulatedFriction};
 use super::Snapshot;
 
 /// The seed file, embedded at build time.
@@ -75,10 +75,10 @@ struct SeedEntry {
     lubricant: String,
     #[serde(default)]
     bearing_surface: Option<String>,
-    thread_friction: FrictionRange,
-    bearing_friction: FrictionRange,
+    thread_friction: TabulatedFriction,
+    bearing_friction: TabulatedFriction,
     #[serde(default)]
-    total_friction: Option<FrictionRange>,
+    total_friction: Option<TabulatedFriction>,
     source: String,
     notes: String,
 }

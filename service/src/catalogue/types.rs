@@ -93,12 +93,17 @@ pub struct Lubricant {
     pub revision: i64,
 }
 
-/// A friction-coefficient range, validated: both ends within
+/// A friction-coefficient range as the catalogue tabulates it (named
+/// `FrictionRange` on the wire), validated: both ends within
 /// [`FRICTION_MIN`, `FRICTION_MAX`], finite, and `min <= max`.
-/// Build one with [`FrictionRange::new`]; deserialising checks the same.
+/// Build one with [`TabulatedFriction::new`]; deserialising checks the same.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, ToSchema)]
 #[serde(try_from = "RangeInput")]
-pub struct FrictionRange {
+#[schema(
+    as = FrictionRange,
+    description = "A friction-coefficient range, validated: both ends within\n[`FRICTION_MIN`, `FRICTION_MAX`], finite, and `min <= max`.\nBuild one with [`FrictionRange::new`]; deserialising checks the same."
+)]
+pub struct TabulatedFriction {
     pub min: f64,
     pub max: f64,
 }
@@ -111,7 +116,7 @@ pub struct RangeInput {
     pub max: f64,
 }
 
-impl FrictionRange {
+impl TabulatedFriction {
     /// Checks a range; on failure returns every problem as `(sub-field, reason)`
     /// where the sub-field is `min`, `max` or empty for the pair.
     pub fn new(min: f64, max: f64) -> Result<Self, Vec<(&'static str, String)>> {
@@ -144,10 +149,10 @@ impl FrictionRange {
     }
 }
 
-impl TryFrom<RangeInput> for FrictionRange {
+impl TryFrom<RangeInput> for TabulatedFriction {
     type Error = String;
     fn try_from(raw: RangeInput) -> Result<Self, String> {
-        FrictionRange::new(raw.min, raw.max).map_err(|p| {
+        TabulatedFriction::new(raw.min, raw.max).map_err(|p| {
             p.into_iter()
                 .map(|(f, r)| format!("{f}: {r}"))
                 .collect::<Vec<_>>()
@@ -156,8 +161,8 @@ impl TryFrom<RangeInput> for FrictionRange {
     }
 }
 
-impl From<FrictionRange> for RangeInput {
-    fn from(r: FrictionRange) -> Self {
+impl From<TabulatedFriction> for RangeInput {
+    fn from(r: TabulatedFriction) -> Self {
         RangeInput {
             min: r.min,
             max: r.max,
@@ -178,9 +183,9 @@ pub struct FrictionEntry {
     /// Condition of the mating/bearing surface when the entry applies to a
     /// particular one (e.g. `hardened-steel-washer`); absent means "any".
     pub bearing_surface: Option<String>,
-    pub thread_friction: FrictionRange,
-    pub bearing_friction: FrictionRange,
-    pub total_friction: Option<FrictionRange>,
+    pub thread_friction: TabulatedFriction,
+    pub bearing_friction: TabulatedFriction,
+    pub total_friction: Option<TabulatedFriction>,
     /// Where the values come from: a published table, a handbook, or a test
     /// series id.
     pub source: String,
@@ -238,19 +243,19 @@ mod tests {
 
     #[test]
     fn range_checks_bounds_and_order() {
-        assert!(FrictionRange::new(0.08, 0.16).is_ok());
-        assert!(FrictionRange::new(0.02, 0.6).is_ok());
-        let e = FrictionRange::new(0.7, 0.01).unwrap_err();
+        assert!(TabulatedFriction::new(0.08, 0.16).is_ok());
+        assert!(TabulatedFriction::new(0.02, 0.6).is_ok());
+        let e = TabulatedFriction::new(0.7, 0.01).unwrap_err();
         assert_eq!(e.len(), 3, "{e:?}");
-        assert!(FrictionRange::new(f64::NAN, 0.1).is_err());
-        assert!(FrictionRange::new(0.2, 0.1).is_err());
+        assert!(TabulatedFriction::new(f64::NAN, 0.1).is_err());
+        assert!(TabulatedFriction::new(0.2, 0.1).is_err());
     }
 
     #[test]
     fn range_deserialisation_validates() {
-        let ok: FrictionRange = serde_json::from_str(r#"{"min":0.1,"max":0.2}"#).unwrap();
+        let ok: TabulatedFriction = serde_json::from_str(r#"{"min":0.1,"max":0.2}"#).unwrap();
         assert_eq!(ok.max, 0.2);
-        assert!(serde_json::from_str::<FrictionRange>(r#"{"min":0.3,"max":0.2}"#).is_err());
+        assert!(serde_json::from_str::<TabulatedFriction>(r#"{"min":0.3,"max":0.2}"#).is_err());
     }
 
     #[test]

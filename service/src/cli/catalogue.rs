@@ -65,7 +65,7 @@ pub async fn run(
 /// Why an import was rejected: every problem, one per line.
 #[derive(Debug, thiserror::Error)]
 #[error("import rejected, nothing written:\n{}", .0.iter().map(|p| format!("  {}: {}", p.field, p.reason)).collect::<Vec<_>>().join("\n"))]
-pub struct ImportRejected(pub Vec<crate::catalogue::Problem>);
+pub struct ImportRejected(pub Vec<crate::catalogue::ChangeProblem>);
 
 pub async fn run_on(store: &Store, cmd: &CatalogueCommand, out: &mut dyn Write) -> CliResult {
     match cmd {

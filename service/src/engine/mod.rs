@@ -5,7 +5,11 @@
 //! `material` (clamped parts), `tightening` (VDI 2230 preload and torque),
 //! `method` (tightening methods and their scatter), `window` (torque
 //! window from friction and tool scatter), `angle` (joint resilience and
-//! torque-angle), `checks`, `plausible` (input ranges), and `spec`, which puts them together.
+//! torque-angle), `checks` (verdicts on a window), `cautions` (the
+//! cautions an answer carries), `plausible` (input ranges), and `spec`,
+//! which puts them together. Beside them: `quantity` (validated numbers the
+//! formulas trust), `error` (typed errors naming the request field) and
+//! `calibration` (friction coefficients from a torque–tension test series).
 
 pub mod angle;
 pub mod bearing;

@@ -1,7 +1,7 @@
 //! A complete tightening specification: validated input in, every figure and
 //! every assumption out. A spec is auditable from its own output.
 //!
-//! `compute` runs: validation → torque window (forward, or inverse for a
+//! `compute` runs: validation (`validate`) → torque window (forward, or inverse for a
 //! required clamp load) → clamp-load verdict → torque-angle → figures the
 //! trade reads (torque split, nut factor, total friction) → checks.
 
@@ -28,6 +28,9 @@ use super::window::{
     WindowInput,
 };
 use super::EngineError;
+
+mod validate;
+use validate::{validate_bearing, validate_strength, validate_thread};
 
 /// How the window is chosen.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -139,65 +142,6 @@ pub struct Spec {
     pub checks: Vec<Check>,
     /// The cautions that apply to this spec.
     pub cautions: CautionSet,
-}
-
-fn bad_thread(reason: &str) -> EngineError {
-    EngineError::invalid("thread", reason.to_string())
-}
-
-/// Geometry must be positive, finite and ordered (d3 < d2 < d); custom
-/// threads can be anything a client sends.
-fn validate_thread(t: &ThreadGeometry) -> Result<(), EngineError> {
-    let (d, p, d2, d3) = (
-        t.nominal_diameter.value,
-        t.pitch.value,
-        t.pitch_diameter.value,
-        t.minor_diameter.value,
-    );
-    let all_positive = [d, p, d2, d3, t.stress_area.value]
-        .iter()
-        .all(|v| v.is_finite() && *v > 0.0);
-    if !all_positive {
-        return Err(bad_thread(
-            "thread dimensions must be finite and greater than zero",
-        ));
-    }
-    if !(d3 < d2 && d2 < d) {
-        return Err(bad_thread(
-            "thread diameters must satisfy minor < pitch < nominal",
-        ));
-    }
-    if p > d2 {
-        return Err(bad_thread("the pitch is larger than the pitch diameter"));
-    }
-    let beta = t.flank_angle.value.to_degrees();
-    if !(beta.is_finite() && beta > 0.0 && beta < 120.0) {
-        return Err(bad_thread("flank angle must be between 0° and 120°"));
-    }
-    Ok(())
-}
-
-fn validate_strength(s: &Strength) -> Result<(), EngineError> {
-    for v in [
-        s.yield_strength_min.value,
-        s.tensile_strength_min.value,
-        s.proof_stress.value,
-    ] {
-        positive(v, "property_class")?;
-    }
-    Ok(())
-}
-
-fn validate_bearing(b: &BearingSurface) -> Result<(), EngineError> {
-    let outer = positive(b.outer_diameter.value, "bearing.outer_diameter")?;
-    let inner = positive(b.inner_diameter.value, "bearing.inner_diameter")?;
-    if outer <= inner {
-        return Err(EngineError::invalid(
-            "bearing.outer_diameter",
-            "the bearing outer diameter must exceed the inner (hole) diameter",
-        ));
-    }
-    Ok(())
 }
 
 /// True for ISO 3506 austenitic grades (A1–A5, e.g. `A2-70`).

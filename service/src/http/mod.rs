@@ -1,8 +1,15 @@
-//! The HTTP layer (actix-web): thin handlers over the engine and the
-//! catalogue. Infrastructure: `error` (problem responses), `extract`
-//! (extractor error handlers), `request_id`, `metrics`, `deadline` (body-read and request deadlines), `state`,
-//! `quantity` (wire quantities), `openapi`. Routes: `health`, `reference`,
-//! and the feature modules, all registered in `crate::startup::routes`.
+//! The HTTP layer (actix-web): thin handlers over the engine, the catalogue
+//! and the store.
+//!
+//! Infrastructure: `error` and `problem` (RFC 9457 problem responses),
+//! `problem_responses` (the shared problem responses of the OpenAPI
+//! document), `extract` (extractor error handlers), `accept` (content
+//! negotiation), `auth` (bearer tokens and roles), `request_id`, `metrics`,
+//! `deadline` (body-read and request deadlines), `state`, `quantity` (wire
+//! quantities), `openapi` and `routes_table` (404 versus 405 from the
+//! document). Routes: `health`, `reference` and `reference_lists`, and the
+//! feature modules `specs`, `catalogue` and `friction_tests`, all registered
+//! in `crate::startup::routes`.
 
 pub mod accept;
 pub mod auth;

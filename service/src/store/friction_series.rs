@@ -36,9 +36,10 @@ pub struct StoredSeries {
     pub evaluation_json: String,
 }
 
-/// A catalogue revision made from a series.
+/// A catalogue revision made from a series (named `Application` on the wire).
 #[derive(Debug, Clone, PartialEq, Serialize, utoipa::ToSchema, sqlx::FromRow)]
-pub struct Application {
+#[schema(as = Application, description = "A catalogue revision made from a series.")]
+pub struct SeriesApplication {
     pub series_id: i64,
     pub revision: i64,
     pub entry_id: i64,
@@ -106,7 +107,7 @@ impl Store {
     #[tracing::instrument(skip(self), level = "debug")]
     pub async fn record_friction_test_application(
         &self,
-        a: &Application,
+        a: &SeriesApplication,
     ) -> Result<(), StoreError> {
         dispatch!(Store, self, |pool| sqlx::query(INSERT_APPLICATION)
             .bind(a.series_id)
@@ -127,7 +128,7 @@ impl Store {
     pub async fn friction_test_applications(
         &self,
         series_id: i64,
-    ) -> Result<Vec<Application>, StoreError> {
+    ) -> Result<Vec<SeriesApplication>, StoreError> {
         Ok(dispatch!(Store, self, |pool| sqlx::query_as(APPLICATIONS)
             .bind(series_id)
             .fetch_all(pool)

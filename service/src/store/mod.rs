@@ -11,7 +11,9 @@
 //!
 //! `backend` holds what differs between the databases (connecting,
 //! migrations, transaction start, head lock, notification) and the
-//! `dispatch!` that compiles a query body for both. Catalogue rules live in
+//! `dispatch!` that compiles a query body for both; `watch` keeps an
+//! instance's live catalogue in step with the database; `error` tells an
+//! outage from other failures. Catalogue rules live in
 //! `catalogue::apply`; the store only persists what it returns.
 
 mod backend;

@@ -1,5 +1,6 @@
 //! Catalogue routes: friction entries (`entries`), finishes and lubricants
-//! (`items`), revisions, diff and export (`revisions`). Handlers are thin:
+//! (`items`), revisions, diff and export (`revisions`), and their wire
+//! types (`wire`). Handlers are thin:
 //! parse, call the store, render. Rules live in `catalogue::apply`.
 
 mod entries;

@@ -7,14 +7,14 @@ use serde::{Deserialize, Serialize};
 use utoipa::{IntoParams, ToSchema};
 
 use super::proposal::{self, ProposalResponse, Proposed};
-use super::units::UnitSystem;
+use super::units::Units;
 use super::wire::{EvaluationResponse, SeriesRequest};
 use crate::catalogue::{Change, ChangeItem, ChangeSet, FrictionEntry, Snapshot};
 use crate::engine::calibration::proposal::Basis;
 use crate::http::auth::{Editor, Reader};
 use crate::http::catalogue::{if_match, CatalogueService};
 use crate::http::error::{ApiError, FieldError, Problem};
-use crate::store::friction_series::{evidence, Application, NewSeries, StoredSeries};
+use crate::store::friction_series::{evidence, NewSeries, SeriesApplication, StoredSeries};
 
 const TAG: &str = "friction-tests";
 
@@ -30,10 +30,10 @@ pub fn configure(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
 #[derive(Debug, Clone, Default, Deserialize, IntoParams)]
 #[serde(deny_unknown_fields)]
 #[into_params(parameter_in = Query)]
-pub struct UnitsQuery {
+struct UnitsQuery {
     /// `si` (default) or `us`.
     #[param(value_type = Option<String>, pattern = "^(si|us)$")]
-    pub units: Option<UnitSystem>,
+    pub units: Option<Units>,
 }
 
 /// `?basis=observed|three_sigma&units=si|us`.
@@ -46,7 +46,7 @@ pub struct ProposalQuery {
     pub basis: Option<String>,
     /// `si` (default) or `us`.
     #[param(value_type = Option<String>, pattern = "^(si|us)$")]
-    pub units: Option<UnitSystem>,
+    pub units: Option<Units>,
 }
 
 /// Body of an apply: which basis, and why.
@@ -73,7 +73,7 @@ pub struct StoredSeriesResponse {
     pub evidence: String,
     pub series: SeriesRequest,
     pub evaluation: EvaluationResponse,
-    pub applications: Vec<Application>,
+    pub applications: Vec<SeriesApplication>,
 }
 
 /// The answer to an apply.
@@ -133,7 +133,7 @@ async fn evaluate(
 
 fn stored_response(
     s: &StoredSeries,
-    applications: Vec<Application>,
+    applications: Vec<SeriesApplication>,
 ) -> Result<StoredSeriesResponse, ApiError> {
     let corrupt = |e: serde_json::Error| {
         ApiError::Internal(format!("stored friction test {} unreadable: {e}", s.id))
@@ -185,7 +185,7 @@ async fn record(
     }
     let snap = svc.live.current();
     check_names(&snap, &req)?;
-    let evaluation = super::evaluate(&req, UnitSystem::Si)?;
+    let evaluation = super::evaluate(&req, Units::Si)?;
     let new = NewSeries {
         actor: who.0.name.clone(),
         thread: evaluation.thread.clone(),
@@ -238,7 +238,7 @@ async fn proposal_for(
     svc: &CatalogueService,
     id: i64,
     basis: Basis,
-    units: UnitSystem,
+    units: Units,
 ) -> Result<Proposed, ApiError> {
     let stored = svc.store.friction_test(id).await?;
     let req: SeriesRequest = serde_json::from_str(&stored.series_json)
@@ -326,7 +326,7 @@ async fn apply(
     let Some(b) = b.filter(|_| problems.is_empty()) else {
         return Err(ApiError::unprocessable(problems));
     };
-    let p = proposal_for(&svc, id, b, UnitSystem::Si).await?;
+    let p = proposal_for(&svc, id, b, Units::Si).await?;
     let entry_id = p.response.entry_id;
     let expected = if_match(req.headers(), &format!("entry-{entry_id}"))?;
     let set = ChangeSet {
@@ -344,7 +344,7 @@ async fn apply(
     };
     let applied = svc.store.apply_live(&svc.live, &set).await?;
     let entry = applied.snapshot.entry(entry_id)?.clone();
-    let application = Application {
+    let application = SeriesApplication {
         series_id: id,
         revision: applied.snapshot.revision,
         entry_id,

@@ -3,7 +3,9 @@
 //! and apply the catalogue change it supports.
 //!
 //! Layout: `wire` (request and answer types), `units` (quantities in and
-//! out), `parse` (wire → engine input), `respond` (engine → wire).
+//! out), `parse` (wire → engine input), `respond` (engine → wire),
+//! `proposal` (the catalogue change a stored series supports) and
+//! `handlers` (the routes).
 
 mod handlers;
 pub mod parse;
@@ -18,7 +20,7 @@ use crate::http::error::{ApiError, FieldError};
 
 pub use handlers::configure;
 use parse::ParsedSeries;
-use units::UnitSystem;
+use units::Units;
 use wire::{EvaluationResponse, SeriesRequest};
 
 /// Parse and evaluate a series. Every problem is listed, reading problems
@@ -46,7 +48,7 @@ pub fn run(req: &SeriesRequest) -> Result<(ParsedSeries, SeriesEvaluation), Cali
 /// `POST /v1/friction-tests/evaluate`, shared with the CLI.
 pub fn evaluate(
     req: &SeriesRequest,
-    units: UnitSystem,
+    units: Units,
 ) -> Result<EvaluationResponse, CalibrationErrors> {
     let (parsed, eval) = run(req)?;
     Ok(respond::evaluation(req, &parsed, &eval, units))

@@ -1,7 +1,7 @@
 //! From the engine's evaluation to the wire answer, in SI or US units.
 
 use super::parse::ParsedSeries;
-use super::units::{self, UnitSystem};
+use super::units::{self, Units};
 use super::wire::{
     CoefficientStatisticsResponse, EvaluationResponse, GeometryResponse, MethodResponse,
     SeriesRequest, SpecimenResponse, StatisticsResponse, WarningResponse,
@@ -24,7 +24,7 @@ pub fn evaluation(
     req: &SeriesRequest,
     parsed: &ParsedSeries,
     eval: &SeriesEvaluation,
-    u: UnitSystem,
+    u: Units,
 ) -> EvaluationResponse {
     let joint = &parsed.input.joint;
     EvaluationResponse {
@@ -88,7 +88,7 @@ fn form_name(form: SpecimenForm) -> &'static str {
     }
 }
 
-fn specimen(s: &SpecimenResult, u: UnitSystem) -> SpecimenResponse {
+fn specimen(s: &SpecimenResult, u: Units) -> SpecimenResponse {
     SpecimenResponse {
         form: form_name(s.form).into(),
         from_curve: s.from_curve,

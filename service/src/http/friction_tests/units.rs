@@ -11,13 +11,13 @@ use uom::si::f64::{Angle, Force, Length, Torque};
 use crate::engine::EngineError;
 use crate::http::quantity::{Misread, TorqueUnit};
 
-pub use crate::http::quantity::{Quantity, Units as UnitSystem};
+pub use crate::http::quantity::{Quantity, Units};
 
 /// `si` or `us` (field `units`), for the command line.
-pub fn parse_units(s: Option<&str>) -> Result<UnitSystem, EngineError> {
+pub fn parse_units(s: Option<&str>) -> Result<Units, EngineError> {
     match s.map(str::trim) {
-        None | Some("si") | Some("SI") => Ok(UnitSystem::Si),
-        Some("us") | Some("US") => Ok(UnitSystem::Us),
+        None | Some("si") | Some("SI") => Ok(Units::Si),
+        Some("us") | Some("US") => Ok(Units::Us),
         Some(other) => Err(EngineError::Unknown {
             field: "units".into(),
             kind: "unit system",
@@ -47,20 +47,20 @@ pub fn to_angle(q: &Quantity, field: &str) -> Result<Angle, EngineError> {
     q.read_angle().map_err(invalid(field))
 }
 
-pub fn force(f: Force, units: UnitSystem) -> Quantity {
+pub fn force(f: Force, units: Units) -> Quantity {
     Quantity::force(f, units)
 }
 
 /// N·m, or lbf·in in US units.
-pub fn torque(t: Torque, units: UnitSystem) -> Quantity {
+pub fn torque(t: Torque, units: Units) -> Quantity {
     let unit = match units {
-        UnitSystem::Si => TorqueUnit::NewtonMetre,
-        UnitSystem::Us => TorqueUnit::PoundForceInch,
+        Units::Si => TorqueUnit::NewtonMetre,
+        Units::Us => TorqueUnit::PoundForceInch,
     };
     Quantity::torque_in(t, unit)
 }
 
-pub fn length(l: Length, units: UnitSystem) -> Quantity {
+pub fn length(l: Length, units: Units) -> Quantity {
     Quantity::length(l, units)
 }
 
@@ -109,7 +109,7 @@ mod tests {
     #[test]
     fn us_torque_is_in_pound_force_inches() {
         let t = to_torque(&q(1.0, "lbf·ft"), "t").unwrap();
-        let out = torque(t, UnitSystem::Us);
+        let out = torque(t, Units::Us);
         assert_eq!(out.unit, "lbf·in");
         assert!((out.value - 12.0).abs() < 1e-9);
     }

@@ -5,7 +5,7 @@
 //! other systems post them.
 
 use serde::{Deserialize, Serialize};
-use utoipa::{IntoParams, ToSchema};
+use utoipa::ToSchema;
 
 use super::units::Quantity;
 
@@ -85,16 +85,6 @@ pub struct CurvePointRequest {
     pub thread_torque: Option<Quantity>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub angle: Option<Quantity>,
-}
-
-/// `?units=si|us` for every friction-test answer.
-#[derive(Debug, Clone, Default, Deserialize, IntoParams)]
-#[serde(deny_unknown_fields)]
-#[into_params(parameter_in = Query)]
-pub struct UnitsQuery {
-    /// `si` (default) or `us`.
-    #[param(pattern = "^(si|us|SI|US)$")]
-    pub units: Option<String>,
 }
 
 /// The evaluation of a series.

@@ -7,8 +7,11 @@
 //! [`resolve`]) → the engine's validated `SpecInput`. Handlers
 //! ([`handlers`]) only fetch the snapshot, call that step and the engine,
 //! and render ([`response`], [`setpoints`], [`cautions`]) with ETag and
-//! Cache-Control ([`caching`]). Repeated GET look-ups are answered from
-//! [`answer_cache`]; [`batch`] streams the answer of many requests.
+//! Cache-Control ([`caching`]), the window rounded to a tool's resolution
+//! ([`rounding`]) and checks on the wire ([`checks`]). Problems found while
+//! reading a request are collected in [`item_error`]. Repeated GET look-ups
+//! are answered from [`answer_cache`]; [`batch`] streams the answer of many
+//! requests.
 
 pub mod answer_cache;
 pub mod batch;
