@@ -172,31 +172,13 @@ async fn window_held_by_the_tool(app: TestApp) {
     let spec = app.get_json(&format!("/v1/tightening-specs?{base}")).await;
     let width = spec["torque"]["upper"]["value"].as_f64().unwrap()
         - spec["torque"]["lower"]["value"].as_f64().unwrap();
-    let mut warned = 0;
-    for tenths in (5..=80).step_by(5) {
-        let res = f64::from(tenths) / 10.0;
-        let r = app
-            .get(&format!("/v1/setpoints?{base}&resolution={res}"))
-            .await;
-        let status = r.status().as_u16();
-        let body: Value = r.json().await.unwrap();
-        let found = codes(&body["checks"]);
-        if status == 200 {
-            let narrow = width < 2.0 * res;
-            assert_eq!(
-                found.contains(&"setpoint_window_under_two_steps"),
-                narrow,
-                "{res}: {body}"
-            );
-            assert!(!found.contains(&"setpoint_window_zero_width"), "{body}");
-            warned += usize::from(narrow);
-        } else {
-            assert_eq!(status, 422, "{body}");
-            // No step inside the window, or one value after rounding.
-            let zero = found.contains(&"setpoint_window_zero_width");
-            assert!(zero || body["errors"][0]["field"] == "resolution", "{body}");
-        }
-    }
+    let torque = Held {
+        parameter: "resolution",
+        under_two_steps: "setpoint_window_under_two_steps",
+        zero_width: "setpoint_window_zero_width",
+    };
+    let steps: Vec<f64> = (1..=16).map(|i| f64::from(i) / 2.0).collect();
+    let (warned, _) = torque.sweep(&app, base, width, &steps).await;
     assert!(warned > 0, "some resolution gives fewer than two steps");
 
     // The same for the angle window of torque-angle tightening.
@@ -206,47 +188,66 @@ async fn window_held_by_the_tool(app: TestApp) {
     let spec = app.get_json(&format!("/v1/tightening-specs?{base}")).await;
     let width = spec["angle"]["max"]["value"].as_f64().unwrap()
         - spec["angle"]["min"]["value"].as_f64().unwrap();
-    let (mut warned, mut single) = (0, 0);
-    for halves in 1..=40 {
-        let res = f64::from(halves) / 2.0;
-        let r = app
-            .get(&format!("/v1/setpoints?{base}&angle_resolution={res}"))
-            .await;
-        let status = r.status().as_u16();
-        let body: Value = r.json().await.unwrap();
-        let found = codes(&body["checks"]);
-        if status == 200 {
-            let narrow = width < 2.0 * res;
-            assert_eq!(
-                found.contains(&"setpoint_angle_window_under_two_steps"),
-                narrow,
-                "{res}: {body}"
-            );
-            assert_ne!(body["angle"]["min"], body["angle"]["max"], "{body}");
-            warned += usize::from(narrow);
-        } else {
-            assert_eq!(status, 422, "{body}");
-            let zero = found.contains(&"setpoint_angle_window_zero_width");
-            assert!(
-                zero || body["errors"][0]["field"] == "angle_resolution",
-                "{body}"
-            );
-            if zero {
-                single += 1;
-                let accepted = app
-                    .get_json(&format!(
-                        "/v1/setpoints?{base}&angle_resolution={res}\
-                         &accept_checks=setpoint_angle_window_zero_width"
-                    ))
-                    .await;
-                assert_eq!(
-                    accepted["angle"]["min"], accepted["angle"]["max"],
-                    "{accepted}"
-                );
-            }
-        }
-    }
+    let angle = Held {
+        parameter: "angle_resolution",
+        under_two_steps: "setpoint_angle_window_under_two_steps",
+        zero_width: "setpoint_angle_window_zero_width",
+    };
+    let steps: Vec<f64> = (1..=40).map(|i| f64::from(i) / 2.0).collect();
+    let (warned, single) = angle.sweep(&app, base, width, &steps).await;
     assert!(warned > 0 && single > 0, "warned {warned}, single {single}");
+}
+
+/// A window as the tool holds it, swept over resolutions.
+struct Held {
+    parameter: &'static str,
+    under_two_steps: &'static str,
+    zero_width: &'static str,
+}
+
+impl Held {
+    /// Asks for setpoints at each resolution: an answer carries the
+    /// under-two-steps warning exactly when the unrounded window is
+    /// narrower than two steps; a refusal is the zero-width error (then
+    /// accepting it answers one value) or no step inside the window.
+    /// Returns how many were warned and how many rounded to one value.
+    async fn sweep(&self, app: &TestApp, base: &str, width: f64, steps: &[f64]) -> (usize, usize) {
+        let (mut warned, mut single) = (0, 0);
+        for res in steps {
+            let url = format!("/v1/setpoints?{base}&{}={res}", self.parameter);
+            let r = app.get(&url).await;
+            let status = r.status().as_u16();
+            let body: Value = r.json().await.unwrap();
+            let found = codes(&body["checks"]);
+            if status == 200 {
+                let narrow = width < 2.0 * res;
+                assert_eq!(
+                    found.contains(&self.under_two_steps),
+                    narrow,
+                    "{res}: {body}"
+                );
+                assert!(!found.contains(&self.zero_width), "{body}");
+                warned += usize::from(narrow);
+                continue;
+            }
+            assert_eq!(status, 422, "{body}");
+            if !found.contains(&self.zero_width) {
+                assert_eq!(body["errors"][0]["field"], self.parameter, "{body}");
+                continue;
+            }
+            single += 1;
+            let accepted = app
+                .get_json(&format!("{url}&accept_checks={}", self.zero_width))
+                .await;
+            let (lo, hi) = if self.parameter == "resolution" {
+                (&accepted["lower"], &accepted["upper"])
+            } else {
+                (&accepted["angle"]["min"], &accepted["angle"]["max"])
+            };
+            assert_eq!(lo, hi, "{accepted}");
+        }
+        (warned, single)
+    }
 }
 
 #[tokio::test]
