@@ -32,7 +32,7 @@ pub async fn start(database_url: &str, anonymous_reads: bool) -> Instance {
     let app = tightspec::startup::Application::build(config)
         .await
         .unwrap_or_else(|e| panic!("service did not start on {database_url}: {e}"));
-    let base = format!("http://127.0.0.1:{}", app.port());
+    let base = crate::support::loopback_base(app.port());
     let server = app.server_handle();
     let task = tokio::spawn(app.run_until_stopped());
     Instance {

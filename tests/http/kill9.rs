@@ -45,7 +45,7 @@ async fn serve(db: &TestDb) -> (Server, String) {
             .spawn()
             .expect("the binary starts"),
     );
-    let base = format!("http://127.0.0.1:{port}");
+    let base = crate::support::loopback_base(port);
     let client = Client::new();
     let deadline = tokio::time::Instant::now() + Duration::from_secs(30);
     loop {

@@ -29,7 +29,7 @@ async fn frozen_database_writes_503_then_recovery() {
     config.database_url = Some(via_port(&db.url, relay.port));
     config.limits.request_timeout_secs = 2;
     let app = Application::build(config).await.expect("service starts");
-    let base = format!("http://127.0.0.1:{}", app.port());
+    let base = crate::support::loopback_base(app.port());
     let handle = app.server_handle();
     tokio::spawn(app.run_until_stopped());
     let client = Client::builder().timeout(BOUND).build().unwrap();

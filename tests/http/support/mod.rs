@@ -91,13 +91,19 @@ impl TestAppBuilder {
         let handle = app.server_handle();
         tokio::spawn(app.run_until_stopped());
         TestApp {
-            base: format!("http://127.0.0.1:{port}"),
+            base: loopback_base(port),
             port,
             client: Client::new(),
             handle: Some(handle),
             db,
         }
     }
+}
+
+/// The base URL of a service listening on the loopback interface (tests
+/// only ever talk to their own instance on this machine).
+pub fn loopback_base(port: u16) -> String {
+    format!("http://127.0.0.1:{port}")
 }
 
 /// A running service instance, stopped when dropped.
