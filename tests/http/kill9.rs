@@ -115,14 +115,7 @@ async fn every_acknowledged_write_survives_kill_9(db: &TestDb) {
     assert!(acknowledged.len() >= 50);
 
     let (child, base) = serve(db).await;
-    let finishes: serde_json::Value = client
-        .get(format!("{base}/v1/finishes"))
-        .send()
-        .await
-        .unwrap()
-        .json()
-        .await
-        .unwrap();
+    let finishes: serde_json::Value = get_json(&client, &format!("{base}/v1/finishes")).await;
     let present: Vec<&str> = finishes["finishes"]
         .as_array()
         .expect("finishes list")
@@ -136,14 +129,11 @@ async fn every_acknowledged_write_survives_kill_9(db: &TestDb) {
         );
     }
     // Revisions 1..=head, each exactly once.
-    let revs: serde_json::Value = client
-        .get(format!("{base}/v1/catalogue/revisions?limit=1000"))
-        .send()
-        .await
-        .unwrap()
-        .json()
-        .await
-        .unwrap();
+    let revs: serde_json::Value = get_json(
+        &client,
+        &format!("{base}/v1/catalogue/revisions?limit=1000"),
+    )
+    .await;
     let mut numbers: Vec<i64> = revs["revisions"]
         .as_array()
         .expect("revisions")
@@ -165,4 +155,8 @@ async fn every_acknowledged_write_survives_kill_9(db: &TestDb) {
         acknowledged.len()
     );
     drop(child);
+}
+
+async fn get_json(client: &Client, url: &str) -> serde_json::Value {
+    client.get(url).send().await.unwrap().json().await.unwrap()
 }
