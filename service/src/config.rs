@@ -1,12 +1,11 @@
 //! Configuration from flags and environment (12-factor): every flag of
 //! `tightspec serve` has an environment variable of the same meaning.
 //!
-//! Subcommands are the variants of [`Command`] (`serve`, `openapi`, `spec`,
-//! `migrate`, `token`, `catalogue`, `friction`); the arguments of the last
-//! ones are defined beside their code in `crate::cli`. `main.rs` parses
-//! [`Cli`] and `crate::cli::run` dispatches the command.
+//! This module holds the service's settings ([`Config`], [`Limits`]) and
+//! uses no other module of the crate; the command line that carries them
+//! (`crate::cli::Cli`) is declared in `cli/args.rs`.
 
-use clap::{Args, Parser, Subcommand};
+use clap::Args;
 
 /// Default listen address.
 pub const DEFAULT_LISTEN: &str = "127.0.0.1:8080";
@@ -18,53 +17,6 @@ pub const DEFAULT_MAX_BODY_BYTES: usize = 8 * 1024 * 1024;
 /// Default number of rendered look-up answers kept per route (see
 /// `http::specs::answer_cache`); about 5 MB at most for specs.
 pub const DEFAULT_ANSWER_CACHE: usize = 1024;
-
-/// `tightspec`: tightening specifications for threaded fasteners.
-#[derive(Debug, Parser)]
-#[command(name = "tightspec", version, about)]
-pub struct Cli {
-    #[command(subcommand)]
-    pub command: Command,
-}
-
-/// What to do.
-#[derive(Debug, Subcommand)]
-pub enum Command {
-    /// Run the HTTP service.
-    Serve(Config),
-    /// Print the OpenAPI document (the same as `GET /openapi.json`).
-    Openapi,
-    /// Compute a tightening spec from the shell (table, or `--json`).
-    Spec(Box<crate::cli::spec::SpecArgs>),
-    /// Apply pending database migrations (and seed an empty catalogue).
-    Migrate(DatabaseArgs),
-    /// Manage API tokens on the configured database.
-    Token {
-        #[command(flatten)]
-        db: DatabaseArgs,
-        #[command(subcommand)]
-        command: crate::cli::token::TokenCommand,
-    },
-    /// Import or export the friction catalogue.
-    Catalogue {
-        #[command(flatten)]
-        db: DatabaseArgs,
-        #[command(subcommand)]
-        command: crate::cli::catalogue::CatalogueCommand,
-    },
-    /// Friction tests: evaluate a torque–tension series.
-    #[command(subcommand)]
-    Friction(crate::cli::friction::FrictionCommand),
-}
-
-/// The database a command works on.
-#[derive(Debug, Clone, Args)]
-pub struct DatabaseArgs {
-    /// `postgres://…` or `sqlite://path`; default: the embedded SQLite
-    /// store under ./data/.
-    #[arg(long, env = "DATABASE_URL")]
-    pub database_url: Option<String>,
-}
 
 /// Settings of the HTTP service.
 #[derive(Debug, Clone, Args)]
@@ -204,61 +156,6 @@ mod tests {
     use super::*;
 
     #[test]
-    fn serve_flags_parse() {
-        let cli = Cli::try_parse_from([
-            "tightspec",
-            "serve",
-            "--listen",
-            "0.0.0.0:9000",
-            "--anonymous-reads",
-            "false",
-        ])
-        .expect("parses");
-        match cli.command {
-            Command::Serve(c) => {
-                assert_eq!(c.listen, "0.0.0.0:9000");
-                assert!(!c.anonymous_reads);
-            }
-            other => panic!("expected serve, got {other:?}"),
-        }
-    }
-
-    #[test]
-    fn limit_defaults_match_the_flags() {
-        let cli = Cli::try_parse_from(["tightspec", "serve"]).expect("parses");
-        let Command::Serve(c) = cli.command else {
-            panic!("expected serve");
-        };
-        let d = Limits::default();
-        assert_eq!(c.limits.max_connections, d.max_connections);
-        assert_eq!(
-            c.limits.max_connections_per_worker,
-            d.max_connections_per_worker
-        );
-        assert_eq!(c.limits.backlog, d.backlog);
-        assert_eq!(c.limits.keep_alive_secs, d.keep_alive_secs);
-        assert_eq!(
-            c.limits.header_read_timeout_secs,
-            d.header_read_timeout_secs
-        );
-        assert_eq!(c.limits.body_read_timeout_secs, d.body_read_timeout_secs);
-        assert_eq!(c.limits.request_timeout_secs, d.request_timeout_secs);
-        assert_eq!(c.limits.disconnect_timeout_ms, d.disconnect_timeout_ms);
-    }
-
-    #[test]
-    fn deadlines_of_zero_are_refused() {
-        for flag in [
-            "--header-read-timeout-secs",
-            "--body-read-timeout-secs",
-            "--request-timeout-secs",
-        ] {
-            assert!(Cli::try_parse_from(["tightspec", "serve", flag, "0"]).is_err());
-            assert!(Cli::try_parse_from(["tightspec", "serve", flag, "1"]).is_ok());
-        }
-    }
-
-    #[test]
     fn connections_are_shared_among_workers() {
         let l = Limits::default();
         assert_eq!(l.per_worker(2), 1024);
@@ -269,11 +166,5 @@ mod tests {
         };
         assert_eq!(small.per_worker(2), 3);
         assert_eq!(small.per_worker(0), 5);
-    }
-
-    #[test]
-    fn clap_definition_is_consistent() {
-        use clap::CommandFactory;
-        Cli::command().debug_assert();
     }
 }

@@ -7,6 +7,7 @@
 //! registrations the OpenAPI document is generated from); `config` reads
 //! flags and environment.
 
+pub mod app;
 pub mod catalogue;
 pub mod cli;
 pub mod config;

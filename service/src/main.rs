@@ -6,6 +6,6 @@ use clap::Parser;
 
 #[tokio::main]
 async fn main() -> ExitCode {
-    let cli = tightspec::config::Cli::parse();
+    let cli = tightspec::cli::Cli::parse();
     tightspec::cli::run(cli.command).await
 }

@@ -3,9 +3,9 @@
 //! [`Application::build`] binds the listen address (port 0 picks a free
 //! one, see [`Application::port`]) and [`Application::run_until_stopped`]
 //! serves until SIGTERM/SIGINT, letting in-flight requests finish within
-//! the configured shutdown timeout. [`routes`] is the one place where every
-//! HTTP module registers its handlers; the OpenAPI document is generated
-//! from exactly these registrations.
+//! the configured shutdown timeout. [`app`] puts `crate::http::routes` (the
+//! one place where every HTTP module registers its handlers) together with
+//! the middleware and the fallback.
 
 use std::net::TcpListener;
 use std::sync::Arc;
@@ -16,7 +16,6 @@ use actix_web::dev::{Server, ServiceFactory, ServiceRequest, ServiceResponse};
 use actix_web::http::KeepAlive;
 use actix_web::middleware::from_fn;
 use actix_web::{web, App, HttpServer};
-use utoipa_actix_web::service_config::ServiceConfig;
 use utoipa_actix_web::AppExt;
 
 use crate::config::Config;
@@ -24,7 +23,7 @@ use crate::http::catalogue::CatalogueWiring;
 use crate::http::error::ApiError;
 use crate::http::metrics::Metrics;
 use crate::http::state::AppState;
-use crate::http::{accept, deadline, extract, health, metrics, openapi, reference, request_id};
+use crate::http::{accept, deadline, extract, metrics, openapi, request_id};
 
 /// Why the service could not start.
 #[derive(Debug, thiserror::Error)]
@@ -40,22 +39,6 @@ pub enum StartupError {
     OpenApi(#[from] serde_json::Error),
     #[error("catalogue store: {0}")]
     Store(#[from] crate::store::StoreError),
-}
-
-/// Every route of the service. Each HTTP module exposes
-/// `pub fn configure(cfg: &mut ServiceConfig)` and is called here.
-///
-/// actix-web tries resources in registration order and matches each
-/// pattern with a parameter (`/v1/friction-entries/{id}`) by regular
-/// expression, so the hot look-ups (specs and setpoints, fixed paths) come
-/// first: registered last they paid for about twenty failed regex matches
-/// on every request.
-pub fn routes(cfg: &mut ServiceConfig) {
-    health::configure(cfg);
-    crate::http::specs::configure(cfg);
-    reference::configure(cfg);
-    crate::http::catalogue::configure(cfg);
-    crate::http::friction_tests::configure(cfg);
 }
 
 /// The application for one worker: routes, extractor error handlers,
@@ -75,7 +58,7 @@ pub fn app(
     let limit = state.config.max_body_bytes;
     let (app, _api) = App::new()
         .into_utoipa_app()
-        .configure(routes)
+        .configure(crate::http::routes)
         .split_for_parts();
     let catalogue_service = state.catalogue_service.clone();
     let auth = state.auth.clone();

@@ -1,6 +1,7 @@
-//! Command-line entry points. `main.rs` parses [`crate::config::Cli`] and
+//! Command-line entry points. `main.rs` parses [`Cli`] (`args.rs`) and
 //! calls [`run`]; each subcommand lives in its own module.
 
+mod args;
 pub mod catalogue;
 pub mod friction;
 pub mod openapi;
@@ -10,8 +11,8 @@ pub mod token;
 use std::io::Write;
 use std::process::ExitCode;
 
-use crate::config::Command;
 use crate::startup::{init_logging, Application};
+pub use args::{Cli, Command, DatabaseArgs};
 
 /// Runs one command; errors are printed to stderr with exit code 1.
 pub async fn run(command: Command) -> ExitCode {

@@ -369,5 +369,7 @@ impl From<EngineError> for ApiError {
     }
 }
 
+mod from_app;
+
 #[cfg(test)]
 mod tests;

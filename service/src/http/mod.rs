@@ -9,7 +9,7 @@
 //! quantities), `openapi` and `routes_table` (404 versus 405 from the
 //! document). Routes: `health`, `reference` and `reference_lists`, and the
 //! feature modules `specs`, `catalogue` and `friction_tests`, all registered
-//! in `crate::startup::routes`.
+//! in `routes`.
 
 pub mod accept;
 pub mod auth;
@@ -30,3 +30,19 @@ pub mod request_id;
 pub mod routes_table;
 pub mod specs;
 pub mod state;
+
+/// Every route of the service. Each HTTP module exposes
+/// `pub fn configure(cfg: &mut ServiceConfig)` and is called here.
+///
+/// actix-web tries resources in registration order and matches each
+/// pattern with a parameter (`/v1/friction-entries/{id}`) by regular
+/// expression, so the hot look-ups (specs and setpoints, fixed paths) come
+/// first: registered last they paid for about twenty failed regex matches
+/// on every request.
+pub fn routes(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
+    health::configure(cfg);
+    specs::configure(cfg);
+    reference::configure(cfg);
+    catalogue::configure(cfg);
+    friction_tests::configure(cfg);
+}

@@ -1,6 +1,6 @@
 //! Which methods each known path answers, read once from the OpenAPI
 //! document (itself generated from the registrations in
-//! [`crate::startup::routes`]), so the fallback can tell "no such path"
+//! [`crate::http::routes`]), so the fallback can tell "no such path"
 //! (404) from "this path, another method" (405 with `Allow`, RFC 9110
 //! §15.5.6).
 
