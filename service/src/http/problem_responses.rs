@@ -21,8 +21,11 @@
 //! 405 (another method on a known path, with `Allow`) concerns no single
 //! operation; its shared response is defined here for reference and the
 //! document's description says when it is answered. Route-specific
-//! descriptions written in a `#[utoipa::path]` stay; the rules only add
-//! what is missing.
+//! descriptions written in a `#[utoipa::path]` stay (a route writes only
+//! its status and description, e.g. `(status = 404, description = "No
+//! such entry")`); the rules give every error response without a body the
+//! problem body (`application/problem+json`, schema `Problem`) and add
+//! the shared responses a route did not describe.
 
 use utoipa::openapi::path::{Operation, ParameterIn};
 use utoipa::openapi::{ContentBuilder, OpenApi, Ref, RefOr, ResponseBuilder};
@@ -75,6 +78,7 @@ impl utoipa::Modify for ProblemResponses {
                 &mut item.patch,
             ];
             for op in operations.into_iter().flatten() {
+                give_problem_bodies(op);
                 for status in statuses(path, op) {
                     add(op, status);
                 }
@@ -112,6 +116,22 @@ fn statuses(path: &str, op: &Operation) -> Vec<u16> {
     }
     out.sort_unstable();
     out
+}
+
+/// The problem body for every error response (4xx, 5xx) an operation
+/// describes itself without content.
+fn give_problem_bodies(op: &mut Operation) {
+    for (status, response) in op.responses.responses.iter_mut() {
+        let is_error = status.starts_with('4') || status.starts_with('5');
+        if let (true, RefOr::T(response)) = (is_error, response) {
+            if response.content.is_empty() {
+                let content = ContentBuilder::new()
+                    .schema(Some(Ref::from_schema_name("Problem")))
+                    .build();
+                response.content.insert(PROBLEM_JSON.to_string(), content);
+            }
+        }
+    }
 }
 
 fn add(op: &mut Operation, status: u16) {
@@ -159,6 +179,34 @@ mod tests {
                 "GET spec lacks {s}: {spec:?}"
             );
         }
+    }
+
+    #[test]
+    fn every_error_response_is_a_problem() {
+        let doc = serde_json::to_value(crate::http::openapi::document()).expect("json");
+        let mut checked = 0;
+        for (path, item) in doc["paths"].as_object().expect("paths") {
+            for (method, op) in item.as_object().expect("path item") {
+                for (status, response) in op["responses"].as_object().expect("responses") {
+                    let error = status.starts_with('4') || status.starts_with('5');
+                    // `/readyz` answers 503 with its readiness checks, not a problem.
+                    let readiness = path == "/readyz" && status == "503";
+                    if !error || readiness || response.get("$ref").is_some() {
+                        continue;
+                    }
+                    let schema = &response["content"]["application/problem+json"]["schema"]["$ref"];
+                    assert_eq!(
+                        schema, "#/components/schemas/Problem",
+                        "{method} {path} {status} is not a problem response"
+                    );
+                    checked += 1;
+                }
+            }
+        }
+        assert!(
+            checked > 50,
+            "route-specific error responses checked: {checked}"
+        );
     }
 
     #[test]
