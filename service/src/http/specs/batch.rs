@@ -29,9 +29,10 @@ use crate::http::auth::Reader;
 use crate::http::error::{ApiError, Problem};
 use crate::http::state::AppState;
 
-use super::handlers::{compute_one, snapshot_for};
-use super::response::{spec_response, SpecResponse};
-use super::setpoints::{setpoints, SetpointResponse, ToolOptions};
+use super::handlers::snapshot_for;
+use crate::app::spec::compute_one;
+use crate::app::spec::setpoints::{setpoints, ToolOptions};
+use crate::app::spec::view::{spec_response, SetpointResponse, SpecResponse};
 
 pub mod item;
 pub use item::{read_item, Answer, BatchItemRequest, ItemRequest};
@@ -160,7 +161,7 @@ fn answer_item(index: usize, item: &ItemRequest, snapshot: &Snapshot, stale: boo
             };
             match setpoints(&spec, &resolved, tool, stale) {
                 Ok(sp) => out.setpoints = Some(sp),
-                Err(e) => return failed(index, e.problem()),
+                Err(e) => return failed(index, ApiError::from(e).problem()),
             }
         }
     }

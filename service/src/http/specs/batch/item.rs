@@ -16,10 +16,11 @@ use serde_json::value::RawValue;
 use serde_json::{Map, Value};
 use utoipa::ToSchema;
 
+use crate::app::quantity::TorqueUnit;
+use crate::app::spec::checks::{known_codes, ACCEPT_FIELD};
+use crate::app::spec::SpecRequest;
+use crate::app::AppError;
 use crate::http::error::ApiError;
-use crate::http::quantity::TorqueUnit;
-use crate::http::specs::checks::{known_codes, ACCEPT_FIELD};
-use crate::http::specs::request::SpecRequest;
 
 /// What a batch item asks for.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize, Deserialize, ToSchema)]
@@ -177,11 +178,11 @@ fn answer(o: AnswerOptions) -> Result<Answer, ApiError> {
     }
     let unit = match o.torque_unit.as_deref() {
         None => TorqueUnit::NewtonMetre,
-        Some(t) => TorqueUnit::parse("torque_unit", t)?,
+        Some(t) => TorqueUnit::parse("torque_unit", t).map_err(AppError::from)?,
     };
     let codes = o.accept_checks.unwrap_or_default();
-    let accept = known_codes(ACCEPT_FIELD, codes.iter().map(String::as_str))
-        .map_err(|e| ApiError::from(super::super::ItemErrors::from(e)))?;
+    let accept =
+        known_codes(ACCEPT_FIELD, codes.iter().map(String::as_str)).map_err(AppError::from)?;
     Ok(Answer::Setpoints(SetpointAsk {
         unit,
         resolution: o.resolution,

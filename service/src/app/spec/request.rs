@@ -19,8 +19,8 @@ use serde::de::{self, MapAccess, Visitor};
 use serde::{Deserialize, Deserializer, Serialize};
 use utoipa::ToSchema;
 
-use crate::http::quantity::Quantity;
-pub use crate::http::quantity::Units;
+use crate::app::quantity::Quantity;
+pub use crate::app::quantity::Units;
 
 /// A friction coefficient: one value (`0.12`) or a range
 /// (`{"min": 0.10, "max": 0.16}`).
@@ -172,7 +172,7 @@ pub struct SpecRequest {
     #[serde(
         default,
         skip_serializing_if = "Option::is_none",
-        deserialize_with = "crate::http::extract::integral"
+        deserialize_with = "crate::app::reading::integral"
     )]
     #[schema(minimum = 1)]
     pub catalogue_revision: Option<i64>,
