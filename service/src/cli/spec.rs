@@ -239,4 +239,6 @@ pub fn table(s: &SpecResponse) -> String {
 }
 
 #[cfg(test)]
+mod parameters;
+#[cfg(test)]
 mod tests;
