@@ -10,7 +10,10 @@
 //!   friction looked up in the snapshot ([`friction`]) and the content hash.
 //! - [`compute_one`] — resolve and compute one request.
 //! - [`setpoints`] — the window rounded to a tool's resolution
-//!   ([`rounding`]), passed through the checks gate ([`checks`]).
+//!   ([`rounding`]), passed through the checks gate ([`checks`]), for
+//!   what the tool asks ([`tool`]).
+//! - [`snapshot`] — the catalogue a spec is answered from outside the
+//!   server (built-in seed or a database).
 //! - [`view`] — the answers as the API serves them and `--json` prints
 //!   them (with [`cautions`]).
 
@@ -22,6 +25,7 @@ pub mod resolve;
 pub mod rounding;
 pub mod setpoints;
 pub mod snapshot;
+pub mod tool;
 pub mod view;
 
 pub use request::{SetpointQuery, SpecQuery, SpecRequest};

@@ -8,12 +8,11 @@ use actix_web::http::header::{HeaderValue, CACHE_CONTROL, CONTENT_TYPE, ETAG};
 use actix_web::{get, post, web, HttpRequest, HttpResponse};
 use serde::Serialize;
 
-use crate::app::quantity::{TorqueUnit, Units};
-use crate::app::spec::checks::codes_from_query;
-use crate::app::spec::setpoints::{setpoints, ToolOptions};
+use crate::app::quantity::Units;
+use crate::app::spec::setpoints::setpoints;
 use crate::app::spec::view::{spec_response, SetpointResponse, SpecResponse};
 use crate::app::spec::{compute_one, SetpointQuery, SpecQuery, SpecRequest};
-use crate::app::{AppError, FieldProblem};
+use crate::app::AppError;
 use crate::catalogue::Snapshot;
 use crate::http::auth::Reader;
 use crate::http::error::{ApiError, Problem};
@@ -255,59 +254,24 @@ pub async fn get_setpoints(
     .await
 }
 
-/// The rendered answer of one setpoint query: the torque unit and the spec
-/// request are read together so that every bad parameter is reported.
+/// The rendered answer of one setpoint query.
 async fn setpoint_answer(
     state: &AppState,
     served: Served,
     query: &SetpointQuery,
 ) -> Result<Rendered, ApiError> {
-    let mut problems: Vec<FieldProblem> = Vec::new();
-    let unit = match query.torque_unit.as_deref() {
-        None => Some(TorqueUnit::NewtonMetre),
-        Some(t) => match TorqueUnit::parse("torque_unit", t) {
-            Ok(u) => Some(u),
-            Err(e) => {
-                problems.push(e);
-                None
-            }
-        },
-    };
-    let accept = match query.accept_checks.as_deref().map(codes_from_query) {
-        None => Some(Vec::new()),
-        Some(Ok(codes)) => Some(codes),
-        Some(Err(e)) => {
-            problems.push(e);
-            None
-        }
-    };
-    let req = match query.to_request() {
-        Ok(r) => Some(r),
-        Err(e) => {
-            problems.extend(e);
-            None
-        }
-    };
-    let (Some(unit), Some(accept), Some(req)) = (unit, accept, req) else {
-        return Err(AppError::Fields(problems).into());
-    };
+    let (req, tool) = query.read()?;
     let snapshot = snapshot_for(state, req.catalogue_revision).await?;
     let (resolved, spec) = compute_one(&req, &snapshot)?;
     let presentation = format!(
         "setpoints|{}|{:?}|{:?}|{}",
-        unit.symbol(),
-        query.resolution,
-        query.angle_resolution,
-        accept.join(",")
+        tool.unit.symbol(),
+        tool.resolution,
+        tool.angle_resolution,
+        tool.accept.join(",")
     );
     let tag = etag(&resolved.content_hash, &presentation);
-    let tool = ToolOptions {
-        unit,
-        resolution: query.resolution,
-        angle_resolution: query.angle_resolution,
-        accept: &accept,
-    };
-    let body = setpoints(&spec, &resolved, tool, served.stale)?;
+    let body = setpoints(&spec, &resolved, tool.options(), served.stale)?;
     let body = json_bytes(&body, SPEC_JSON_CAPACITY)?;
     served.rendered(resolved.pinned, tag, body)
 }
