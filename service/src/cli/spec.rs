@@ -6,7 +6,7 @@
 //!
 //! The catalogue is the service's: the configured database
 //! (`--database-url` / `DATABASE_URL`, default the embedded SQLite store),
-//! or with `--builtin-catalogue` the built-in seed catalogue (revision 1)
+//! or with `--builtin-catalogue` the built-in seed catalogue (what a fresh database holds)
 //! without touching any database.
 
 use std::fmt::Write as _;
@@ -28,7 +28,7 @@ pub struct SpecArgs {
     /// Print the API's JSON instead of the table.
     #[arg(long)]
     pub json: bool,
-    /// Use the built-in seed catalogue (revision 1), no database.
+    /// Use the built-in seed catalogue (what a fresh database holds), no database.
     #[arg(long)]
     pub builtin_catalogue: bool,
     /// `postgres://…` or `sqlite://path`; default: the embedded SQLite store.

@@ -1,5 +1,6 @@
-//! Thin handlers: fetch the catalogue snapshot, run the shared parse step
-//! and the engine, render with ETag and Cache-Control. GET look-ups go
+//! Thin handlers: extract the query or body, fetch the catalogue snapshot,
+//! call the spec use case (`app::spec`), write its view as JSON with ETag
+//! and Cache-Control. GET look-ups go
 //! through the route's answer cache ([`super::answer_cache`]).
 
 use std::sync::Arc;
