@@ -10,6 +10,9 @@
 //! - `quantity` — wire quantities `{"value", "unit"}` and units, read into
 //!   engine quantities (a misread is a [`FieldProblem`]).
 //! - `reading` — nearest-name suggestions and JSON Schema integers.
+//!
+//! `layering_tests` checks from the source that the spec paths keep these
+//! edges.
 
 pub mod error;
 pub mod quantity;
@@ -17,3 +20,6 @@ pub mod reading;
 pub mod spec;
 
 pub use error::{AppError, FieldProblem, ProblemClass};
+
+#[cfg(test)]
+mod layering_tests;
