@@ -17,15 +17,15 @@ use std::sync::Arc;
 
 use serde_json::value::RawValue;
 
+use tightspec::app::quantity::TorqueUnit;
+use tightspec::app::spec::setpoints::{setpoints, ToolOptions};
+use tightspec::app::spec::view::spec_response;
+use tightspec::app::spec::{compute_one, SetpointQuery, SpecQuery};
 use tightspec::catalogue::Snapshot;
-use tightspec::http::quantity::TorqueUnit;
 use tightspec::http::specs::batch::{
     read_item, write_items, ReadItem, CHUNK_ITEMS, ITEM_JSON_BYTES,
 };
-use tightspec::http::specs::handlers::{compute_one, json_bytes, SPEC_JSON_CAPACITY};
-use tightspec::http::specs::request::{SetpointQuery, SpecQuery};
-use tightspec::http::specs::response::spec_response;
-use tightspec::http::specs::setpoints::{setpoints, ToolOptions};
+use tightspec::http::specs::handlers::{json_bytes, SPEC_JSON_CAPACITY};
 
 /// Kestrel K4 rear axle clamp (demo): M10 8.8, zinc-plated, light oil,
 /// catalogue friction, click wrench.

@@ -11,16 +11,16 @@
 use proptest::prelude::*;
 use proptest::test_runner::Config;
 
+use crate::app::spec::request::quantity_from_query;
+use crate::app::spec::view::spec_response;
+use crate::app::spec::{compute_one, SpecQuery, SpecRequest};
+use crate::app::FieldProblem;
 use crate::catalogue::exchange::parse_csv;
 use crate::catalogue::Snapshot;
 use crate::engine::thread::parse_designation;
 use crate::http::error::ApiError;
 use crate::http::extract::parse_query;
 use crate::http::specs::batch::read_item;
-use crate::http::specs::handlers::compute_one;
-use crate::http::specs::item_error::ItemError;
-use crate::http::specs::request::{quantity_from_query, SpecQuery, SpecRequest};
-use crate::http::specs::response::spec_response;
 
 fn config() -> Config {
     let cases = std::env::var("TIGHTSPEC_FUZZ_CASES")
@@ -39,7 +39,7 @@ fn names_fields(e: &ApiError) -> bool {
     !p.errors.is_empty() && p.errors.iter().all(|f| !f.field.is_empty())
 }
 
-fn items_name_fields(errors: &[ItemError]) -> bool {
+fn items_name_fields(errors: &[FieldProblem]) -> bool {
     !errors.is_empty() && errors.iter().all(|e| !e.field.is_empty())
 }
 
@@ -50,7 +50,7 @@ fn items_name_fields(errors: &[ItemError]) -> bool {
 /// infinity so), which the answer never holds otherwise.
 fn computes_or_names(req: &SpecRequest, seed: &Snapshot) -> Result<(), TestCaseError> {
     match compute_one(req, seed) {
-        Err(errors) => prop_assert!(items_name_fields(&errors.0), "{:?}", errors.0),
+        Err(e) => prop_assert!(items_name_fields(e.problems()), "{e:?}"),
         Ok((resolved, spec)) => {
             let answer = serde_json::to_value(spec_response(&spec, &resolved, false))
                 .map_err(|e| TestCaseError::fail(e.to_string()))?;

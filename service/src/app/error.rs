@@ -58,6 +58,12 @@ impl FieldProblem {
         self.suggestions = suggestions;
         self
     }
+
+    /// The field problems of a catalogue refusal about the request's
+    /// fields (an unknown finish, no friction entry, ...).
+    pub fn from_catalogue(e: &CatalogueError) -> Vec<Self> {
+        catalogue_problems(e)
+    }
 }
 
 /// Why a use case refused or failed.

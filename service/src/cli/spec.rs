@@ -1,121 +1,34 @@
-//! `tightspec spec`: the spec endpoint's computation from the shell. The
-//! flags are the query parameters of `GET /v1/tightening-specs` (with `-`
-//! for `_`), read by the same parse step, computed by the same engine call
-//! and rendered from the same wire response: a readable table by default,
+//! `tightspec spec`: the spec use case from the shell. The flags are the
+//! query parameters of `GET /v1/tightening-specs` (with `-` for `_`, the
+//! same declaration flattened), read by the same parse step, computed by
+//! the same use case and rendered from the same view: a readable table by default,
 //! the API's JSON with `--json`.
 //!
 //! The catalogue is the service's: the configured database
 //! (`--database-url` / `DATABASE_URL`, default the embedded SQLite store),
-//! or with `--builtin-catalogue` the built-in seed catalogue (revision 1)
+//! or with `--builtin-catalogue` the built-in seed catalogue (what a fresh database holds)
 //! without touching any database.
 
 use std::fmt::Write as _;
-use std::sync::Arc;
 
 use clap::Args;
 
-use crate::catalogue::Snapshot;
-use crate::engine::bearing::{HeadType, HoleSeries, Washer};
-use crate::http::quantity::{Quantity, Units};
-use crate::http::specs::checks::error_count;
-use crate::http::specs::request::SpecQuery;
-use crate::http::specs::response::{spec_response, SpecResponse};
-use crate::http::specs::{compute_one, ItemErrors};
-use crate::store::Store;
+use crate::app::quantity::Quantity;
+use crate::app::spec::snapshot::{snapshot, CatalogueSource};
+use crate::app::spec::view::{error_count, spec_response, SpecResponse};
+use crate::app::spec::{compute_one, SpecQuery};
+use crate::app::{AppError, ProblemClass};
 
-/// Flags of `tightspec spec` (the `GET /v1/tightening-specs` parameters).
-/// Help text listing every value of a `--head`, `--washer` or `--hole`
-/// option (the same lists `/v1/bearing-types` serves).
-fn choices<T: Copy>(what: &str, all: &[T], id: fn(T) -> &'static str) -> String {
-    let ids: Vec<&str> = all.iter().map(|v| id(*v)).collect();
-    format!("{what}: {} (see GET /v1/bearing-types)", ids.join(", "))
-}
-
+/// Flags of `tightspec spec`: the `GET /v1/tightening-specs` parameters
+/// (declared once, in `app::spec::request`) and the command's own three.
 #[derive(Debug, Clone, Args)]
 pub struct SpecArgs {
-    /// Thread designation, e.g. M10, M10x1.25, "1/2-13 UNC".
-    #[arg(long)]
-    pub thread: String,
-    /// Property class or grade, e.g. 8.8, 10.9, A2-70, sae-j429-5.
-    #[arg(long)]
-    pub property_class: String,
-    /// Finish id from the friction catalogue.
-    #[arg(long)]
-    pub finish: Option<String>,
-    /// Lubricant id from the friction catalogue.
-    #[arg(long)]
-    pub lubricant: Option<String>,
-    /// One thread friction value μ_G (replaces the catalogue's).
-    #[arg(long)]
-    pub thread_friction: Option<f64>,
-    #[arg(long)]
-    pub thread_friction_min: Option<f64>,
-    #[arg(long)]
-    pub thread_friction_max: Option<f64>,
-    /// One bearing friction value μ_K (replaces the catalogue's).
-    #[arg(long)]
-    pub bearing_friction: Option<f64>,
-    #[arg(long)]
-    pub bearing_friction_min: Option<f64>,
-    #[arg(long)]
-    pub bearing_friction_max: Option<f64>,
-    /// Tightening method id (click-wrench, dc-nutrunner, torque-angle, ...).
-    #[arg(long)]
-    pub tightening_method: Option<String>,
-    /// Tool scatter as a fraction (0.05 = ±5 %).
-    #[arg(long)]
-    pub tool_scatter: Option<f64>,
-    #[arg(long, help = choices("Head type", HeadType::ALL, HeadType::id))]
-    pub head: Option<String>,
-    #[arg(long, help = choices("Washer", Washer::ALL, Washer::id))]
-    pub washer: Option<String>,
-    #[arg(long, help = choices("Clearance-hole series", HoleSeries::ALL, HoleSeries::id))]
-    pub hole: Option<String>,
-    /// Explicit outer bearing diameter with unit, e.g. 16.6mm.
-    #[arg(long)]
-    pub bearing_outer_diameter: Option<String>,
-    /// Explicit inner bearing diameter with unit, e.g. 11mm.
-    #[arg(long)]
-    pub bearing_inner_diameter: Option<String>,
-    /// Utilisation ν of the minimum yield strength (default 0.9).
-    #[arg(long)]
-    pub utilisation: Option<f64>,
-    /// With unit, e.g. 2N·m.
-    #[arg(long)]
-    pub prevailing_torque: Option<String>,
-    /// With unit, e.g. 40mm.
-    #[arg(long)]
-    pub clamp_length: Option<String>,
-    #[arg(long)]
-    pub clamped_material: Option<String>,
-    /// With unit, e.g. 30mm.
-    #[arg(long)]
-    pub joint_outer_diameter: Option<String>,
-    /// through-bolted (default) or tapped-hole.
-    #[arg(long)]
-    pub joint_type: Option<String>,
-    /// With unit, e.g. 15mm.
-    #[arg(long)]
-    pub engagement_length: Option<String>,
-    /// With unit, e.g. 15kN.
-    #[arg(long)]
-    pub required_clamp_load: Option<String>,
-    /// maximum-preload (default) or minimum-clamp-load.
-    #[arg(long)]
-    pub window_mode: Option<String>,
-    /// With unit, e.g. 10N·m.
-    #[arg(long)]
-    pub snug_torque: Option<String>,
-    /// si (default) or us.
-    #[arg(long, value_parser = parse_units)]
-    pub units: Option<Units>,
-    /// Catalogue revision to answer from (default: current).
-    #[arg(long)]
-    pub catalogue_revision: Option<i64>,
+    #[command(flatten)]
+    pub query: SpecQuery,
     /// Print the API's JSON instead of the table.
     #[arg(long)]
     pub json: bool,
-    /// Use the built-in seed catalogue (revision 1), no database.
+    /// Use the built-in seed catalogue (what a fresh database holds), no database.
     #[arg(long)]
     pub builtin_catalogue: bool,
     /// `postgres://…` or `sqlite://path`; default: the embedded SQLite store.
@@ -123,77 +36,26 @@ pub struct SpecArgs {
     pub database_url: Option<String>,
 }
 
-fn parse_units(s: &str) -> Result<Units, String> {
-    match s {
-        "si" => Ok(Units::Si),
-        "us" => Ok(Units::Us),
-        other => Err(format!("'{other}' is not a unit system; use si or us")),
+/// The status the API answers the same refusal with, so that the shell and
+/// the API read alike.
+fn status(class: ProblemClass) -> u16 {
+    match class {
+        ProblemClass::Malformed => 400,
+        ProblemClass::Unknown => 404,
+        ProblemClass::Invalid => 422,
     }
 }
 
-impl SpecArgs {
-    fn query(&self) -> SpecQuery {
-        SpecQuery {
-            thread: self.thread.clone(),
-            property_class: self.property_class.clone(),
-            finish: self.finish.clone(),
-            lubricant: self.lubricant.clone(),
-            thread_friction: self.thread_friction,
-            thread_friction_min: self.thread_friction_min,
-            thread_friction_max: self.thread_friction_max,
-            bearing_friction: self.bearing_friction,
-            bearing_friction_min: self.bearing_friction_min,
-            bearing_friction_max: self.bearing_friction_max,
-            tightening_method: self.tightening_method.clone(),
-            tool_scatter: self.tool_scatter,
-            head: self.head.clone(),
-            washer: self.washer.clone(),
-            hole: self.hole.clone(),
-            bearing_outer_diameter: self.bearing_outer_diameter.clone(),
-            bearing_inner_diameter: self.bearing_inner_diameter.clone(),
-            utilisation: self.utilisation,
-            prevailing_torque: self.prevailing_torque.clone(),
-            clamp_length: self.clamp_length.clone(),
-            clamped_material: self.clamped_material.clone(),
-            joint_outer_diameter: self.joint_outer_diameter.clone(),
-            joint_type: self.joint_type.clone(),
-            engagement_length: self.engagement_length.clone(),
-            required_clamp_load: self.required_clamp_load.clone(),
-            window_mode: self.window_mode.clone(),
-            snug_torque: self.snug_torque.clone(),
-            units: self.units,
-            catalogue_revision: self.catalogue_revision,
-        }
+/// A refusal as lines a person reads: every field problem with its
+/// suggestions, or the one sentence of any other error.
+pub fn problems_text(e: &AppError) -> String {
+    let problems = e.problems();
+    if problems.is_empty() {
+        return e.to_string();
     }
-}
-
-/// The catalogue snapshot the command answers from.
-async fn snapshot(args: &SpecArgs) -> Result<Arc<Snapshot>, String> {
-    if args.builtin_catalogue {
-        let seed = Snapshot::seed();
-        return match args.catalogue_revision {
-            None => Ok(Arc::new(seed)),
-            Some(r) if r == seed.revision => Ok(Arc::new(seed)),
-            Some(r) => Err(format!(
-                "catalogue_revision: the built-in catalogue is revision {}, not {r}",
-                seed.revision
-            )),
-        };
-    }
-    let store = Store::open(args.database_url.as_deref())
-        .await
-        .map_err(|e| e.to_string())?;
-    let snap = match args.catalogue_revision {
-        None => store.load_current().await,
-        Some(r) => store.load_at(r).await,
-    };
-    snap.map(Arc::new).map_err(|e| e.to_string())
-}
-
-/// Problems as lines a person reads.
-pub fn problems_text(e: &ItemErrors) -> String {
-    let mut out = format!("the request was refused ({}):", e.class().status());
-    for p in &e.0 {
+    let class = AppError::class(problems);
+    let mut out = format!("the request was refused ({}):", status(class));
+    for p in problems {
         let _ = write!(out, "\n  {}: {}", p.field, p.reason);
         if !p.suggestions.is_empty() {
             let _ = write!(out, " (did you mean: {})", p.suggestions.join(", "));
@@ -204,12 +66,20 @@ pub fn problems_text(e: &ItemErrors) -> String {
 
 /// Runs `tightspec spec`; returns the text to print.
 pub async fn run(args: &SpecArgs) -> Result<String, String> {
+    let refused = |e: AppError| problems_text(&e);
     let request = args
-        .query()
+        .query
         .to_request()
-        .map_err(|e| problems_text(&ItemErrors(e)))?;
-    let snapshot = snapshot(args).await?;
-    let (resolved, spec) = compute_one(&request, &snapshot).map_err(|e| problems_text(&e))?;
+        .map_err(|p| refused(AppError::Fields(p)))?;
+    let source = if args.builtin_catalogue {
+        CatalogueSource::Builtin
+    } else {
+        CatalogueSource::Database(args.database_url.clone())
+    };
+    let snapshot = snapshot(&source, request.catalogue_revision)
+        .await
+        .map_err(refused)?;
+    let (resolved, spec) = compute_one(&request, &snapshot).map_err(refused)?;
     let response = spec_response(&spec, &resolved, false);
     if args.json {
         serde_json::to_string_pretty(&response)
@@ -368,5 +238,7 @@ pub fn table(s: &SpecResponse) -> String {
     o
 }
 
+#[cfg(test)]
+mod parameters;
 #[cfg(test)]
 mod tests;

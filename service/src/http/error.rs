@@ -16,8 +16,8 @@ use actix_web::http::header::{self, HeaderValue};
 use actix_web::http::StatusCode;
 use actix_web::{HttpResponse, ResponseError};
 
+use crate::app::spec::view::CheckOut;
 use crate::engine::EngineError;
-use crate::http::specs::checks::CheckOut;
 
 pub use super::problem::{FieldError, Problem};
 

@@ -1,12 +1,13 @@
-//! The HTTP layer (actix-web): thin handlers over the engine, the catalogue
-//! and the store.
+//! The HTTP layer (actix-web): thin handlers over the use cases of `app`
+//! (and, where a use case has not moved there yet, the engine, the
+//! catalogue and the store).
 //!
 //! Infrastructure: `error` and `problem` (RFC 9457 problem responses),
 //! `problem_responses` (the shared problem responses of the OpenAPI
 //! document), `extract` (extractor error handlers), `accept` (content
 //! negotiation), `auth` (bearer tokens and roles), `request_id`, `metrics`,
 //! `deadline` (body-read and request deadlines), `state`, `quantity` (wire
-//! quantities), `openapi` and `routes_table` (404 versus 405 from the
+//! quantities, re-exported from `app`), `openapi` and `routes_table` (404 versus 405 from the
 //! document). Routes: `health`, `reference` and `reference_lists`, and the
 //! feature modules `specs`, `catalogue` and `friction_tests`, all registered
 //! in `routes`.
@@ -23,7 +24,9 @@ pub mod metrics;
 pub mod openapi;
 pub mod problem;
 pub mod problem_responses;
-pub mod quantity;
+/// Wire quantities live in `app` (both adapters read them); kept at this
+/// path for the HTTP modules.
+pub use crate::app::quantity;
 pub mod reference;
 pub mod reference_lists;
 pub mod request_id;

@@ -4,7 +4,7 @@
 use serde::Serialize;
 use utoipa::ToSchema;
 
-use crate::http::specs::checks::CheckOut;
+use crate::app::spec::view::CheckOut;
 
 /// Media type of every error body (RFC 9457 §3).
 pub const PROBLEM_JSON: &str = "application/problem+json";

@@ -29,9 +29,10 @@ use crate::http::auth::Reader;
 use crate::http::error::{ApiError, Problem};
 use crate::http::state::AppState;
 
-use super::handlers::{compute_one, snapshot_for};
-use super::response::{spec_response, SpecResponse};
-use super::setpoints::{setpoints, SetpointResponse, ToolOptions};
+use super::handlers::snapshot_for;
+use crate::app::spec::compute_one;
+use crate::app::spec::setpoints::setpoints;
+use crate::app::spec::view::{spec_response, SetpointResponse, SpecResponse};
 
 pub mod item;
 pub use item::{read_item, Answer, BatchItemRequest, ItemRequest};
@@ -151,18 +152,10 @@ fn answer_item(index: usize, item: &ItemRequest, snapshot: &Snapshot, stale: boo
     };
     match &item.answer {
         Answer::Spec => out.spec = Some(spec_response(&spec, &resolved, stale)),
-        Answer::Setpoints(ask) => {
-            let tool = ToolOptions {
-                unit: ask.unit,
-                resolution: ask.resolution,
-                angle_resolution: ask.angle_resolution,
-                accept: &ask.accept,
-            };
-            match setpoints(&spec, &resolved, tool, stale) {
-                Ok(sp) => out.setpoints = Some(sp),
-                Err(e) => return failed(index, e.problem()),
-            }
-        }
+        Answer::Setpoints(ask) => match setpoints(&spec, &resolved, ask.options(), stale) {
+            Ok(sp) => out.setpoints = Some(sp),
+            Err(e) => return failed(index, ApiError::from(e).problem()),
+        },
     }
     out
 }

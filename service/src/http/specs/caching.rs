@@ -1,6 +1,6 @@
 //! Content hash, ETag and Cache-Control of spec and setpoint responses.
 //!
-//! - The content hash identifies a spec: SHA-256 (hex) of the normalised
+//! - The content hash (`app::spec::resolve::content_hash`) identifies a spec: SHA-256 (hex) of the normalised
 //!   request (every input after defaults, names in their normal spelling,
 //!   numbers in SI) followed by the catalogue revision it was answered from.
 //!   The same hash appears in setpoint responses as `spec_hash`.
@@ -32,15 +32,6 @@ pub fn cache_control(pinned: bool) -> &'static str {
     }
 }
 
-/// SHA-256 (lower-case hex) of the normalised request bytes and the revision.
-pub fn content_hash(normalised: &[u8], revision: i64) -> String {
-    let mut h = Sha256::new();
-    h.update(normalised);
-    h.update(b"|catalogue_revision=");
-    h.update(revision.to_string().as_bytes());
-    hex::encode(h.finalize())
-}
-
 /// Strong ETag of one representation of a spec.
 pub fn etag(content_hash: &str, presentation: &str) -> String {
     let mut h = Sha256::new();
@@ -69,16 +60,8 @@ pub fn not_modified(headers: &HeaderMap, etag: &str) -> bool {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::app::spec::resolve::content_hash;
     use actix_web::http::header::HeaderValue;
-
-    #[test]
-    fn hash_depends_on_request_and_revision() {
-        let a = content_hash(b"{\"thread\":\"M10\"}", 1);
-        assert_eq!(a.len(), 64);
-        assert_ne!(a, content_hash(b"{\"thread\":\"M10\"}", 2));
-        assert_ne!(a, content_hash(b"{\"thread\":\"M12\"}", 1));
-        assert_eq!(a, content_hash(b"{\"thread\":\"M10\"}", 1));
-    }
 
     #[test]
     fn etag_depends_on_presentation() {

@@ -1,5 +1,6 @@
-//! Thin handlers: fetch the catalogue snapshot, run the shared parse step
-//! and the engine, render with ETag and Cache-Control. GET look-ups go
+//! Thin handlers: extract the query or body, fetch the catalogue snapshot,
+//! call the spec use case (`app::spec`), write its view as JSON with ETag
+//! and Cache-Control. GET look-ups go
 //! through the route's answer cache ([`super::answer_cache`]).
 
 use std::sync::Arc;
@@ -8,23 +9,20 @@ use actix_web::http::header::{HeaderValue, CACHE_CONTROL, CONTENT_TYPE, ETAG};
 use actix_web::{get, post, web, HttpRequest, HttpResponse};
 use serde::Serialize;
 
+use crate::app::quantity::Units;
+use crate::app::spec::setpoints::setpoints;
+use crate::app::spec::view::{spec_response, SetpointResponse, SpecResponse};
+use crate::app::spec::{compute_one, SetpointQuery, SpecQuery, SpecRequest};
+use crate::app::AppError;
 use crate::catalogue::Snapshot;
-use crate::engine::spec::{compute, Spec};
 use crate::http::auth::Reader;
 use crate::http::error::{ApiError, Problem};
 use crate::http::extract::parse_query;
 use crate::http::metrics::CachedRoute;
-use crate::http::quantity::{TorqueUnit, Units};
 use crate::http::state::AppState;
 
 use super::answer_cache::Rendered;
 use super::caching::{cache_control, etag, not_modified};
-use super::checks::codes_from_query;
-use super::item_error::{ItemError, ItemErrors};
-use super::request::{SetpointQuery, SpecQuery, SpecRequest};
-use super::resolve::{from_engine, resolve, Resolved};
-use super::response::{spec_response, SpecResponse};
-use super::setpoints::{setpoints, SetpointResponse, ToolOptions};
 
 /// The catalogue snapshot a request is answered from: the live one, or the
 /// pinned revision (held in memory, else read from the store).
@@ -46,13 +44,6 @@ pub async fn snapshot_for(
         ));
     }
     state.catalogue_service.snapshot(Some(r)).await
-}
-
-/// Resolve and compute one request against a snapshot.
-pub fn compute_one(req: &SpecRequest, snapshot: &Snapshot) -> Result<(Resolved, Spec), ItemErrors> {
-    let resolved = resolve(req, snapshot)?;
-    let spec = compute(&resolved.input).map_err(|e| ItemErrors::from(from_engine(e)))?;
-    Ok((resolved, spec))
 }
 
 fn units_tag(u: Units) -> &'static str {
@@ -200,7 +191,7 @@ pub async fn get_spec(
     let (http, state) = (&http, &state);
     look_up(http, state, CachedRoute::Spec, |served| async move {
         let query: SpecQuery = parse_query(http.query_string())?;
-        let req = query.to_request().map_err(ItemErrors::from)?;
+        let req = query.to_request().map_err(AppError::Fields)?;
         spec_answer(state, served, &req).await
     })
     .await
@@ -264,59 +255,24 @@ pub async fn get_setpoints(
     .await
 }
 
-/// The rendered answer of one setpoint query: the torque unit and the spec
-/// request are read together so that every bad parameter is reported.
+/// The rendered answer of one setpoint query.
 async fn setpoint_answer(
     state: &AppState,
     served: Served,
     query: &SetpointQuery,
 ) -> Result<Rendered, ApiError> {
-    let mut problems: Vec<ItemError> = Vec::new();
-    let unit = match query.torque_unit.as_deref() {
-        None => Some(TorqueUnit::NewtonMetre),
-        Some(t) => match TorqueUnit::parse("torque_unit", t) {
-            Ok(u) => Some(u),
-            Err(e) => {
-                problems.extend(ItemError::from_api(&e));
-                None
-            }
-        },
-    };
-    let accept = match query.accept_checks.as_deref().map(codes_from_query) {
-        None => Some(Vec::new()),
-        Some(Ok(codes)) => Some(codes),
-        Some(Err(e)) => {
-            problems.push(e);
-            None
-        }
-    };
-    let req = match query.to_request() {
-        Ok(r) => Some(r),
-        Err(e) => {
-            problems.extend(e);
-            None
-        }
-    };
-    let (Some(unit), Some(accept), Some(req)) = (unit, accept, req) else {
-        return Err(ItemErrors(problems).into());
-    };
+    let (req, tool) = query.read()?;
     let snapshot = snapshot_for(state, req.catalogue_revision).await?;
     let (resolved, spec) = compute_one(&req, &snapshot)?;
     let presentation = format!(
         "setpoints|{}|{:?}|{:?}|{}",
-        unit.symbol(),
-        query.resolution,
-        query.angle_resolution,
-        accept.join(",")
+        tool.unit.symbol(),
+        tool.resolution,
+        tool.angle_resolution,
+        tool.accept.join(",")
     );
     let tag = etag(&resolved.content_hash, &presentation);
-    let tool = ToolOptions {
-        unit,
-        resolution: query.resolution,
-        angle_resolution: query.angle_resolution,
-        accept: &accept,
-    };
-    let body = setpoints(&spec, &resolved, tool, served.stale)?;
+    let body = setpoints(&spec, &resolved, tool.options(), served.stale)?;
     let body = json_bytes(&body, SPEC_JSON_CAPACITY)?;
     served.rendered(resolved.pinned, tag, body)
 }

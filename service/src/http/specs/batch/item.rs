@@ -16,10 +16,11 @@ use serde_json::value::RawValue;
 use serde_json::{Map, Value};
 use utoipa::ToSchema;
 
+use crate::app::spec::checks::{known_codes, ACCEPT_FIELD};
+use crate::app::spec::tool::{torque_unit, ToolAsk};
+use crate::app::spec::SpecRequest;
+use crate::app::AppError;
 use crate::http::error::ApiError;
-use crate::http::quantity::TorqueUnit;
-use crate::http::specs::checks::{known_codes, ACCEPT_FIELD};
-use crate::http::specs::request::SpecRequest;
 
 /// What a batch item asks for.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize, Deserialize, ToSchema)]
@@ -65,20 +66,11 @@ pub struct BatchItemRequest {
     pub answer: AnswerOptions,
 }
 
-/// The setpoint options of an item, read.
-#[derive(Debug, Clone, PartialEq)]
-pub struct SetpointAsk {
-    pub unit: TorqueUnit,
-    pub resolution: Option<f64>,
-    pub angle_resolution: Option<f64>,
-    pub accept: Vec<&'static str>,
-}
-
 /// What an item asks for, read.
 #[derive(Debug, Clone, PartialEq)]
 pub enum Answer {
     Spec,
-    Setpoints(SetpointAsk),
+    Setpoints(ToolAsk),
 }
 
 /// One item read.
@@ -175,14 +167,11 @@ fn answer(o: AnswerOptions) -> Result<Answer, ApiError> {
         }
         return Ok(Answer::Spec);
     }
-    let unit = match o.torque_unit.as_deref() {
-        None => TorqueUnit::NewtonMetre,
-        Some(t) => TorqueUnit::parse("torque_unit", t)?,
-    };
+    let unit = torque_unit(o.torque_unit.as_deref()).map_err(AppError::from)?;
     let codes = o.accept_checks.unwrap_or_default();
-    let accept = known_codes(ACCEPT_FIELD, codes.iter().map(String::as_str))
-        .map_err(|e| ApiError::from(super::super::ItemErrors::from(e)))?;
-    Ok(Answer::Setpoints(SetpointAsk {
+    let accept =
+        known_codes(ACCEPT_FIELD, codes.iter().map(String::as_str)).map_err(AppError::from)?;
+    Ok(Answer::Setpoints(ToolAsk {
         unit,
         resolution: o.resolution,
         angle_resolution: o.angle_resolution,
@@ -193,6 +182,7 @@ fn answer(o: AnswerOptions) -> Result<Answer, ApiError> {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::app::quantity::TorqueUnit;
 
     fn read(json: &str) -> Result<ItemRequest, ApiError> {
         let raw: Box<RawValue> = serde_json::from_str(json).unwrap();

@@ -1,7 +1,8 @@
 use super::*;
-use crate::http::quantity::Quantity;
-use crate::http::specs::item_error::ErrorClass;
-use crate::http::specs::request::{BearingInput, FrictionInput};
+use crate::app::quantity::Quantity;
+use crate::app::spec::request::{BearingInput, FrictionInput};
+use crate::app::ProblemClass;
+use crate::engine::angle::JointType;
 
 fn base() -> SpecRequest {
     SpecRequest {
@@ -20,8 +21,8 @@ fn mm(value: f64) -> Quantity {
     }
 }
 
-fn fields(e: &ItemErrors) -> Vec<&str> {
-    e.0.iter().map(|p| p.field.as_str()).collect()
+fn fields(e: &AppError) -> Vec<&str> {
+    e.problems().iter().map(|p| p.field.as_str()).collect()
 }
 
 #[test]
@@ -81,8 +82,12 @@ fn every_problem_is_listed() {
             "window_mode"
         ]
     );
-    assert_eq!(e.class(), ErrorClass::Malformed, "{e:?}");
-    assert_eq!(e.0[3].suggestions.len(), 3, "{e:?}");
+    assert_eq!(
+        AppError::class(e.problems()),
+        ProblemClass::Malformed,
+        "{e:?}"
+    );
+    assert_eq!(e.problems()[3].suggestions.len(), 3, "{e:?}");
 }
 
 #[test]
@@ -91,10 +96,10 @@ fn unknown_names_are_404_class_with_suggestions() {
     let mut r = base();
     r.tightening_method = Some("click-wrnch".into());
     let e = resolve(&r, &snap).unwrap_err();
-    assert_eq!(e.class(), ErrorClass::Unknown);
+    assert_eq!(AppError::class(e.problems()), ProblemClass::Unknown);
     assert_eq!(fields(&e), ["tightening_method"]);
     assert_eq!(
-        e.0[0].suggestions.first().map(String::as_str),
+        e.problems()[0].suggestions.first().map(String::as_str),
         Some("click-wrench")
     );
 }
@@ -118,7 +123,7 @@ fn engagement_needs_a_material() {
     r.engagement_length = Some(mm(12.0));
     let e = resolve(&r, &snap).unwrap_err();
     assert_eq!(fields(&e), ["clamped_material"]);
-    assert_eq!(e.class(), ErrorClass::Invalid);
+    assert_eq!(AppError::class(e.problems()), ProblemClass::Invalid);
 }
 
 #[test]
@@ -217,7 +222,7 @@ mod no_panic {
             let snap = Snapshot::seed();
             match resolve(&req, &snap) {
                 Ok(r) => { let _ = compute(&r.input); }
-                Err(e) => prop_assert!(!e.0.is_empty()),
+                Err(e) => prop_assert!(!e.problems().is_empty()),
             }
         }
     }

@@ -1,6 +1,7 @@
-//! Tests of `http::quantity`: spellings, exact factors, refusals.
+//! Tests of `app::quantity`: spellings, exact factors, refusals.
 
 use super::*;
+use crate::app::ProblemClass;
 
 fn close(a: f64, b: f64) -> bool {
     (a - b).abs() <= 1e-9 * b.abs().max(1.0)
@@ -85,17 +86,16 @@ fn wrong_kind_or_unknown_unit_names_the_field() {
     let e = Quantity::new(10.0, "N")
         .to_length("clamp_length")
         .expect_err("N is no length");
-    let p = e.problem();
-    assert_eq!(p.status, 400);
-    assert_eq!(p.errors[0].field, "clamp_length.unit");
+    assert_eq!(e.class, ProblemClass::Malformed);
+    assert_eq!(e.field, "clamp_length.unit");
     let e = Quantity::new(10.0, "furlong")
         .to_length("clamp_length")
         .expect_err("unknown");
-    assert!(e.problem().errors[0].reason.contains("furlong"));
+    assert!(e.reason.contains("furlong"));
     let e = Quantity::new(f64::NAN, "mm")
         .to_length("clamp_length")
         .expect_err("nan");
-    assert_eq!(e.problem().errors[0].field, "clamp_length.value");
+    assert_eq!(e.field, "clamp_length.value");
 }
 
 #[test]

@@ -1,3 +1,9 @@
+//! The answers of the spec use cases as the API serves them and
+//! `tightspec spec --json` prints them (the CLI's JSON is the API's JSON, so
+//! the views live here where both adapters reach them). This file builds the
+//! tightening-spec answer; `parts` holds its pieces, `checks` the checks
+//! and `setpoints` the tool's answer.
+//!
 //! Wire response of a tightening spec. Every physical quantity is a
 //! `{"value", "unit"}` object in the requested unit system (SI: N, N·m, mm,
 //! mm², MPa, degrees; US: lbf, lbf·ft, in, in², ksi, degrees). Built from the
@@ -12,14 +18,17 @@ use crate::engine::spec::{FrictionFigures, Spec, ValueSource, WindowMode};
 use crate::engine::window::Governing;
 
 use super::cautions::Cautions;
-use super::checks::{checks_out, CheckOut};
 use super::friction::FrictionOrigin;
 use super::request::Units;
 use super::resolve::Resolved;
-use crate::http::quantity::Quantity;
+use crate::app::quantity::Quantity;
 
+mod checks;
 mod parts;
+mod setpoints;
+pub use checks::{checks_out, error_count, CheckOut};
 pub use parts::*;
+pub use setpoints::{SetpointAngle, SetpointResponse};
 
 /// A complete tightening specification.
 #[derive(Debug, Clone, Serialize, ToSchema)]
@@ -61,7 +70,7 @@ pub struct SpecResponse {
     pub spec_hash: String,
 }
 
-/// The response's unit system applied to `http::quantity` conversions.
+/// The response's unit system applied to `app::quantity` conversions.
 #[derive(Clone, Copy)]
 struct Out(Units);
 

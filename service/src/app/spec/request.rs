@@ -1,8 +1,10 @@
-//! Wire requests for the tightening-spec endpoints.
+//! The spec request, declared here for every adapter: the HTTP endpoints
+//! and `tightspec spec` (whose flags are [`SpecQuery`]'s fields).
 //!
 //! - [`SpecRequest`]: the POST body (and one batch item), the full set of
 //!   options, quantities as `{"value", "unit"}`.
-//! - [`SpecQuery`]: the GET query of `/v1/tightening-specs`, scalar names.
+//! - [`SpecQuery`]: the GET query of `/v1/tightening-specs` and the flags of
+//!   `tightspec spec`, scalar names, declared once by `spec_query!`.
 //!   Friction is `thread_friction=0.12` (one value) or
 //!   `thread_friction_min=0.10&thread_friction_max=0.16` (a range); lengths,
 //!   forces and torques carry their unit in the value (`clamp_length=40mm`,
@@ -19,8 +21,8 @@ use serde::de::{self, MapAccess, Visitor};
 use serde::{Deserialize, Deserializer, Serialize};
 use utoipa::ToSchema;
 
-use crate::http::quantity::Quantity;
-pub use crate::http::quantity::Units;
+use crate::app::quantity::Quantity;
+pub use crate::app::quantity::Units;
 
 /// A friction coefficient: one value (`0.12`) or a range
 /// (`{"min": 0.10, "max": 0.16}`).
@@ -172,7 +174,7 @@ pub struct SpecRequest {
     #[serde(
         default,
         skip_serializing_if = "Option::is_none",
-        deserialize_with = "crate::http::extract::integral"
+        deserialize_with = "crate::app::reading::integral"
     )]
     #[schema(minimum = 1)]
     pub catalogue_revision: Option<i64>,

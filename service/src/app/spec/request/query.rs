@@ -1,16 +1,19 @@
 //! The flat query strings of the GET look-ups and their conversion into a
 //! [`SpecRequest`].
 
+use clap::Args;
 use serde::Deserialize;
 use utoipa::IntoParams;
 
+use crate::engine::bearing::{HeadType, HoleSeries, Washer};
+
 use super::{BearingInput, FrictionInput, SpecRequest, Units};
-use crate::http::quantity::Quantity;
-use crate::http::specs::item_error::ItemError;
+use crate::app::quantity::Quantity;
+use crate::app::FieldProblem;
 
 /// Reads a query value such as `40mm`, `40 mm`, `1.5in`, `2N·m` into a
 /// quantity. A bare number is refused: the unit must be stated.
-pub fn quantity_from_query(field: &str, text: &str) -> Result<Quantity, ItemError> {
+pub fn quantity_from_query(field: &str, text: &str) -> Result<Quantity, FieldProblem> {
     let t = text.trim();
     let split = t
         .char_indices()
@@ -28,19 +31,19 @@ pub fn quantity_from_query(field: &str, text: &str) -> Result<Quantity, ItemErro
     let (number, unit) = t.split_at(split);
     let unit = unit.trim();
     let value: f64 = number.parse().map_err(|_| {
-        ItemError::malformed(
+        FieldProblem::malformed(
             field,
             format!("'{text}' is not a number followed by a unit"),
         )
     })?;
     if !value.is_finite() {
-        return Err(ItemError::malformed(
+        return Err(FieldProblem::malformed(
             field,
             format!("'{text}': the number is too large to represent"),
         ));
     }
     if unit.is_empty() {
-        return Err(ItemError::malformed(
+        return Err(FieldProblem::malformed(
             field,
             format!("'{text}' has no unit; write it with one, e.g. 40mm, 1.5in, 20kN, 2N·m"),
         ));
@@ -51,87 +54,128 @@ pub fn quantity_from_query(field: &str, text: &str) -> Result<Quantity, ItemErro
     })
 }
 
-/// Declares a flat query struct with every spec parameter plus `$extra`
-/// fields, and its conversion into a [`SpecRequest`].
+/// Help text listing every value of a `--head`, `--washer` or `--hole`
+/// flag (the same lists `/v1/bearing-types` serves).
+fn choices<T: Copy>(what: &str, all: &[T], id: fn(T) -> &'static str) -> String {
+    let ids: Vec<&str> = all.iter().map(|v| id(*v)).collect();
+    format!("{what}: {} (see GET /v1/bearing-types)", ids.join(", "))
+}
+
+/// THE declaration of the spec parameters in their flat form: declares a
+/// struct with every spec parameter plus `$extra` fields, read as a GET
+/// query (serde, `deny_unknown_fields`), documented as query parameters
+/// (`IntoParams`) and parsed as command-line flags (`clap::Args`, `--`
+/// and the name with `-` for `_`), and its one conversion into a
+/// [`SpecRequest`]. A macro rather than `#[serde(flatten)]`: flattening
+/// loses `deny_unknown_fields` and the numbers of a urlencoded query.
 macro_rules! spec_query {
     ($(#[$meta:meta])* $name:ident { $($(#[$fmeta:meta])* $extra:ident : $ety:ty,)* }) => {
         $(#[$meta])*
-        #[derive(Debug, Clone, Default, Deserialize, IntoParams)]
+        #[derive(Debug, Clone, Default, Deserialize, IntoParams, Args)]
         #[serde(deny_unknown_fields)]
         #[into_params(parameter_in = Query)]
         pub struct $name {
             /// Thread designation, e.g. `M10`, `M10x1.25`, `1/2-13 UNC`.
             #[param(example = "M10")]
+            #[arg(long)]
             pub thread: String,
             /// Property class or grade, e.g. `8.8`, `A2-70`.
             #[param(example = "8.8")]
+            #[arg(long)]
             pub property_class: String,
             /// Finish id from the friction catalogue; required (with
             /// `lubricant`) unless thread and bearing friction are both
             /// given directly (422 naming it otherwise).
+            #[arg(long)]
             pub finish: Option<String>,
             /// Lubricant id from the friction catalogue; required (with
             /// `finish`) unless thread and bearing friction are both given
             /// directly (422 naming it otherwise).
+            #[arg(long)]
             pub lubricant: Option<String>,
             /// One thread friction value μ_G (replaces the catalogue's).
+            #[arg(long)]
             pub thread_friction: Option<f64>,
             /// Lower end of a thread friction range (with `thread_friction_max`).
+            #[arg(long)]
             pub thread_friction_min: Option<f64>,
             /// Upper end of a thread friction range.
+            #[arg(long)]
             pub thread_friction_max: Option<f64>,
             /// One bearing friction value μ_K (replaces the catalogue's).
+            #[arg(long)]
             pub bearing_friction: Option<f64>,
             /// Lower end of a bearing friction range (with `bearing_friction_max`).
+            #[arg(long)]
             pub bearing_friction_min: Option<f64>,
             /// Upper end of a bearing friction range.
+            #[arg(long)]
             pub bearing_friction_max: Option<f64>,
             /// Tightening method id; default `click-wrench`.
+            #[arg(long)]
             pub tightening_method: Option<String>,
             /// Tool scatter as a fraction (0.05 = ±5 %).
+            #[arg(long)]
             pub tool_scatter: Option<f64>,
             /// Head type; default `hexagon-head`.
+            #[arg(long, help = choices("Head type", HeadType::ALL, HeadType::id))]
             pub head: Option<String>,
             /// Washer: `none` (default) or `plain`.
+            #[arg(long, help = choices("Washer", Washer::ALL, Washer::id))]
             pub washer: Option<String>,
             /// Clearance-hole series: `fine`, `medium` (default), `coarse`.
+            #[arg(long, help = choices("Clearance-hole series", HoleSeries::ALL, HoleSeries::id))]
             pub hole: Option<String>,
             /// Explicit outer bearing diameter with unit, e.g. `16.6mm`.
+            #[arg(long)]
             pub bearing_outer_diameter: Option<String>,
             /// Explicit inner bearing diameter with unit, e.g. `11mm`.
+            #[arg(long)]
             pub bearing_inner_diameter: Option<String>,
             /// Utilisation ν of the minimum yield strength; default 0.9.
+            #[arg(long)]
             pub utilisation: Option<f64>,
             /// Prevailing torque with unit, e.g. `2N·m`.
+            #[arg(long)]
             pub prevailing_torque: Option<String>,
             /// Clamp length with unit, e.g. `40mm`.
+            #[arg(long)]
             pub clamp_length: Option<String>,
             /// Clamped-part material id.
+            #[arg(long)]
             pub clamped_material: Option<String>,
             /// Outer diameter of the clamped parts with unit, e.g. `30mm`.
+            #[arg(long)]
             pub joint_outer_diameter: Option<String>,
             /// `through-bolted` (default) or `tapped-hole`.
+            #[arg(long)]
             pub joint_type: Option<String>,
             /// Thread engagement length in a tapped hole with unit, e.g. `15mm`.
+            #[arg(long)]
             pub engagement_length: Option<String>,
             /// Required minimum clamp load with unit, e.g. `15kN`.
+            #[arg(long)]
             pub required_clamp_load: Option<String>,
             /// `maximum-preload` (default) or `minimum-clamp-load`.
+            #[arg(long)]
             pub window_mode: Option<String>,
             /// Snug torque with unit, e.g. `10N·m`.
+            #[arg(long)]
             pub snug_torque: Option<String>,
             /// Units of the response: `si` (default) or `us`.
+            #[arg(long, value_enum)]
             pub units: Option<Units>,
             /// Catalogue revision to answer from; default the current one.
-            #[serde(default, deserialize_with = "crate::http::extract::integral")]
+            #[serde(default, deserialize_with = "crate::app::reading::integral")]
             #[param(minimum = 1)]
+            #[arg(long)]
             pub catalogue_revision: Option<i64>,
             $($(#[$fmeta])* pub $extra: $ety,)*
         }
 
         impl $name {
             /// The equivalent full request; every problem found is returned.
-            pub fn to_request(&self) -> Result<SpecRequest, Vec<ItemError>> {
+            pub fn to_request(&self) -> Result<SpecRequest, Vec<FieldProblem>> {
                 let mut problems = Vec::new();
                 let thread_friction = friction_from_query(
                     "thread_friction",
@@ -173,7 +217,7 @@ macro_rules! spec_query {
                     (None, None) => None,
                     (Some(_), None) => {
                         if self.bearing_inner_diameter.is_none() {
-                            problems.push(ItemError::malformed(
+                            problems.push(FieldProblem::malformed(
                                 "bearing_inner_diameter",
                                 "give both bearing diameters or neither",
                             ));
@@ -182,7 +226,7 @@ macro_rules! spec_query {
                     }
                     (None, Some(_)) => {
                         if self.bearing_outer_diameter.is_none() {
-                            problems.push(ItemError::malformed(
+                            problems.push(FieldProblem::malformed(
                                 "bearing_outer_diameter",
                                 "give both bearing diameters or neither",
                             ));
@@ -236,15 +280,19 @@ spec_query! {
         /// Torque unit: `N·m` (default; also `N.m`, `Nm`, `N*m`), `lbf·ft`
         /// (also `lbf.ft`, `lbf*ft`, `ft-lbf`) or `lbf·in` (also `lbf.in`,
         /// `lbf*in`, `in-lbf`). The middle dot may be URL-encoded (`%C2%B7`).
+        #[arg(long)]
         torque_unit: Option<String>,
         /// Tool torque resolution in `torque_unit`; default 0.1.
+        #[arg(long)]
         resolution: Option<f64>,
         /// Tool angle resolution in degrees; default 1.
+        #[arg(long)]
         angle_resolution: Option<f64>,
         /// Error-severity check codes to accept, separated by commas (e.g.
         /// `surface_pressure_exceeded,thread_engagement_too_short`). While an
         /// error check applies the setpoints are refused (422, listing the
         /// checks) unless every one is named here.
+        #[arg(long)]
         accept_checks: Option<String>,
     }
 }
@@ -255,28 +303,28 @@ fn friction_from_query(
     single: Option<f64>,
     min: Option<f64>,
     max: Option<f64>,
-    problems: &mut Vec<ItemError>,
+    problems: &mut Vec<FieldProblem>,
 ) -> Option<FrictionInput> {
     match (single, min, max) {
         (None, None, None) => None,
         (Some(v), None, None) => Some(FrictionInput::Single(v)),
         (None, Some(min), Some(max)) => Some(FrictionInput::Range { min, max }),
         (Some(_), _, _) => {
-            problems.push(ItemError::malformed(
+            problems.push(FieldProblem::malformed(
                 field,
                 format!("give either {field} or {field}_min and {field}_max, not both"),
             ));
             None
         }
         (None, Some(_), None) => {
-            problems.push(ItemError::malformed(
+            problems.push(FieldProblem::malformed(
                 format!("{field}_max"),
                 format!("{field}_min needs {field}_max"),
             ));
             None
         }
         (None, None, Some(_)) => {
-            problems.push(ItemError::malformed(
+            problems.push(FieldProblem::malformed(
                 format!("{field}_min"),
                 format!("{field}_max needs {field}_min"),
             ));

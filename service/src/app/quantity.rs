@@ -21,7 +21,7 @@ use uom::si::f64::{Angle, Area, Force, Length, Pressure, Torque};
 use uom::si::{angle, area, force, length, pressure, torque};
 use utoipa::ToSchema;
 
-use super::error::ApiError;
+use super::error::FieldProblem;
 
 mod unit_table;
 use unit_table::{lookup, Unit};
@@ -51,7 +51,9 @@ pub struct Quantity {
 }
 
 /// Which unit system responses use.
-#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, Deserialize, ToSchema)]
+#[derive(
+    Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, Deserialize, ToSchema, clap::ValueEnum,
+)]
 #[serde(rename_all = "lowercase")]
 pub enum Units {
     /// N, N·m, mm, mm², MPa, degrees.
@@ -89,12 +91,12 @@ impl TorqueUnit {
 
     /// Reads a torque unit (`N·m`, `N*m`, `N.m`, `Nm`, `lbf·ft`, `lbf.ft`,
     /// `ft·lbf`, `lbf·in`, `lbf.in`, `in·lbf`, ...).
-    pub fn parse(field: &str, text: &str) -> Result<Self, ApiError> {
+    pub fn parse(field: &str, text: &str) -> Result<Self, FieldProblem> {
         match lookup(text) {
             Some(Unit::Torque(u, 1.0)) => Ok(u),
             _ => {
                 Err(Misread::wrong_unit(text, "a torque", "N·m, lbf·ft, lbf·in")
-                    .into_api_error(field))
+                    .into_problem(field))
             }
         }
     }
@@ -166,10 +168,10 @@ impl Misread {
         (format!("{field}.{}", self.part()), self.reason())
     }
 
-    /// A 400 problem naming `{field}.value` or `{field}.unit`.
-    pub fn into_api_error(self, field: &str) -> ApiError {
+    /// A malformed-field problem naming `{field}.value` or `{field}.unit`.
+    pub fn into_problem(self, field: &str) -> FieldProblem {
         let (field, reason) = self.field_and_reason(field);
-        ApiError::malformed(field, reason)
+        FieldProblem::malformed(field, reason)
     }
 }
 
@@ -307,34 +309,34 @@ impl Quantity {
         }
     }
 
-    /// [`Self::read_length`], refused as a 400 naming the field.
-    pub fn to_length(&self, field: &str) -> Result<Length, ApiError> {
-        self.read_length().map_err(|m| m.into_api_error(field))
+    /// [`Self::read_length`], refused as a malformed field.
+    pub fn to_length(&self, field: &str) -> Result<Length, FieldProblem> {
+        self.read_length().map_err(|m| m.into_problem(field))
     }
 
-    /// [`Self::read_area`], refused as a 400 naming the field.
-    pub fn to_area(&self, field: &str) -> Result<Area, ApiError> {
-        self.read_area().map_err(|m| m.into_api_error(field))
+    /// [`Self::read_area`], refused as a malformed field.
+    pub fn to_area(&self, field: &str) -> Result<Area, FieldProblem> {
+        self.read_area().map_err(|m| m.into_problem(field))
     }
 
-    /// [`Self::read_force`], refused as a 400 naming the field.
-    pub fn to_force(&self, field: &str) -> Result<Force, ApiError> {
-        self.read_force().map_err(|m| m.into_api_error(field))
+    /// [`Self::read_force`], refused as a malformed field.
+    pub fn to_force(&self, field: &str) -> Result<Force, FieldProblem> {
+        self.read_force().map_err(|m| m.into_problem(field))
     }
 
-    /// [`Self::read_torque`], refused as a 400 naming the field.
-    pub fn to_torque(&self, field: &str) -> Result<Torque, ApiError> {
-        self.read_torque().map_err(|m| m.into_api_error(field))
+    /// [`Self::read_torque`], refused as a malformed field.
+    pub fn to_torque(&self, field: &str) -> Result<Torque, FieldProblem> {
+        self.read_torque().map_err(|m| m.into_problem(field))
     }
 
-    /// [`Self::read_stress`], refused as a 400 naming the field.
-    pub fn to_stress(&self, field: &str) -> Result<Pressure, ApiError> {
-        self.read_stress().map_err(|m| m.into_api_error(field))
+    /// [`Self::read_stress`], refused as a malformed field.
+    pub fn to_stress(&self, field: &str) -> Result<Pressure, FieldProblem> {
+        self.read_stress().map_err(|m| m.into_problem(field))
     }
 
-    /// [`Self::read_angle`], refused as a 400 naming the field.
-    pub fn to_angle(&self, field: &str) -> Result<Angle, ApiError> {
-        self.read_angle().map_err(|m| m.into_api_error(field))
+    /// [`Self::read_angle`], refused as a malformed field.
+    pub fn to_angle(&self, field: &str) -> Result<Angle, FieldProblem> {
+        self.read_angle().map_err(|m| m.into_problem(field))
     }
 }
 

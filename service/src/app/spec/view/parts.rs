@@ -4,7 +4,7 @@
 use serde::Serialize;
 use utoipa::ToSchema;
 
-use crate::http::quantity::Quantity;
+use crate::app::quantity::Quantity;
 
 /// The torque window to set.
 #[derive(Debug, Clone, Serialize, ToSchema)]

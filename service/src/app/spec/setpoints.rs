@@ -1,4 +1,4 @@
-//! The compact answer a tool controller needs: target, lower and upper
+//! Computes the compact answer a tool controller needs ([`super::view::SetpointResponse`]): target, lower and upper
 //! torque in its unit, rounded to its resolution without leaving the window
 //! (see [`super::rounding`]), plus the angle window when the method is
 //! angle- or yield-controlled, the catalogue revision and the spec hash.
@@ -7,81 +7,23 @@
 //! applies it is refused unless the request accepts each one
 //! ([`super::checks::gate`]).
 
-use serde::Serialize;
-use utoipa::ToSchema;
-
+use crate::app::quantity::{Quantity, TorqueUnit};
+use crate::app::{AppError, FieldProblem};
 use crate::engine::angle::AngleOutcome;
 use crate::engine::cautions::Caution;
 use crate::engine::checks::{tool_angle_window, tool_window};
 use crate::engine::spec::Spec;
-use crate::http::error::ApiError;
-use crate::http::quantity::{Quantity, TorqueUnit};
 
 use super::cautions::Cautions;
-use super::checks::{checks_out, error_count, gate, CheckOut};
-use super::item_error::{ItemError, ItemErrors};
+use super::checks::gate;
 use super::resolve::Resolved;
 use super::rounding::{round_window, RoundingError};
+use super::view::{checks_out, error_count, SetpointAngle, SetpointResponse};
 
 /// Default torque resolution of a tool, in its torque unit.
 pub const DEFAULT_RESOLUTION: f64 = 0.1;
 /// Default angle resolution of a tool, in degrees.
 pub const DEFAULT_ANGLE_RESOLUTION: f64 = 1.0;
-
-/// The angle window to program, from snug torque.
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct SetpointAngle {
-    /// Snug torque, rounded to the torque resolution.
-    pub snug_torque: Quantity,
-    /// Smallest angle from snug (rounded up).
-    pub min: Quantity,
-    /// Largest angle from snug (rounded down).
-    pub max: Quantity,
-    /// Angle resolution used, in degrees.
-    pub resolution: f64,
-}
-
-/// Tool setpoints for one spec.
-#[derive(Debug, Clone, Serialize, ToSchema)]
-pub struct SetpointResponse {
-    /// Normalised thread designation.
-    pub thread: String,
-    pub property_class: String,
-    /// Tightening method id.
-    pub tightening_method: &'static str,
-    /// `N·m`, `lbf·ft` or `lbf·in`.
-    pub torque_unit: &'static str,
-    /// Torque resolution used, in `torque_unit`.
-    pub resolution: f64,
-    /// Target torque: nearest step, kept inside `[lower, upper]`.
-    pub target: Quantity,
-    /// Lower torque limit, rounded up.
-    pub lower: Quantity,
-    /// Upper torque limit, rounded down.
-    pub upper: Quantity,
-    /// Present when the method is angle- or yield-controlled.
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub angle: Option<SetpointAngle>,
-    pub catalogue_revision: i64,
-    /// True when the database is unreachable and the catalogue may be stale.
-    pub catalogue_may_be_stale: bool,
-    /// SHA-256 (hex) of the normalised request and catalogue revision; the
-    /// same as `spec_hash` of the full spec.
-    pub spec_hash: String,
-    /// Every check of the spec, then the checks of the window at the
-    /// tool's resolution (`setpoint_window_under_two_steps`,
-    /// `setpoint_window_zero_width`).
-    pub checks: Vec<CheckOut>,
-    /// True when an error-severity check applies; such an answer is only
-    /// given when the request accepted each one (`accepted_checks`).
-    pub has_errors: bool,
-    /// The error checks that applied and that the request accepted by
-    /// naming them in `accept_checks`.
-    pub accepted_checks: Vec<&'static str>,
-    /// Every caution that applies (the same as the spec's).
-    #[schema(value_type = Vec<String>)]
-    pub cautions: Cautions,
-}
 
 /// How the tool holds the window, and which error checks the request accepts.
 #[derive(Debug, Clone, Copy)]
@@ -97,7 +39,7 @@ pub struct ToolOptions<'a> {
 
 /// The refusal of a window that cannot be rounded, with the window in the
 /// tool's unit to two decimal places more than the resolution has.
-fn rounding_problem(field: &str, unit: &str, e: RoundingError) -> ApiError {
+fn rounding_problem(field: &str, unit: &str, e: RoundingError) -> FieldProblem {
     let reason = match e {
         RoundingError::NoStepInside {
             lower,
@@ -112,7 +54,7 @@ fn rounding_problem(field: &str, unit: &str, e: RoundingError) -> ApiError {
         }
         other => other.to_string(),
     };
-    ItemErrors::from(ItemError::invalid(field, reason)).into()
+    FieldProblem::invalid(field, reason)
 }
 
 /// The setpoints of a computed spec, or the refusal while an error check
@@ -122,7 +64,7 @@ pub fn setpoints(
     resolved: &Resolved,
     tool: ToolOptions,
     stale: bool,
-) -> Result<SetpointResponse, ApiError> {
+) -> Result<SetpointResponse, AppError> {
     let unit = tool.unit;
     let res = tool.resolution.unwrap_or(DEFAULT_RESOLUTION);
     let angle_res = tool.angle_resolution.unwrap_or(DEFAULT_ANGLE_RESOLUTION);
@@ -130,7 +72,7 @@ pub fn setpoints(
     let value = |t| Quantity::torque_in(t, unit).value;
     let (lower, upper) = (value(w.lower), value(w.upper));
     let rounded = round_window(lower, value(w.target), upper, res)
-        .map_err(|e| rounding_problem("resolution", unit.symbol(), e))?;
+        .map_err(|e| AppError::field(rounding_problem("resolution", unit.symbol(), e)))?;
     let sym = unit.symbol();
     let held = (rounded.lower, rounded.target, rounded.upper);
     let window_check = tool_window(lower, upper, held, res, sym);
@@ -144,8 +86,9 @@ pub fn setpoints(
             AngleOutcome::Computed(a) => {
                 let lo = a.angle_min.get::<uom::si::angle::degree>();
                 let hi = a.angle_max.get::<uom::si::angle::degree>();
-                let r = round_window(lo, (lo + hi) / 2.0, hi, angle_res)
-                    .map_err(|e| rounding_problem("angle_resolution", "degrees", e))?;
+                let r = round_window(lo, (lo + hi) / 2.0, hi, angle_res).map_err(|e| {
+                    AppError::field(rounding_problem("angle_resolution", "degrees", e))
+                })?;
                 angle_check = tool_angle_window(lo, hi, (r.lower, r.upper), angle_res);
                 let snug = value(a.snug_torque);
                 // Nearest step, but never zero: a snug torque is always some torque.
@@ -160,20 +103,26 @@ pub fn setpoints(
                 })
             }
             AngleOutcome::NotComputed { reason } => {
-                return Err(ItemErrors::from(ItemError::invalid(
+                return Err(AppError::field(FieldProblem::invalid(
                     "clamp_length",
                     format!(
                         "the {} method is set by angle, but no angle window could be \
                          computed: {reason}",
                         spec.method.id
                     ),
-                ))
-                .into())
+                )))
             }
         }
     };
-    let checks = checks_out(spec.checks.iter().chain(&window_check).chain(&angle_check));
-    let accepted_checks = gate(&checks, tool.accept)?;
+    let found: Vec<_> = spec
+        .checks
+        .iter()
+        .chain(&window_check)
+        .chain(&angle_check)
+        .cloned()
+        .collect();
+    let accepted_checks = gate(&found, tool.accept)?;
+    let checks = checks_out(&found);
     // The elastic-model caution goes with an angle window in the answer.
     let cautions = if angle.is_some() {
         spec.cautions

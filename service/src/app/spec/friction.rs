@@ -7,8 +7,8 @@
 use crate::catalogue::{FrictionEntry, Snapshot};
 use crate::engine::quantity::FrictionRange;
 
-use super::item_error::ItemError;
 use super::request::{FrictionInput, SpecRequest};
+use crate::app::FieldProblem;
 
 /// Where one friction range came from.
 #[derive(Debug, Clone, PartialEq)]
@@ -63,7 +63,7 @@ fn origin_of(entry: &FrictionEntry) -> FrictionOrigin {
 pub fn resolve_friction(
     req: &SpecRequest,
     snapshot: &Snapshot,
-    problems: &mut Vec<ItemError>,
+    problems: &mut Vec<FieldProblem>,
 ) -> Option<ResolvedFriction> {
     let start = problems.len();
     let mut check = |field: &str, given: Option<FrictionInput>| {
@@ -72,7 +72,7 @@ pub fn resolve_friction(
         match FrictionRange::new(min, max, field) {
             Ok(r) => Some(r),
             Err(e) => {
-                let mut e = ItemError::from(e);
+                let mut e = FieldProblem::from(e);
                 if let FrictionInput::Single(_) = given {
                     // One value: name the field itself, not its `.min` end.
                     e.field = field.to_string();
@@ -91,7 +91,7 @@ pub fn resolve_friction(
         .and_then(|id| match snapshot.finish(id) {
             Ok(f) => Some(f),
             Err(e) => {
-                problems.push(e.into());
+                problems.extend(FieldProblem::from_catalogue(&e));
                 None
             }
         });
@@ -101,7 +101,7 @@ pub fn resolve_friction(
         .and_then(|id| match snapshot.lubricant(id) {
             Ok(l) => Some(l),
             Err(e) => {
-                problems.push(e.into());
+                problems.extend(FieldProblem::from_catalogue(&e));
                 None
             }
         });
@@ -122,10 +122,10 @@ pub fn resolve_friction(
             missing.join(" and ")
         );
         if req.finish.is_none() {
-            problems.push(ItemError::invalid("finish", why.clone()));
+            problems.push(FieldProblem::invalid("finish", why.clone()));
         }
         if req.lubricant.is_none() {
-            problems.push(ItemError::invalid("lubricant", why));
+            problems.push(FieldProblem::invalid("lubricant", why));
         }
     }
 
@@ -135,7 +135,7 @@ pub fn resolve_friction(
             Err(e) => {
                 // Only a problem when the catalogue values are needed.
                 if need_catalogue {
-                    problems.push(e.into());
+                    problems.extend(FieldProblem::from_catalogue(&e));
                 }
                 None
             }
@@ -161,7 +161,7 @@ pub fn resolve_friction(
     });
     if need_catalogue && entry.is_some() && catalogue_ranges.is_none() {
         // The catalogue validates the same bounds; refuse rather than guess.
-        problems.push(ItemError::invalid(
+        problems.push(FieldProblem::invalid(
             "lubricant",
             "the catalogue entry for this finish and lubricant holds friction values the \
              engine does not accept",
@@ -200,7 +200,7 @@ pub fn resolve_friction(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::http::specs::item_error::ErrorClass;
+    use crate::app::ProblemClass;
 
     fn req() -> SpecRequest {
         SpecRequest {
@@ -279,7 +279,7 @@ mod tests {
         assert!(resolve_friction(&req(), &snap, &mut problems).is_none());
         let fields: Vec<&str> = problems.iter().map(|p| p.field.as_str()).collect();
         assert_eq!(fields, ["finish", "lubricant"]);
-        assert!(problems.iter().all(|p| p.class == ErrorClass::Invalid));
+        assert!(problems.iter().all(|p| p.class == ProblemClass::Invalid));
         assert!(problems[0]
             .reason
             .contains("thread_friction and bearing_friction"));
@@ -295,7 +295,7 @@ mod tests {
         let mut problems = Vec::new();
         assert!(resolve_friction(&r, &snap, &mut problems).is_none());
         assert_eq!(problems.len(), 1);
-        assert_eq!(problems[0].class, ErrorClass::Unknown);
+        assert_eq!(problems[0].class, ProblemClass::Unknown);
         assert_eq!(problems[0].field, "finish");
         assert!(problems[0].suggestions.contains(&finish), "{problems:?}");
     }
@@ -310,6 +310,6 @@ mod tests {
         assert!(resolve_friction(&r, &snap, &mut problems).is_none());
         let fields: Vec<&str> = problems.iter().map(|p| p.field.as_str()).collect();
         assert_eq!(fields, ["thread_friction.min", "bearing_friction"]);
-        assert!(problems.iter().all(|p| p.class == ErrorClass::Invalid));
+        assert!(problems.iter().all(|p| p.class == ProblemClass::Invalid));
     }
 }

@@ -1,5 +1,5 @@
 //! The units a client may write, each with its factor to the canonical
-//! unit of its kind, taken from the exact definitions in `http::quantity`.
+//! unit of its kind, taken from the exact definitions in `app::quantity`.
 
 use super::{TorqueUnit, MM_PER_IN, MPA_PER_PSI, N_PER_LBF};
 

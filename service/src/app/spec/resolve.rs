@@ -1,0 +1,195 @@
+//! The parse step: a [`SpecRequest`] and a catalogue snapshot in, the
+//! engine's validated [`SpecInput`] out, with the friction provenance and the
+//! content hash that identifies the spec. Names are turned into engine types
+//! through the engine's own look-ups; nothing here computes.
+//!
+//! Every problem is collected, so a client sees all bad fields at once.
+//! Engine field names are mapped to the request's names where they differ
+//! (`method` → `tightening_method`, `joint.snug_torque` → `snug_torque`, ...).
+//! The parts are read in `parts`; the identity is written in `normalised`;
+//! tests are in `resolve/tests.rs`.
+
+use uom::si::force::newton;
+use uom::si::length::millimeter;
+use uom::si::torque::newton_meter;
+
+use crate::app::quantity::Units;
+use crate::app::{AppError, FieldProblem};
+use crate::catalogue::Snapshot;
+use crate::engine::method::TighteningMethod;
+use crate::engine::plausible;
+use crate::engine::spec::{SpecFlags, SpecInput};
+use crate::engine::EngineError;
+
+use super::friction::{resolve_friction, ResolvedFriction};
+use super::request::SpecRequest;
+
+mod normalised;
+mod parts;
+
+pub use normalised::content_hash;
+use normalised::{friction_words, origin, Normalised};
+use parts::{keep, Problems, Quantities};
+
+/// Default tightening method when the request names none.
+pub const DEFAULT_METHOD: TighteningMethod = TighteningMethod::ClickWrench;
+
+/// A request read and resolved, ready for `engine::spec::compute`.
+#[derive(Debug, Clone)]
+pub struct Resolved {
+    pub input: SpecInput,
+    pub friction: ResolvedFriction,
+    pub units: Units,
+    /// Catalogue revision answered from.
+    pub revision: i64,
+    /// True when the request named a catalogue revision.
+    pub pinned: bool,
+    /// SHA-256 hex of the normalised request and revision.
+    pub content_hash: String,
+}
+
+/// Request field for an engine field name.
+fn request_field(engine_field: &str) -> &str {
+    match engine_field {
+        "method" => "tightening_method",
+        "scatter" => "tool_scatter",
+        "joint.type" => "joint_type",
+        "joint.outer_diameter" => "joint_outer_diameter",
+        "joint.snug_torque" => "snug_torque",
+        "joint.clamp_length" => "clamp_length",
+        "joint.engagement_length" => "engagement_length",
+        "joint.clamped_material" | "clamped_material" => "clamped_material",
+        other => other,
+    }
+}
+
+/// An engine error as a field problem named by its request field.
+pub fn from_engine(e: EngineError) -> FieldProblem {
+    let mut problem = FieldProblem::from(e);
+    let renamed = request_field(&problem.field);
+    if renamed != problem.field {
+        problem.field = renamed.to_string();
+    }
+    problem
+}
+
+fn refused(p: Problems) -> Result<(), AppError> {
+    if p.is_empty() {
+        Ok(())
+    } else {
+        Err(AppError::Fields(p))
+    }
+}
+
+/// Reads `req` against `snapshot` into the engine's input.
+pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppError> {
+    let mut p: Problems = Vec::new();
+    let revision = snapshot.revision;
+
+    let (thread, strength) = parts::fastener(req, &mut p);
+    let (bearing_parts, bearing) = parts::bearing(req, thread.as_ref(), &mut p);
+    let method = parts::method(req, &mut p);
+    let mode = keep(parts::window_mode(req.window_mode.as_deref()), &mut p);
+    let q = Quantities::read(req, &mut p);
+    let (joint_type, material) = parts::joint_names(req, &mut p);
+    let friction = resolve_friction(req, snapshot, &mut p);
+    refused(p)?;
+
+    // Every `None` below is an input the request left out (problems would
+    // have returned above); a missing required part cannot remain.
+    let (Some(thread), Some(strength), Some(bearing), Some(method), Some(mode), Some(friction)) =
+        (thread, strength, bearing, method, mode, friction)
+    else {
+        return Err(FieldProblem::malformed("thread", "the request could not be read").into());
+    };
+
+    let joint = parts::joint(req, &q, joint_type, bearing_parts.head);
+    let mut p: Problems = Vec::new();
+    let tapped_hole =
+        parts::tapped_hole(q.engagement, material.as_ref(), &strength, &thread, &mut p);
+    refused(p)?;
+
+    let tables = req.bearing.is_none();
+    let normalised = Normalised {
+        thread: &thread.designation,
+        property_class: &strength.id,
+        finish: friction.finish.as_deref(),
+        lubricant: friction.lubricant.as_deref(),
+        thread_friction: [friction.thread.min(), friction.thread.max()],
+        thread_friction_origin: origin(&friction.thread_origin),
+        bearing_friction: [friction.bearing.min(), friction.bearing.max()],
+        bearing_friction_origin: origin(&friction.bearing_origin),
+        tightening_method: method.id(),
+        tool_scatter: req.tool_scatter,
+        bearing_mm: [
+            bearing.outer_diameter.get::<millimeter>(),
+            bearing.inner_diameter.get::<millimeter>(),
+        ],
+        head: tables.then(|| bearing_parts.head.map(|h| h.id())).flatten(),
+        washer: tables
+            .then(|| bearing_parts.washer.map(|w| w.id()))
+            .flatten(),
+        hole: tables.then(|| bearing_parts.hole.map(|h| h.id())).flatten(),
+        utilisation: req.utilisation,
+        prevailing_torque_nm: q.prevailing_torque.map(|t| t.get::<newton_meter>()),
+        clamp_length_mm: q.clamp_length.map(|l| l.get::<millimeter>()),
+        clamped_material: material.as_ref().map(|m| m.id.as_str()),
+        joint_outer_diameter_mm: q.joint_outer.map(|l| l.get::<millimeter>()),
+        joint_type: joint.as_ref().map(|j| j.joint_type.id()),
+        snug_torque_nm: q.snug_torque.map(|t| t.get::<newton_meter>()),
+        engagement_length_mm: q.engagement.map(|l| l.get::<millimeter>()),
+        required_clamp_load_n: q.required_clamp_load.map(|f| f.get::<newton>()),
+        window_mode: parts::window_mode_id(mode),
+    };
+    let bytes = serde_json::to_vec(&normalised).map_err(|e| {
+        AppError::field(FieldProblem::malformed(
+            "thread",
+            format!("the request could not be normalised: {e}"),
+        ))
+    })?;
+    let hash = content_hash(&bytes, revision);
+
+    let flags = SpecFlags {
+        electroplated: friction.electroplated,
+        hot_dip_galvanized: friction.hot_dip_galvanized,
+        acid_cleaned: friction.acid_cleaned,
+        dry: friction.dry,
+        measured_thread_friction: friction.catalogue_ranges.map(|(t, _)| t),
+        measured_bearing_friction: friction.catalogue_ranges.map(|(_, b)| b),
+    };
+    let input = SpecInput {
+        thread,
+        strength,
+        bearing,
+        thread_friction: friction.thread,
+        bearing_friction: friction.bearing,
+        friction_source: friction_words(&friction, revision),
+        method,
+        scatter: req.tool_scatter,
+        utilisation: req.utilisation,
+        prevailing_torque: q.prevailing_torque,
+        clamped_material: material,
+        joint,
+        tapped_hole,
+        required_clamp_load: q.required_clamp_load,
+        window_mode: mode,
+        flags,
+    };
+    refused(
+        plausible::problems(&input)
+            .into_iter()
+            .map(from_engine)
+            .collect(),
+    )?;
+    Ok(Resolved {
+        input,
+        friction,
+        units: req.units.unwrap_or_default(),
+        revision,
+        pinned: req.catalogue_revision.is_some(),
+        content_hash: hash,
+    })
+}
+
+#[cfg(test)]
+mod tests;

@@ -1,0 +1,103 @@
+//! The identity of a spec: the request after defaults, in normal spellings
+//! and SI numbers, serialised in a fixed field order and hashed with the
+//! catalogue revision (SHA-256, lower-case hex). The same hash is the spec's
+//! `spec_hash` and the base of its ETag.
+
+use serde::Serialize;
+use sha2::{Digest, Sha256};
+
+use super::super::friction::{FrictionOrigin, ResolvedFriction};
+
+/// The request after defaults: what the content hash is computed from.
+/// Field order is fixed by this struct.
+#[derive(Serialize)]
+pub(super) struct Normalised<'a> {
+    pub thread: &'a str,
+    pub property_class: &'a str,
+    pub finish: Option<&'a str>,
+    pub lubricant: Option<&'a str>,
+    pub thread_friction: [f64; 2],
+    pub thread_friction_origin: Origin,
+    pub bearing_friction: [f64; 2],
+    pub bearing_friction_origin: Origin,
+    pub tightening_method: &'static str,
+    pub tool_scatter: Option<f64>,
+    pub bearing_mm: [f64; 2],
+    pub head: Option<&'static str>,
+    pub washer: Option<&'static str>,
+    pub hole: Option<&'static str>,
+    pub utilisation: Option<f64>,
+    pub prevailing_torque_nm: Option<f64>,
+    pub clamp_length_mm: Option<f64>,
+    pub clamped_material: Option<&'a str>,
+    pub joint_outer_diameter_mm: Option<f64>,
+    pub joint_type: Option<&'static str>,
+    pub snug_torque_nm: Option<f64>,
+    pub engagement_length_mm: Option<f64>,
+    pub required_clamp_load_n: Option<f64>,
+    pub window_mode: &'static str,
+}
+
+#[derive(Serialize)]
+pub(super) enum Origin {
+    Request,
+    Catalogue(i64, i64),
+}
+
+pub(super) fn origin(o: &FrictionOrigin) -> Origin {
+    match o {
+        FrictionOrigin::Request => Origin::Request,
+        FrictionOrigin::Catalogue {
+            entry_id,
+            entry_revision,
+            ..
+        } => Origin::Catalogue(*entry_id, *entry_revision),
+    }
+}
+
+/// SHA-256 (lower-case hex) of the normalised request bytes and the revision.
+pub fn content_hash(normalised: &[u8], revision: i64) -> String {
+    let mut h = Sha256::new();
+    h.update(normalised);
+    h.update(b"|catalogue_revision=");
+    h.update(revision.to_string().as_bytes());
+    hex::encode(h.finalize())
+}
+
+/// The friction source in words, for the engine's `friction_source`.
+pub(super) fn friction_words(f: &ResolvedFriction, revision: i64) -> String {
+    let words = |o: &FrictionOrigin| match o {
+        FrictionOrigin::Request => "given in the request".to_string(),
+        FrictionOrigin::Catalogue {
+            entry_id,
+            entry_revision,
+            ..
+        } => format!(
+            "from catalogue revision {revision}, entry {entry_id} (changed in revision \
+             {entry_revision}; its source is in friction.catalogue_entry)"
+        ),
+    };
+    if f.thread_origin == f.bearing_origin {
+        format!("thread and bearing friction {}", words(&f.thread_origin))
+    } else {
+        format!(
+            "thread friction {}; bearing friction {}",
+            words(&f.thread_origin),
+            words(&f.bearing_origin)
+        )
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::content_hash;
+
+    #[test]
+    fn hash_depends_on_request_and_revision() {
+        let a = content_hash(b"{\"thread\":\"M10\"}", 1);
+        assert_eq!(a.len(), 64);
+        assert_ne!(a, content_hash(b"{\"thread\":\"M10\"}", 2));
+        assert_ne!(a, content_hash(b"{\"thread\":\"M12\"}", 1));
+        assert_eq!(a, content_hash(b"{\"thread\":\"M10\"}", 1));
+    }
+}
