@@ -2,10 +2,11 @@
 //!
 //! Dependencies point one way: `engine` (pure computation) and `catalogue`
 //! (friction data as domain types) use no other module of the crate;
-//! `store` (sqlx) uses `catalogue`; `http` and `cli` use all three.
-//! `startup` wires `http` and `store` into a server (and holds the route
-//! registrations the OpenAPI document is generated from); `config` reads
-//! flags and environment.
+//! `store` (sqlx) uses `catalogue`; `app` (the use cases and the
+//! application context) uses the three; `http` and `cli` are adapters over
+//! `app`. `startup` opens the application context and serves `http`
+//! (`http::routes` holds the route registrations the OpenAPI document is
+//! generated from); `config` holds the server's settings.
 
 pub mod app;
 pub mod catalogue;

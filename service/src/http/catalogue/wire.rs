@@ -6,8 +6,8 @@ use serde::{Deserialize, Serialize};
 use utoipa::{IntoParams, ToSchema};
 
 use crate::catalogue::{
-    DiffItem, EntryInput, Finish, FinishInput, FrictionEntry, Lubricant, LubricantInput,
-    RangeInput, Status,
+    CatalogueItem, DiffItem, EntryInput, Finish, FinishInput, FrictionEntry, Lubricant,
+    LubricantInput, RangeInput, Status,
 };
 use crate::http::error::{ApiError, FieldError};
 use crate::store::{HistoryItem, RevisionInfo};
@@ -56,6 +56,80 @@ pub struct LubricantView {
     pub lubricant: Lubricant,
     pub catalogue_revision: i64,
     pub catalogue_may_be_stale: bool,
+}
+
+/// How a catalogue item kind goes on the wire: its collection path, the
+/// view of one item and the list of them (the handlers in `items.rs` are
+/// written once over it).
+pub trait ItemWire: CatalogueItem {
+    type View: Serialize;
+    type List: Serialize;
+    /// The collection's path (`/v1/finishes`).
+    const COLLECTION: &'static str;
+    fn view(item: Self, catalogue_revision: i64, catalogue_may_be_stale: bool) -> Self::View;
+    fn list(items: Vec<Self>, catalogue_revision: i64, catalogue_may_be_stale: bool) -> Self::List;
+}
+
+impl ItemWire for Finish {
+    type View = FinishView;
+    type List = FinishList;
+    const COLLECTION: &'static str = "/v1/finishes";
+    fn view(finish: Self, catalogue_revision: i64, catalogue_may_be_stale: bool) -> FinishView {
+        FinishView {
+            finish,
+            catalogue_revision,
+            catalogue_may_be_stale,
+        }
+    }
+    fn list(
+        finishes: Vec<Self>,
+        catalogue_revision: i64,
+        catalogue_may_be_stale: bool,
+    ) -> FinishList {
+        FinishList {
+            catalogue_revision,
+            catalogue_may_be_stale,
+            finishes,
+        }
+    }
+}
+
+impl ItemWire for Lubricant {
+    type View = LubricantView;
+    type List = LubricantList;
+    const COLLECTION: &'static str = "/v1/lubricants";
+    fn view(
+        lubricant: Self,
+        catalogue_revision: i64,
+        catalogue_may_be_stale: bool,
+    ) -> LubricantView {
+        LubricantView {
+            lubricant,
+            catalogue_revision,
+            catalogue_may_be_stale,
+        }
+    }
+    fn list(
+        lubricants: Vec<Self>,
+        catalogue_revision: i64,
+        catalogue_may_be_stale: bool,
+    ) -> LubricantList {
+        LubricantList {
+            catalogue_revision,
+            catalogue_may_be_stale,
+            lubricants,
+        }
+    }
+}
+
+/// A write body of a catalogue item kind: the input and reason it gives
+/// (`path_id`: the id in the path of a replacement).
+pub trait ItemWrite {
+    type Item: CatalogueItem;
+    fn into_input(
+        self,
+        path_id: Option<&str>,
+    ) -> Result<(<Self::Item as CatalogueItem>::Input, String), ApiError>;
 }
 
 #[derive(Debug, Serialize, ToSchema)]
@@ -276,8 +350,9 @@ pub struct FinishWrite {
     pub reason: String,
 }
 
-impl FinishWrite {
-    pub fn into_input(self, path_id: Option<&str>) -> Result<(FinishInput, String), ApiError> {
+impl ItemWrite for FinishWrite {
+    type Item = Finish;
+    fn into_input(self, path_id: Option<&str>) -> Result<(FinishInput, String), ApiError> {
         let (id, name) = id_and_name(self.id, self.name, path_id, &self.reason)?;
         Ok((
             FinishInput {
@@ -313,8 +388,9 @@ pub struct LubricantWrite {
     pub reason: String,
 }
 
-impl LubricantWrite {
-    pub fn into_input(self, path_id: Option<&str>) -> Result<(LubricantInput, String), ApiError> {
+impl ItemWrite for LubricantWrite {
+    type Item = Lubricant;
+    fn into_input(self, path_id: Option<&str>) -> Result<(LubricantInput, String), ApiError> {
         let (id, name) = id_and_name(self.id, self.name, path_id, &self.reason)?;
         Ok((
             LubricantInput {

@@ -45,7 +45,7 @@ pub async fn snapshot_for(
             format!("catalogue revisions start at 1, got {r}"),
         ));
     }
-    state.catalogue_service.snapshot(Some(r)).await
+    Ok(state.app.snapshot(Some(r)).await?)
 }
 
 /// Resolve and compute one request against a snapshot.
@@ -107,8 +107,8 @@ struct Served {
 impl Served {
     fn now(state: &AppState) -> Self {
         Self {
-            revision: state.catalogue.revision(),
-            stale: state.catalogue.is_stale(),
+            revision: state.app.revision(),
+            stale: state.app.stale(),
         }
     }
 
