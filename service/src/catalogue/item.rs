@@ -9,6 +9,7 @@ use serde::Serialize;
 
 use super::change::{Change, EntityKind, FinishInput, LubricantInput};
 use super::error::{CatalogueError, CurrentState};
+use super::exchange::ImportItem;
 use super::types::{item_etag, Finish, Lubricant, Status};
 use super::Snapshot;
 
@@ -22,6 +23,7 @@ pub trait CatalogueItem: Clone + PartialEq + Serialize + Sized {
     const NAME: &'static str;
 
     fn id(&self) -> &str;
+    fn name(&self) -> &str;
     fn revision(&self) -> i64;
     fn status(&self) -> Status;
     /// Every item of this kind in `snapshot`.
@@ -29,6 +31,8 @@ pub trait CatalogueItem: Clone + PartialEq + Serialize + Sized {
     fn all_mut(snapshot: &mut Snapshot) -> &mut Vec<Self>;
     /// The item with this id, or an unknown-name error with suggestions.
     fn find<'s>(snapshot: &'s Snapshot, id: &str) -> Result<&'s Self, CatalogueError>;
+    /// The input an item of an import file gives.
+    fn import_input(item: &ImportItem) -> Self::Input;
     /// The id and name an input gives.
     fn input_key(input: &Self::Input) -> (&str, &str);
     /// The status an input asks for (`None`: unchanged, active on create).
@@ -62,6 +66,9 @@ macro_rules! catalogue_item {
             fn id(&self) -> &str {
                 &self.id
             }
+            fn name(&self) -> &str {
+                &self.name
+            }
             fn revision(&self) -> i64 {
                 self.revision
             }
@@ -76,6 +83,15 @@ macro_rules! catalogue_item {
             }
             fn find<'s>(snapshot: &'s Snapshot, id: &str) -> Result<&'s Self, CatalogueError> {
                 snapshot.$find(id)
+            }
+            fn import_input(item: &ImportItem) -> $input {
+                $input {
+                    id: item.id.clone(),
+                    name: item.name.clone(),
+                    $($flag: item.$flag,)*
+                    notes: item.notes.clone(),
+                    status: item.status,
+                }
             }
             fn input_key(input: &$input) -> (&str, &str) {
                 (&input.id, &input.name)
