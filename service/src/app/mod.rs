@@ -19,5 +19,8 @@ pub mod error;
 pub mod friction_tests;
 pub mod tokens;
 
+#[cfg(test)]
+mod layering_tests;
+
 pub use context::App;
 pub use error::{AppError, FieldProblem, ProblemClass};
