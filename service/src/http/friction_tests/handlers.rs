@@ -1,4 +1,5 @@
-//! Thin handlers: parse, call the engine or the store, render.
+//! Thin handlers: parse and evaluate (the engine, through `super::run`),
+//! keep and apply series through the `app` use cases, render.
 
 use crate::http::extract::Query;
 use actix_web::http::header;
