@@ -2,12 +2,11 @@
 //!
 //! Dependencies point one way: `engine` (pure computation) and `catalogue`
 //! (friction data as domain types) use no other module of the crate;
-//! `store` (sqlx) uses `catalogue`; `app` (the use cases) uses all three;
-//! `http` and `cli` are adapters over `app` (and, where a use case has not
-//! moved into `app` yet, over the three directly).
-//! `startup` wires `http` and `store` into a server (and holds the route
-//! registrations the OpenAPI document is generated from); `config` reads
-//! flags and environment.
+//! `store` (sqlx) uses `catalogue`; `app` (the use cases and the
+//! application context) uses the three; `http` and `cli` are adapters over
+//! `app`. `startup` opens the application context and serves `http`
+//! (`http::routes` holds the route registrations the OpenAPI document is
+//! generated from); `config` holds the server's settings.
 
 pub mod app;
 pub mod catalogue;

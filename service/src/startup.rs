@@ -1,6 +1,8 @@
 //! Wiring: builds the application from configuration.
 //!
-//! [`Application::build`] binds the listen address (port 0 picks a free
+//! [`Application::build`] opens the application context (`app::App`: the
+//! store, migrations and seed, the live catalogue and its watcher), hands
+//! it with the HTTP settings to one `AppState`, binds the listen address (port 0 picks a free
 //! one, see [`Application::port`]) and [`Application::run_until_stopped`]
 //! serves until SIGTERM/SIGINT, letting in-flight requests finish within
 //! the configured shutdown timeout. [`app`] puts `crate::http::routes` (the
@@ -19,10 +21,9 @@ use actix_web::{web, App, HttpServer};
 use utoipa_actix_web::AppExt;
 
 use crate::config::Config;
-use crate::http::catalogue::CatalogueWiring;
 use crate::http::error::ApiError;
 use crate::http::metrics::Metrics;
-use crate::http::state::AppState;
+use crate::http::state::{AppState, HttpSettings};
 use crate::http::{accept, deadline, extract, metrics, openapi, request_id};
 
 /// Why the service could not start.
@@ -55,16 +56,12 @@ pub fn app(
         InitError = (),
     >,
 > {
-    let limit = state.config.max_body_bytes;
+    let limit = state.settings.max_body_bytes;
     let (app, _api) = App::new()
         .into_utoipa_app()
         .configure(crate::http::routes)
         .split_for_parts();
-    let catalogue_service = state.catalogue_service.clone();
-    let auth = state.auth.clone();
     app.app_data(web::Data::new(state))
-        .app_data(catalogue_service)
-        .app_data(auth)
         .app_data(extract::json_config(limit))
         .app_data(extract::query_config())
         .app_data(extract::path_config())
@@ -132,26 +129,37 @@ impl Application {
     /// the in-memory catalogue current, binds `config.listen` and prepares
     /// the server.
     pub async fn build(config: Config) -> Result<Self, StartupError> {
-        let wiring =
-            CatalogueWiring::open(config.database_url.as_deref(), config.anonymous_reads).await?;
+        let context = crate::app::App::open(config.database_url.as_deref()).await?;
         let metrics = Metrics::new()?;
         let openapi_json: Arc<str> = openapi::document_json()?.into();
+        let settings = HttpSettings {
+            max_body_bytes: config.max_body_bytes,
+            body_read_timeout_secs: config.limits.body_read_timeout_secs,
+            request_timeout_secs: config.limits.request_timeout_secs,
+            answer_cache_entries: config.answer_cache_entries,
+        };
+        let watcher = context.watch();
         let state = AppState::new(
-            config,
+            settings,
             metrics,
             openapi_json,
-            wiring.service.clone(),
-            wiring.auth.clone(),
+            context,
+            config.anonymous_reads,
         );
-        let mut app = Self::build_with_state(state)?;
-        app.watcher = Some(wiring.watcher);
-        Ok(app)
+        match Self::serve(&config, state) {
+            Ok(mut app) => {
+                app.watcher = Some(watcher);
+                Ok(app)
+            }
+            Err(e) => {
+                watcher.abort();
+                Err(e)
+            }
+        }
     }
 
-    /// Binds and prepares the server for prepared state (tests and store
-    /// wiring use it).
-    pub fn build_with_state(state: AppState) -> Result<Self, StartupError> {
-        let config = Arc::clone(&state.config);
+    /// Binds `config.listen` and prepares the server over `state`.
+    fn serve(config: &Config, state: AppState) -> Result<Self, StartupError> {
         let listener =
             bind(&config.listen, config.limits.backlog).map_err(|source| StartupError::Bind {
                 addr: config.listen.clone(),
@@ -208,7 +216,7 @@ impl Application {
         self.port
     }
 
-    /// The shared state (catalogue, metrics, config).
+    /// The shared state (application context, metrics, settings).
     pub fn state(&self) -> &AppState {
         &self.state
     }

@@ -103,6 +103,8 @@ pub enum AppError {
 
 fn summary(problems: &[FieldProblem]) -> String {
     match problems {
+        // A reason that already leads with its field is not prefixed again.
+        [one] if one.reason.starts_with(&format!("{}: ", one.field)) => one.reason.clone(),
         [one] => format!("{}: {}", one.field, one.reason),
         many => format!(
             "{} problems in the request: {}",

@@ -1,6 +1,8 @@
-//! The one-way edges of the spec paths, read from the source: nothing in
-//! `app` uses `http` or `cli`; `cli/spec.rs` uses neither `http` nor the
-//! engine; `http/specs/` does not call the engine (the use cases do).
+//! Edges the application layer removed stay removed, read from the source:
+//! nothing in `app` uses `http` or `cli`; `cli/spec.rs` uses neither `http`
+//! nor the engine; `http/specs/` does not call the engine (the use cases
+//! do); `http` uses no `config` and never opens the store; the catalogue and
+//! token subcommands use neither `http` nor the store.
 
 use std::path::{Path, PathBuf};
 
@@ -69,4 +71,27 @@ fn the_spec_command_uses_only_the_application_layer() {
 fn the_spec_handlers_leave_the_engine_to_the_use_cases() {
     let found = offenders(&["http/specs"], &["crate::engine"]);
     assert!(found.is_empty(), "{found:#?}");
+}
+
+#[test]
+fn http_uses_no_config_and_opens_no_store() {
+    let found = offenders(&["http"], &["crate::config", "Store::open"]);
+    assert!(found.is_empty(), "{found:#?}");
+}
+
+#[test]
+fn catalogue_and_token_subcommands_call_the_app_only() {
+    let found = offenders(
+        &["cli/catalogue.rs", "cli/token.rs"],
+        &["crate::http", "Store::open", "store::Store"],
+    );
+    assert!(found.is_empty(), "{found:#?}");
+}
+
+#[test]
+fn the_search_finds_what_it_looks_for() {
+    // The checks above would pass on an unread tree: the walk must find a
+    // line known to be there.
+    let found = offenders(&["app"], &["pub struct App {"]);
+    assert!(found.iter().any(|f| f.contains("context.rs")), "{found:?}");
 }

@@ -4,8 +4,9 @@
 
 use serde::{Deserialize, Serialize};
 
-use super::change::{Change, ChangeItem, EntryInput, FinishInput, LubricantInput};
+use super::change::{Change, ChangeItem, EntryInput};
 use super::error::ChangeProblem;
+use super::item::CatalogueItem;
 use super::types::{RangeInput, Status};
 use super::{Finish, FrictionEntry, Lubricant, Snapshot};
 
@@ -54,21 +55,23 @@ pub struct ImportEntry {
     pub(super) revision: Option<i64>,
 }
 
+/// A finish or lubricant in an import file (each kind reads its own flags;
+/// `revision`, as exported, is ignored).
 #[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
-struct ImportItem {
-    id: String,
-    name: String,
+pub struct ImportItem {
+    pub id: String,
+    pub name: String,
     #[serde(default)]
-    electroplated: bool,
+    pub electroplated: bool,
     #[serde(default)]
-    stainless: bool,
+    pub stainless: bool,
     #[serde(default)]
-    dry: bool,
+    pub dry: bool,
     #[serde(default)]
-    notes: String,
+    pub notes: String,
     #[serde(default)]
-    status: Option<Status>,
+    pub status: Option<Status>,
     #[serde(default)]
     #[allow(dead_code)]
     revision: Option<i64>,
@@ -102,75 +105,44 @@ pub fn parse_json(text: &str) -> Result<ImportFile, Vec<ChangeProblem>> {
     })
 }
 
+/// The changes of one item kind (`list`: its key in the file): items not in
+/// `current` created, differing ones replaced, identical ones left alone.
+fn item_changes<I: CatalogueItem>(
+    list: &str,
+    current: &Snapshot,
+    items: &[ImportItem],
+    out: &mut Vec<ChangeItem>,
+) {
+    for (i, item) in items.iter().enumerate() {
+        let input = I::import_input(item);
+        let at = format!("{list}[{i}].");
+        match I::all(current).iter().find(|x| x.id() == item.id) {
+            None => out.push(ChangeItem {
+                at,
+                change: I::create(input),
+            }),
+            Some(x) => {
+                let status = I::input_status(&input).unwrap_or(x.status());
+                let same =
+                    x.name() == item.name && I::from_input(&input, status, x.revision()) == *x;
+                if !same {
+                    out.push(ChangeItem {
+                        at,
+                        change: I::update(input, None),
+                    });
+                }
+            }
+        }
+    }
+}
+
 /// The changes that make `current` match the file: new items created,
 /// differing items updated, identical items left alone (so re-importing an
 /// export yields no change). Checking is left to `catalogue::apply`.
 pub fn changes_for(current: &Snapshot, file: &ImportFile) -> Vec<ChangeItem> {
     let mut out = Vec::new();
-    for (i, f) in file.finishes.iter().enumerate() {
-        let input = FinishInput {
-            id: f.id.clone(),
-            name: f.name.clone(),
-            electroplated: f.electroplated,
-            stainless: f.stainless,
-            notes: f.notes.clone(),
-            status: f.status,
-        };
-        let at = format!("finishes[{i}].");
-        match current.finishes.iter().find(|x| x.id == f.id) {
-            None => out.push(ChangeItem {
-                at,
-                change: Change::CreateFinish(input),
-            }),
-            Some(x) => {
-                let same = x.name == input.name
-                    && x.electroplated == input.electroplated
-                    && x.stainless == input.stainless
-                    && x.notes == input.notes
-                    && input.status.is_none_or(|s| s == x.status);
-                if !same {
-                    out.push(ChangeItem {
-                        at,
-                        change: Change::UpdateFinish {
-                            expected_revision: None,
-                            finish: input,
-                        },
-                    });
-                }
-            }
-        }
-    }
-    for (i, l) in file.lubricants.iter().enumerate() {
-        let input = LubricantInput {
-            id: l.id.clone(),
-            name: l.name.clone(),
-            dry: l.dry,
-            notes: l.notes.clone(),
-            status: l.status,
-        };
-        let at = format!("lubricants[{i}].");
-        match current.lubricants.iter().find(|x| x.id == l.id) {
-            None => out.push(ChangeItem {
-                at,
-                change: Change::CreateLubricant(input),
-            }),
-            Some(x) => {
-                let same = x.name == input.name
-                    && x.dry == input.dry
-                    && x.notes == input.notes
-                    && input.status.is_none_or(|s| s == x.status);
-                if !same {
-                    out.push(ChangeItem {
-                        at,
-                        change: Change::UpdateLubricant {
-                            expected_revision: None,
-                            lubricant: input,
-                        },
-                    });
-                }
-            }
-        }
-    }
+    item_changes::<Finish>("finishes", current, &file.finishes, &mut out);
+    item_changes::<Lubricant>("lubricants", current, &file.lubricants, &mut out);
     for (i, e) in file.entries.iter().enumerate() {
         let input = EntryInput {
             finish: e.finish.clone(),

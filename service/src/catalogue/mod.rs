@@ -2,7 +2,8 @@
 //! finishes, lubricants and friction entries (`types`), one revision held in
 //! memory (`snapshot`), the seed catalogue (`seed`), changes as submitted
 //! (`change`), the rule that turns a batch of them into one new revision
-//! (`apply`, with its item checks in `rules`), the difference between two
+//! (`apply`, with its item checks in `rules`), what finishes and
+//! lubricants share as one item kind (`item`), the difference between two
 //! revisions (`diff`), export and import as JSON or CSV (`exchange`,
 //! `csv_form`), the live catalogue the service answers from (`live`), and
 //! typed errors (`error`).
@@ -13,6 +14,7 @@ mod csv_form;
 pub mod diff;
 pub mod error;
 pub mod exchange;
+pub mod item;
 pub mod live;
 mod rules;
 pub mod seed;
@@ -26,6 +28,7 @@ pub use change::{
 };
 pub use diff::{diff, DiffItem, DiffKind};
 pub use error::{CatalogueError, ChangeProblem, CurrentState};
+pub use item::CatalogueItem;
 pub use live::Live;
 pub use snapshot::Snapshot;
 pub use types::{

@@ -7,7 +7,10 @@ use serde_json::Value;
 
 use super::change::EntryInput;
 use super::error::{suggest, CatalogueError, ChangeProblem, CurrentState};
-use super::types::{is_slug, FrictionEntry, RangeInput, Status, TabulatedFriction};
+use super::item::CatalogueItem;
+use super::types::{
+    is_slug, Finish, FrictionEntry, Lubricant, RangeInput, Status, TabulatedFriction,
+};
 use super::Snapshot;
 
 pub(super) fn json<T: Serialize>(v: &T) -> Value {
@@ -173,14 +176,28 @@ pub(super) fn check_whole(
             ));
         }
     }
-    for f in next.finishes.iter().filter(|f| !f.status.is_active()) {
-        if let Some(e) = next.active_entries().find(|e| e.finish == f.id) {
-            problems.push(ChangeProblem::new("finish", format!("finish '{}' cannot be retired while friction entry {} uses it; retire the entry first", f.id, e.id)));
-        }
-    }
-    for l in next.lubricants.iter().filter(|l| !l.status.is_active()) {
-        if let Some(e) = next.active_entries().find(|e| e.lubricant == l.id) {
-            problems.push(ChangeProblem::new("lubricant", format!("lubricant '{}' cannot be retired while friction entry {} uses it; retire the entry first", l.id, e.id)));
+    retired_in_use::<Finish>(next, |e| &e.finish, problems);
+    retired_in_use::<Lubricant>(next, |e| &e.lubricant, problems);
+}
+
+/// A retired item of kind `I` that an active entry still uses (`uses`:
+/// the entry's field naming that kind) is a problem under the kind's name.
+fn retired_in_use<I: CatalogueItem>(
+    next: &Snapshot,
+    uses: impl Fn(&FrictionEntry) -> &str,
+    problems: &mut Vec<ChangeProblem>,
+) {
+    for item in I::all(next).iter().filter(|i| !i.status().is_active()) {
+        if let Some(e) = next.active_entries().find(|e| uses(e) == item.id()) {
+            problems.push(ChangeProblem::new(
+                I::NAME,
+                format!(
+                    "{} '{}' cannot be retired while friction entry {} uses it; retire the entry first",
+                    I::NAME,
+                    item.id(),
+                    e.id
+                ),
+            ));
         }
     }
 }

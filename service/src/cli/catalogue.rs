@@ -1,11 +1,12 @@
-//! `tightspec catalogue import|export` and `tightspec migrate`, directly on
-//! the configured database.
+//! `tightspec catalogue import|export` and `tightspec migrate` on the
+//! configured database, through the application's catalogue use cases.
 
 use std::io::Write;
 use std::path::PathBuf;
 
-use crate::catalogue::{exchange, CatalogueError, ChangeSet};
-use crate::store::{Store, StoreError};
+use crate::app::catalogue::{Export, Imported};
+use crate::app::{App, AppError, FieldProblem};
+use crate::catalogue::exchange;
 
 pub use super::token::CliResult;
 
@@ -40,14 +41,14 @@ fn default_actor() -> String {
 /// `tightspec migrate`: applies pending migrations and seeds an empty
 /// catalogue.
 pub async fn migrate(database_url: Option<&str>, out: &mut dyn Write) -> CliResult {
-    let store = Store::open(database_url).await?;
-    let head = store.head().await?;
+    let app = App::open(database_url).await?;
+    let head = app.head().await?;
     writeln!(
         out,
         "{} database migrated; catalogue revision {head}",
-        store.backend()
+        app.backend()
     )?;
-    store.close().await;
+    app.close().await;
     Ok(())
 }
 
@@ -56,37 +57,30 @@ pub async fn run(
     database_url: Option<&str>,
     out: &mut dyn Write,
 ) -> CliResult {
-    let store = Store::open(database_url).await?;
-    let result = run_on(&store, cmd, out).await;
-    store.close().await;
+    let app = App::open(database_url).await?;
+    let result = run_on(&app, cmd, out).await;
+    app.close().await;
     result
 }
 
 /// Why an import was rejected: every problem, one per line.
 #[derive(Debug, thiserror::Error)]
 #[error("import rejected, nothing written:\n{}", .0.iter().map(|p| format!("  {}: {}", p.field, p.reason)).collect::<Vec<_>>().join("\n"))]
-pub struct ImportRejected(pub Vec<crate::catalogue::ChangeProblem>);
+pub struct ImportRejected(pub Vec<FieldProblem>);
 
-pub async fn run_on(store: &Store, cmd: &CatalogueCommand, out: &mut dyn Write) -> CliResult {
+pub async fn run_on(app: &App, cmd: &CatalogueCommand, out: &mut dyn Write) -> CliResult {
     match cmd {
         CatalogueCommand::Export { format, revision } => {
-            let snapshot = match revision {
-                Some(r) => store.load_at(*r).await?,
-                None => store.load_current().await?,
-            };
-            if format == "csv" {
-                let evidence = store.entry_evidence(&snapshot).await?;
-                let options = exchange::CsvOptions {
-                    bom: false,
-                    evidence: Some(&evidence),
-                };
-                write!(out, "{}", exchange::to_csv_with(&snapshot, &options)?)?;
-            } else {
-                writeln!(
+            match app
+                .export(*revision, (format == "csv").then_some(false))
+                .await?
+            {
+                Export::Csv { text, .. } => write!(out, "{text}")?,
+                Export::Json(snapshot) => writeln!(
                     out,
                     "{}",
                     serde_json::to_string_pretty(&exchange::export(&snapshot))?
-                )?;
+                )?,
             }
         }
         CatalogueCommand::Import {
@@ -99,43 +93,24 @@ pub async fn run_on(store: &Store, cmd: &CatalogueCommand, out: &mut dyn Write) 
             let is_csv = file
                 .extension()
                 .is_some_and(|x| x.eq_ignore_ascii_case("csv"));
-            let parsed = if is_csv {
-                exchange::parse_csv(&text)
-            } else {
-                exchange::parse_json(&text)
-            };
-            let parsed = parsed.map_err(ImportRejected)?;
-            let current = store.load_current().await?;
-            let items = exchange::changes_for(&current, &parsed);
-            if items.is_empty() {
-                writeln!(
+            let actor = actor.clone().unwrap_or_else(default_actor);
+            let evidence = format!("import:{}", file.display());
+            let imported = app
+                .import(&text, is_csv, &actor, reason.as_deref(), &evidence)
+                .await
+                .map_err(|e| match e {
+                    AppError::Fields(problems) => ImportRejected(problems).into(),
+                    other => Box::<dyn std::error::Error + Send + Sync>::from(other),
+                })?;
+            match imported {
+                Imported::Unchanged { revision } => writeln!(
                     out,
-                    "the file matches catalogue revision {}; nothing to import",
-                    current.revision
-                )?;
-                return Ok(());
-            }
-            let set = ChangeSet {
-                actor: actor.clone().unwrap_or_else(default_actor),
-                reason: reason.clone().or(parsed.reason.clone()).unwrap_or_default(),
-                evidence: Some(format!("import:{}", file.display())),
-                items,
-            };
-            match store.apply(&set).await {
-                Ok(applied) => {
-                    writeln!(
-                        out,
-                        "imported {} change(s) as catalogue revision {}",
-                        applied.records.len(),
-                        applied.snapshot.revision
-                    )?;
-                }
-                Err(StoreError::Catalogue(
-                    e @ (CatalogueError::Invalid { .. } | CatalogueError::NotFound { .. }),
-                )) => {
-                    return Err(ImportRejected(e.problems()).into());
-                }
-                Err(e) => return Err(e.into()),
+                    "the file matches catalogue revision {revision}; nothing to import"
+                )?,
+                Imported::Applied { changes, revision } => writeln!(
+                    out,
+                    "imported {changes} change(s) as catalogue revision {revision}"
+                )?,
             }
         }
     }

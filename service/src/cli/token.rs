@@ -1,12 +1,13 @@
-//! `tightspec token create|list|revoke`: API tokens, directly on the
-//! configured database. A new token's secret is printed once and never
+//! `tightspec token create|list|revoke`: API tokens on the configured
+//! database, through the application's token use cases (`app/tokens.rs`). A new token's secret is printed once and never
 //! again (only its SHA-256 is stored).
 
 use std::io::Write;
 
 use chrono::{DateTime, Duration, Utc};
 
-use crate::store::{Role, Store, TokenInfo};
+use crate::app::{App, AppError};
+use crate::store::{Role, TokenInfo};
 
 pub type CliResult = Result<(), Box<dyn std::error::Error + Send + Sync>>;
 
@@ -84,32 +85,38 @@ fn line(t: &TokenInfo) -> String {
 }
 
 pub async fn run(cmd: &TokenCommand, database_url: Option<&str>, out: &mut dyn Write) -> CliResult {
-    let store = Store::open(database_url).await?;
-    let result = run_on(&store, cmd, out).await;
-    store.close().await;
+    let app = App::open(database_url).await?;
+    let result = run_on(&app, cmd, out).await;
+    app.close().await;
     result
 }
 
-pub async fn run_on(store: &Store, cmd: &TokenCommand, out: &mut dyn Write) -> CliResult {
+pub async fn run_on(app: &App, cmd: &TokenCommand, out: &mut dyn Write) -> CliResult {
     match cmd {
         TokenCommand::Create {
             name,
             role,
             expires,
         } => {
-            // name the field and the reason, before anything is written
-            crate::store::tokens::valid_name(name)
-                .map_err(|reason| format!("--name '{name}' (field `name`): {reason}"))?;
             let expires_at = expires
                 .as_deref()
                 .map(|e| parse_expiry(e, Utc::now()))
                 .transpose()?;
-            let (info, secret) = store.create_token(name, *role, expires_at).await?;
+            // a refused name: the field and the reason, nothing written
+            let (info, secret) = app
+                .create_token(name, *role, expires_at)
+                .await
+                .map_err(|e| match e {
+                    AppError::Fields(p) if p.len() == 1 => {
+                        format!("--name '{name}' (field `{}`): {}", p[0].field, p[0].reason)
+                    }
+                    other => other.to_string(),
+                })?;
             writeln!(out, "{}", line(&info))?;
             writeln!(out, "secret (shown once; store it now): {secret}")?;
         }
         TokenCommand::List => {
-            let tokens = store.list_tokens().await?;
+            let tokens = app.tokens().await?;
             if tokens.is_empty() {
                 writeln!(out, "no tokens")?;
             }
@@ -118,7 +125,7 @@ pub async fn run_on(store: &Store, cmd: &TokenCommand, out: &mut dyn Write) -> C
             }
         }
         TokenCommand::Revoke { token } => {
-            let t = store.revoke_token(token).await?;
+            let t = app.revoke_token(token).await?;
             writeln!(out, "{}", line(&t))?;
         }
     }

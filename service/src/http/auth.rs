@@ -1,7 +1,7 @@
 //! Bearer-token authentication and roles. Handlers ask for what they need
 //! by taking one of the extractors [`Reader`], [`Editor`] or [`Admin`];
-//! the [`Authenticator`] (registered as app data) checks the token against
-//! the store: 401 for a missing, unknown, revoked or expired token, 403 for
+//! the [`Authenticator`] (held in `AppState`) checks the token through the
+//! application (`App::find_token`): 401 for a missing, unknown, revoked or expired token, 403 for
 //! a role that may not do it. Reads may be allowed anonymously by
 //! configuration (`--anonymous-reads`).
 
@@ -14,7 +14,9 @@ use actix_web::{dev::Payload, http::header, web, FromRequest, HttpRequest};
 use chrono::Utc;
 
 use super::error::ApiError;
-use crate::store::{tokens, Role, Store, StoreError, TokenInfo};
+use super::state::AppState;
+use crate::app::{App, AppError};
+use crate::store::{tokens, Role, TokenInfo};
 
 /// Who is making a request.
 #[derive(Debug, Clone, PartialEq)]
@@ -40,33 +42,24 @@ impl Caller {
 /// unreachable (reads only; writes fail with 503 then anyway).
 const CACHE_LIMIT: usize = 1024;
 
-/// Checks bearer tokens. Register one as `web::Data<Authenticator>`.
+/// Checks bearer tokens (one, in `AppState`). While the catalogue is
+/// flagged stale (database unreachable), known tokens may read without
+/// waiting for the database.
 #[derive(Debug)]
 pub struct Authenticator {
-    store: Store,
+    app: App,
     anonymous_reads: bool,
-    /// While the catalogue is flagged stale (database unreachable), known
-    /// tokens may read without waiting for the database.
-    live: Option<std::sync::Arc<crate::catalogue::Live>>,
     /// hash → token, as last read from the database.
     seen: Mutex<HashMap<String, TokenInfo>>,
 }
 
 impl Authenticator {
-    pub fn new(store: Store, anonymous_reads: bool) -> Self {
+    pub fn new(app: App, anonymous_reads: bool) -> Self {
         Self {
-            store,
+            app,
             anonymous_reads,
-            live: None,
             seen: Mutex::new(HashMap::new()),
         }
-    }
-
-    /// Lets reads with known tokens skip the database while `live` is
-    /// flagged stale (instead of waiting for the connection timeout).
-    pub fn with_live(mut self, live: std::sync::Arc<crate::catalogue::Live>) -> Self {
-        self.live = Some(live);
-        self
     }
 
     pub fn anonymous_reads(&self) -> bool {
@@ -121,12 +114,12 @@ impl Authenticator {
         };
         let hash = tokens::hash_secret(secret);
         let cached = || self.seen.lock().ok().and_then(|s| s.get(&hash).cloned());
-        if needed == Role::Reader && self.live.as_ref().is_some_and(|l| l.is_stale()) {
+        if needed == Role::Reader && self.app.stale() {
             if let Some(t) = cached() {
                 return Ok(t);
             }
         }
-        match self.store.find_token(secret).await {
+        match self.app.find_token(secret).await {
             Ok(Some(t)) => {
                 if let Ok(mut seen) = self.seen.lock() {
                     if seen.len() >= CACHE_LIMIT {
@@ -137,15 +130,15 @@ impl Authenticator {
                 Ok(t)
             }
             Ok(None) => Err(not_recognised()),
-            Err(e @ StoreError::Unavailable { .. }) => {
+            Err(e @ AppError::Unavailable { .. }) => {
                 // Reads go on from memory during an outage, for tokens seen
                 // before; anything else must wait for the database.
                 match cached() {
                     Some(t) if needed == Role::Reader => Ok(t),
-                    _ => Err(super::catalogue::store_error(e)),
+                    _ => Err(e.into()),
                 }
             }
-            Err(e) => Err(super::catalogue::store_error(e)),
+            Err(e) => Err(e.into()),
         }
     }
 }
@@ -167,7 +160,9 @@ fn extract(
     req: &HttpRequest,
     needed: Role,
 ) -> Pin<Box<dyn Future<Output = Result<Caller, ApiError>>>> {
-    let auth = req.app_data::<web::Data<Authenticator>>().cloned();
+    let auth = req
+        .app_data::<web::Data<AppState>>()
+        .map(|s| std::sync::Arc::clone(&s.auth));
     let header = match req.headers().get(header::AUTHORIZATION).map(|v| v.to_str()) {
         None => Ok(None),
         Some(Ok(s)) => Ok(Some(s.to_string())),
@@ -178,7 +173,7 @@ fn extract(
     Box::pin(async move {
         let Some(auth) = auth else {
             return Err(ApiError::Internal(
-                "no Authenticator registered as app data".into(),
+                "no AppState registered as app data".into(),
             ));
         };
         auth.check(header?.as_deref(), needed).await

@@ -92,10 +92,10 @@ pub async fn middleware(
 ) -> Result<ServiceResponse<impl MessageBody>, actix_web::Error> {
     let (body_limit, request_limit) = match req.app_data::<web::Data<AppState>>() {
         Some(state) => {
-            let limits = &state.config.limits;
+            let settings = &state.settings;
             (
-                Duration::from_secs(limits.body_read_timeout_secs),
-                Duration::from_secs(limits.request_timeout_secs),
+                Duration::from_secs(settings.body_read_timeout_secs),
+                Duration::from_secs(settings.request_timeout_secs),
             )
         }
         None => return next.call(req).await,

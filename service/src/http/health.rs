@@ -12,7 +12,7 @@ use serde::Serialize;
 use utoipa::ToSchema;
 use utoipa_actix_web::service_config::ServiceConfig;
 
-use super::auth::{Authenticator, Reader};
+use super::auth::Reader;
 use super::error::ApiError;
 use super::state::AppState;
 use crate::store::Role;
@@ -67,7 +67,7 @@ const STORE_PROBE_TIMEOUT: std::time::Duration = std::time::Duration::from_secs(
 pub async fn readiness(state: &AppState) -> Readiness {
     let snapshot = state.snapshot();
     let loaded = snapshot.revision >= 1 && !snapshot.entries.is_empty();
-    let store = &state.catalogue_service.store;
+    let store = &state.app;
     let store_check = match tokio::time::timeout(STORE_PROBE_TIMEOUT, store.head()).await {
         Ok(Ok(head)) => ReadinessCheck {
             name: "store".into(),
@@ -77,7 +77,7 @@ pub async fn readiness(state: &AppState) -> Readiness {
         Ok(Err(e)) => ReadinessCheck {
             name: "store".into(),
             ok: false,
-            detail: if e.is_unavailable() {
+            detail: if matches!(e, crate::app::AppError::Unavailable { .. }) {
                 format!("{} unavailable", store.backend())
             } else {
                 tracing::error!(error = %e, "readiness: store check failed");
@@ -110,7 +110,7 @@ pub async fn readiness(state: &AppState) -> Readiness {
     Readiness {
         status: if ready { "ready" } else { "not ready" },
         catalogue_revision: Some(snapshot.revision),
-        catalogue_may_be_stale: state.catalogue.is_stale(),
+        catalogue_may_be_stale: state.app.stale(),
         checks,
     }
 }
@@ -143,7 +143,7 @@ async fn readyz(state: web::Data<AppState>, req: HttpRequest) -> HttpResponse {
 /// Whether the caller may see what the catalogue holds: anonymous reads
 /// on, or a token of role reader or above. Probes stay answered either way.
 async fn may_read(req: &HttpRequest) -> bool {
-    let Some(auth) = req.app_data::<web::Data<Authenticator>>() else {
+    let Some(auth) = req.app_data::<web::Data<AppState>>().map(|s| &s.auth) else {
         return false;
     };
     let header = req
@@ -160,9 +160,7 @@ async fn may_read(req: &HttpRequest) -> bool {
 )]
 #[get("/metrics")]
 async fn metrics(_reader: Reader, state: web::Data<AppState>) -> Result<HttpResponse, ApiError> {
-    state
-        .metrics
-        .set_catalogue_revision(state.catalogue.revision());
+    state.metrics.set_catalogue_revision(state.app.revision());
     let text = state.metrics.render().map_err(ApiError::Internal)?;
     Ok(HttpResponse::Ok()
         .content_type("text/plain; version=0.0.4; charset=utf-8")

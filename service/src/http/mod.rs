@@ -1,6 +1,6 @@
-//! The HTTP layer (actix-web): thin handlers over the use cases of `app`
-//! (and, where a use case has not moved there yet, the engine, the
-//! catalogue and the store).
+//! The HTTP layer (actix-web): thin handlers over the application layer
+//! (`app`; the spec and friction-test routes still parse and evaluate with
+//! the engine themselves).
 //!
 //! Infrastructure: `error` and `problem` (RFC 9457 problem responses),
 //! `problem_responses` (the shared problem responses of the OpenAPI

@@ -1,34 +1,44 @@
-//! Shared application state: cheap to clone (everything behind `Arc`s).
+//! Shared state of the HTTP adapter: cheap to clone (everything behind
+//! `Arc`s), registered once as `web::Data<AppState>`; every handler and
+//! extractor reaches the application context, the authenticator and the
+//! settings through it.
 
 use std::sync::Arc;
 
-use actix_web::web;
-
-use crate::catalogue::{Live, Snapshot};
-use crate::config::Config;
+use crate::app::App;
+use crate::catalogue::Snapshot;
 
 use super::auth::Authenticator;
-use super::catalogue::CatalogueService;
 use super::metrics::Metrics;
 use super::specs::answer_cache::AnswerCache;
+
+/// The settings the HTTP layer reads while answering (plain values, passed
+/// in by `startup` from the service's configuration).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct HttpSettings {
+    /// Largest accepted request body in bytes (413 above).
+    pub max_body_bytes: usize,
+    /// Seconds a client gets to send the whole body (408 after).
+    pub body_read_timeout_secs: u64,
+    /// Seconds a request may take until its answer starts (503 after).
+    pub request_timeout_secs: u64,
+    /// Rendered look-up answers kept per cached route (0 keeps none).
+    pub answer_cache_entries: usize,
+}
 
 /// What every handler can reach, via `web::Data<AppState>`.
 #[derive(Clone)]
 pub struct AppState {
     /// The settings the service was started with.
-    pub config: Arc<Config>,
+    pub settings: HttpSettings,
     /// Prometheus metrics.
     pub metrics: Metrics,
-    /// The friction catalogue being served (current revision plus cached
-    /// past revisions).
-    pub catalogue: Arc<Live>,
+    /// The application context: the store and the live catalogue.
+    pub app: App,
     /// The OpenAPI document, serialised once at start-up.
     pub openapi_json: Arc<str>,
-    /// The store and live catalogue for the catalogue routes (registered as
-    /// its own app data; `catalogue` above is the same `Live`).
-    pub catalogue_service: web::Data<CatalogueService>,
-    /// Bearer-token authentication (registered as its own app data).
-    pub auth: web::Data<Authenticator>,
+    /// Bearer-token authentication.
+    pub auth: Arc<Authenticator>,
     /// Rendered answers to repeated `GET /v1/tightening-specs` look-ups.
     pub spec_answers: Arc<AnswerCache>,
     /// Rendered answers to repeated `GET /v1/setpoints` look-ups.
@@ -36,31 +46,30 @@ pub struct AppState {
 }
 
 impl AppState {
-    /// State serving the catalogue of `catalogue_service`.
+    /// State serving the catalogue of `app`; reads may be anonymous when
+    /// `anonymous_reads`.
     pub fn new(
-        config: Config,
+        settings: HttpSettings,
         metrics: Metrics,
         openapi_json: Arc<str>,
-        catalogue_service: web::Data<CatalogueService>,
-        auth: web::Data<Authenticator>,
+        app: App,
+        anonymous_reads: bool,
     ) -> Self {
-        let catalogue = Arc::clone(&catalogue_service.live);
-        metrics.set_catalogue_revision(catalogue.revision());
-        let entries = config.answer_cache_entries;
+        metrics.set_catalogue_revision(app.revision());
+        let entries = settings.answer_cache_entries;
         Self {
             spec_answers: Arc::new(AnswerCache::new(entries)),
             setpoint_answers: Arc::new(AnswerCache::new(entries)),
-            config: Arc::new(config),
+            auth: Arc::new(Authenticator::new(app.clone(), anonymous_reads)),
+            settings,
             metrics,
-            catalogue,
+            app,
             openapi_json,
-            catalogue_service,
-            auth,
         }
     }
 
     /// The catalogue snapshot to answer the current request from.
     pub fn snapshot(&self) -> Arc<Snapshot> {
-        self.catalogue.current()
+        self.app.current()
     }
 }

@@ -1,18 +1,21 @@
 //! `/v1/friction-entries`: list, read (with ETag), create, replace
-//! (If-Match), retire (DELETE, If-Match), history.
+//! (If-Match), retire (DELETE, If-Match), history. Each handler extracts,
+//! calls one use case of `app::catalogue` and renders.
 
 use crate::http::extract::Query;
 use actix_web::http::header;
 use actix_web::{delete, get, post, put, web, HttpRequest, HttpResponse};
 
+use super::if_match;
 use super::wire::{
     EntryList, EntryListQuery, EntryView, EntryWrite, HistoryView, NoQuery, ReasonBody,
     RetireQuery, RevisionQuery, StatusFilter,
 };
-use super::{if_match, CatalogueService};
-use crate::catalogue::{Change, ChangeSet, EntityKind, FrictionEntry};
+use crate::app::catalogue::{AtRevision, Author, EntryFilter};
+use crate::catalogue::{EntityKind, FrictionEntry};
 use crate::http::auth::{Editor, Reader};
-use crate::http::error::{ApiError, FieldError, Problem};
+use crate::http::error::{ApiError, Problem};
+use crate::http::state::AppState;
 
 pub fn configure(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
     cfg.service(list_entries)
@@ -24,11 +27,14 @@ pub fn configure(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
 }
 
 fn view(
-    svc: &CatalogueService,
-    entry: FrictionEntry,
-    catalogue_revision: i64,
+    state: &AppState,
+    at: AtRevision<FrictionEntry>,
     status: actix_web::http::StatusCode,
 ) -> HttpResponse {
+    let AtRevision {
+        value: entry,
+        revision: catalogue_revision,
+    } = at;
     let etag = entry.etag();
     let id = entry.id;
     let mut b = HttpResponse::build(status);
@@ -40,7 +46,7 @@ fn view(
     b.json(EntryView {
         entry,
         catalogue_revision,
-        catalogue_may_be_stale: svc.stale(),
+        catalogue_may_be_stale: state.app.stale(),
     })
 }
 
@@ -57,41 +63,28 @@ fn view(
 )]
 #[get("/v1/friction-entries")]
 async fn list_entries(
-    svc: web::Data<CatalogueService>,
+    state: web::Data<AppState>,
     _who: Reader,
     q: Query<EntryListQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let q = q.into_inner();
-    let snap = svc.snapshot(q.catalogue_revision).await?;
-    let entries = snap
-        .entries
-        .iter()
-        .filter(|e| match q.status.unwrap_or(StatusFilter::All) {
-            StatusFilter::All => true,
-            StatusFilter::Active => e.status.is_active(),
-            StatusFilter::Retired => !e.status.is_active(),
-        })
-        .filter(|e| q.finish.as_ref().is_none_or_eq(&e.finish))
-        .filter(|e| q.lubricant.as_ref().is_none_or_eq(&e.lubricant))
-        .cloned()
-        .collect();
+    let filter = EntryFilter {
+        active: match q.status.unwrap_or(StatusFilter::All) {
+            StatusFilter::All => None,
+            StatusFilter::Active => Some(true),
+            StatusFilter::Retired => Some(false),
+        },
+        finish: q.finish,
+        lubricant: q.lubricant,
+    };
+    let listed = state.app.entries(&filter, q.catalogue_revision).await?;
     Ok(HttpResponse::Ok()
         .insert_header((header::CACHE_CONTROL, "no-cache"))
         .json(EntryList {
-            catalogue_revision: snap.revision,
-            catalogue_may_be_stale: svc.stale(),
-            entries,
+            catalogue_revision: listed.revision,
+            catalogue_may_be_stale: state.app.stale(),
+            entries: listed.value,
         }))
-}
-
-trait NoneOrEq {
-    fn is_none_or_eq(&self, v: &str) -> bool;
-}
-
-impl NoneOrEq for Option<&String> {
-    fn is_none_or_eq(&self, v: &str) -> bool {
-        self.is_none_or(|s| s == v)
-    }
 }
 
 /// One friction entry, with its ETag (send it back as If-Match to change it).
@@ -105,19 +98,13 @@ impl NoneOrEq for Option<&String> {
 )]
 #[get("/v1/friction-entries/{id}")]
 async fn get_entry(
-    svc: web::Data<CatalogueService>,
+    state: web::Data<AppState>,
     _who: Reader,
     id: web::Path<i64>,
     q: Query<RevisionQuery>,
 ) -> Result<HttpResponse, ApiError> {
-    let snap = svc.snapshot(q.catalogue_revision).await?;
-    let entry = snap.entry(*id)?.clone();
-    Ok(view(
-        &svc,
-        entry,
-        snap.revision,
-        actix_web::http::StatusCode::OK,
-    ))
+    let entry = state.app.entry(*id, q.catalogue_revision).await?;
+    Ok(view(&state, entry, actix_web::http::StatusCode::OK))
 }
 
 /// Creates a friction entry (editor). Becomes one new catalogue revision.
@@ -135,7 +122,7 @@ async fn get_entry(
 )]
 #[post("/v1/friction-entries")]
 async fn create_entry(
-    svc: web::Data<CatalogueService>,
+    state: web::Data<AppState>,
     who: Editor,
     _q: Query<NoQuery>,
     body: web::Json<EntryWrite>,
@@ -148,20 +135,12 @@ async fn create_entry(
         ));
     }
     let (input, reason) = body.into_input()?;
-    let set = ChangeSet::single(&who.0.name, &reason, Change::CreateEntry(input));
-    let applied = svc.store.apply_live(&svc.live, &set).await?;
-    let id = applied
-        .records
-        .first()
-        .and_then(|r| r.entity_id.parse::<i64>().ok())
-        .unwrap_or_default();
-    let entry = applied.snapshot.entry(id)?.clone();
-    Ok(view(
-        &svc,
-        entry,
-        applied.snapshot.revision,
-        actix_web::http::StatusCode::CREATED,
-    ))
+    let by = Author {
+        actor: &who.0.name,
+        reason: &reason,
+    };
+    let entry = state.app.create_entry(by, input).await?;
+    Ok(view(&state, entry, actix_web::http::StatusCode::CREATED))
 }
 
 /// Replaces a friction entry (editor): the entry as GET returned it,
@@ -183,7 +162,7 @@ async fn create_entry(
 )]
 #[put("/v1/friction-entries/{id}")]
 async fn update_entry(
-    svc: web::Data<CatalogueService>,
+    state: web::Data<AppState>,
     who: Editor,
     _q: Query<NoQuery>,
     id: web::Path<i64>,
@@ -194,29 +173,18 @@ async fn update_entry(
     let expected = if_match(req.headers(), &format!("entry-{id}"))?;
     let body = body.into_inner();
     if let Some(b) = body.id.filter(|b| *b != id) {
-        return Err(ApiError::unprocessable(vec![FieldError::new(
+        return Err(ApiError::invalid(
             "id",
             format!("{b} differs from the id in the path ({id})"),
-        )]));
+        ));
     }
     let (entry, reason) = body.into_input()?;
-    let set = ChangeSet::single(
-        &who.0.name,
-        &reason,
-        Change::UpdateEntry {
-            id,
-            expected_revision: Some(expected),
-            entry,
-        },
-    );
-    let applied = svc.store.apply_live(&svc.live, &set).await?;
-    let entry = applied.snapshot.entry(id)?.clone();
-    Ok(view(
-        &svc,
-        entry,
-        applied.snapshot.revision,
-        actix_web::http::StatusCode::OK,
-    ))
+    let by = Author {
+        actor: &who.0.name,
+        reason: &reason,
+    };
+    let entry = state.app.update_entry(by, id, expected, entry).await?;
+    Ok(view(&state, entry, actix_web::http::StatusCode::OK))
 }
 
 /// Retires a friction entry (editor) as a new revision; it stays in
@@ -237,8 +205,7 @@ async fn update_entry(
 )]
 #[delete("/v1/friction-entries/{id}")]
 async fn retire_entry(
-    svc: web::Data<CatalogueService>,
-    state: web::Data<crate::http::state::AppState>,
+    state: web::Data<AppState>,
     who: Editor,
     id: web::Path<i64>,
     req: HttpRequest,
@@ -248,7 +215,7 @@ async fn retire_entry(
     let id = id.into_inner();
     // Read the body before anything else: a body naming an unknown field
     // is refused (naming it) and nothing is retired.
-    let limit = state.config.max_body_bytes;
+    let limit = state.settings.max_body_bytes;
     let body = reason_body(&crate::http::extract::body_bytes(payload, limit).await?)?;
     let expected = if_match(req.headers(), &format!("entry-{id}"))?;
     let reason = q
@@ -256,22 +223,12 @@ async fn retire_entry(
         .reason
         .or(body.map(|b| b.reason))
         .unwrap_or_default();
-    let set = ChangeSet::single(
-        &who.0.name,
-        &reason,
-        Change::RetireEntry {
-            id,
-            expected_revision: Some(expected),
-        },
-    );
-    let applied = svc.store.apply_live(&svc.live, &set).await?;
-    let entry = applied.snapshot.entry(id)?.clone();
-    Ok(view(
-        &svc,
-        entry,
-        applied.snapshot.revision,
-        actix_web::http::StatusCode::OK,
-    ))
+    let by = Author {
+        actor: &who.0.name,
+        reason: &reason,
+    };
+    let entry = state.app.retire_entry(by, id, expected).await?;
+    Ok(view(&state, entry, actix_web::http::StatusCode::OK))
 }
 
 /// The optional `{"reason": …}` body of a retirement: empty or `null`
@@ -314,28 +271,17 @@ fn reason_body(bytes: &[u8]) -> Result<Option<ReasonBody>, ApiError> {
 )]
 #[get("/v1/friction-entries/{id}/history")]
 async fn entry_history(
-    svc: web::Data<CatalogueService>,
+    state: web::Data<AppState>,
     _who: Reader,
     _q: Query<NoQuery>,
     id: web::Path<i64>,
 ) -> Result<HttpResponse, ApiError> {
-    let id = id.into_inner();
-    let history = svc
-        .store
-        .history(EntityKind::FrictionEntry, &id.to_string())
-        .await?;
-    if history.is_empty() {
-        return Err(crate::catalogue::CatalogueError::NotFound {
-            field: "id".into(),
-            kind: "friction entry",
-            id: id.to_string(),
-        }
-        .into());
-    }
+    let id = id.into_inner().to_string();
+    let history = state.app.history(EntityKind::FrictionEntry, &id).await?;
     Ok(HttpResponse::Ok().json(HistoryView {
         entity: EntityKind::FrictionEntry.as_str().into(),
-        id: id.to_string(),
-        catalogue_revision: svc.live.revision(),
-        history,
+        id,
+        catalogue_revision: history.revision,
+        history: history.value,
     }))
 }

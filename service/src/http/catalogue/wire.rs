@@ -1,16 +1,20 @@
-//! Wire types of the catalogue routes. Every response states the catalogue
+//! Wire types of the catalogue routes (those of finishes and lubricants in
+//! `wire/items.rs`). Every response states the catalogue
 //! revision it was answered from and whether the catalogue in memory may be
 //! stale (database unreachable).
 
 use serde::{Deserialize, Serialize};
 use utoipa::{IntoParams, ToSchema};
 
-use crate::catalogue::{
-    DiffItem, EntryInput, Finish, FinishInput, FrictionEntry, Lubricant, LubricantInput,
-    RangeInput, Status,
-};
+use crate::catalogue::{DiffItem, EntryInput, FrictionEntry, RangeInput, Status};
 use crate::http::error::{ApiError, FieldError};
 use crate::store::{HistoryItem, RevisionInfo};
+
+mod items;
+pub use items::{
+    FinishList, FinishView, FinishWrite, ItemWire, ItemWrite, LubricantList, LubricantView,
+    LubricantWrite,
+};
 
 #[derive(Debug, Serialize, ToSchema)]
 pub struct EntryList {
@@ -24,36 +28,6 @@ pub struct EntryList {
 pub struct EntryView {
     #[serde(flatten)]
     pub entry: FrictionEntry,
-    pub catalogue_revision: i64,
-    pub catalogue_may_be_stale: bool,
-}
-
-#[derive(Debug, Serialize, ToSchema)]
-pub struct FinishList {
-    pub catalogue_revision: i64,
-    pub catalogue_may_be_stale: bool,
-    pub finishes: Vec<Finish>,
-}
-
-#[derive(Debug, Serialize, ToSchema)]
-pub struct FinishView {
-    #[serde(flatten)]
-    pub finish: Finish,
-    pub catalogue_revision: i64,
-    pub catalogue_may_be_stale: bool,
-}
-
-#[derive(Debug, Serialize, ToSchema)]
-pub struct LubricantList {
-    pub catalogue_revision: i64,
-    pub catalogue_may_be_stale: bool,
-    pub lubricants: Vec<Lubricant>,
-}
-
-#[derive(Debug, Serialize, ToSchema)]
-pub struct LubricantView {
-    #[serde(flatten)]
-    pub lubricant: Lubricant,
     pub catalogue_revision: i64,
     pub catalogue_may_be_stale: bool,
 }
@@ -177,7 +151,7 @@ pub struct ExportQuery {
     pub bom: Option<bool>,
 }
 
-fn required<T>(v: Option<T>, field: &str, missing: &mut Vec<FieldError>) -> Option<T> {
+pub(super) fn required<T>(v: Option<T>, field: &str, missing: &mut Vec<FieldError>) -> Option<T> {
     if v.is_none() {
         missing.push(FieldError::new(field, "is required"));
     }
@@ -251,111 +225,5 @@ impl EntryWrite {
             )),
             _ => Err(ApiError::unprocessable(missing)),
         }
-    }
-}
-
-/// A finish to create or replace (same conventions as [`EntryWrite`]).
-#[derive(Debug, Deserialize, ToSchema)]
-#[serde(deny_unknown_fields)]
-pub struct FinishWrite {
-    pub id: Option<String>,
-    #[serde(default, deserialize_with = "crate::http::extract::integral")]
-    pub revision: Option<i64>,
-    #[serde(default, deserialize_with = "crate::http::extract::integral")]
-    pub catalogue_revision: Option<i64>,
-    pub catalogue_may_be_stale: Option<bool>,
-    pub name: Option<String>,
-    #[serde(default)]
-    pub electroplated: bool,
-    #[serde(default)]
-    pub stainless: bool,
-    #[serde(default)]
-    pub notes: String,
-    pub status: Option<Status>,
-    #[serde(default)]
-    pub reason: String,
-}
-
-impl FinishWrite {
-    pub fn into_input(self, path_id: Option<&str>) -> Result<(FinishInput, String), ApiError> {
-        let (id, name) = id_and_name(self.id, self.name, path_id, &self.reason)?;
-        Ok((
-            FinishInput {
-                id,
-                name,
-                electroplated: self.electroplated,
-                stainless: self.stainless,
-                notes: self.notes,
-                status: self.status,
-            },
-            self.reason,
-        ))
-    }
-}
-
-/// A lubricant to create or replace (same conventions as [`EntryWrite`]).
-#[derive(Debug, Deserialize, ToSchema)]
-#[serde(deny_unknown_fields)]
-pub struct LubricantWrite {
-    pub id: Option<String>,
-    #[serde(default, deserialize_with = "crate::http::extract::integral")]
-    pub revision: Option<i64>,
-    #[serde(default, deserialize_with = "crate::http::extract::integral")]
-    pub catalogue_revision: Option<i64>,
-    pub catalogue_may_be_stale: Option<bool>,
-    pub name: Option<String>,
-    #[serde(default)]
-    pub dry: bool,
-    #[serde(default)]
-    pub notes: String,
-    pub status: Option<Status>,
-    #[serde(default)]
-    pub reason: String,
-}
-
-impl LubricantWrite {
-    pub fn into_input(self, path_id: Option<&str>) -> Result<(LubricantInput, String), ApiError> {
-        let (id, name) = id_and_name(self.id, self.name, path_id, &self.reason)?;
-        Ok((
-            LubricantInput {
-                id,
-                name,
-                dry: self.dry,
-                notes: self.notes,
-                status: self.status,
-            },
-            self.reason,
-        ))
-    }
-}
-
-fn id_and_name(
-    id: Option<String>,
-    name: Option<String>,
-    path_id: Option<&str>,
-    reason: &str,
-) -> Result<(String, String), ApiError> {
-    let mut problems = Vec::new();
-    let id = match (id, path_id) {
-        (Some(b), Some(p)) if b != p => {
-            problems.push(FieldError::new(
-                "id",
-                format!("'{b}' differs from the id in the path '{p}'"),
-            ));
-            None
-        }
-        (_, Some(p)) => Some(p.to_string()),
-        (b, None) => required(b, "id", &mut problems),
-    };
-    let name = required(name, "name", &mut problems);
-    if reason.trim().is_empty() {
-        problems.push(FieldError::new(
-            "reason",
-            "a reason is required for every catalogue change",
-        ));
-    }
-    match (id, name) {
-        (Some(id), Some(name)) if problems.is_empty() => Ok((id, name)),
-        _ => Err(ApiError::unprocessable(problems)),
     }
 }

@@ -1,4 +1,5 @@
-//! Thin handlers: parse, call the engine or the store, render.
+//! Thin handlers: parse and evaluate (the engine, through `super::run`),
+//! keep and apply series through the `app` use cases, render.
 
 use crate::http::extract::Query;
 use actix_web::http::header;
@@ -9,11 +10,15 @@ use utoipa::{IntoParams, ToSchema};
 use super::proposal::{self, ProposalResponse, Proposed};
 use super::units::Units;
 use super::wire::{EvaluationResponse, SeriesRequest};
-use crate::catalogue::{Change, ChangeItem, ChangeSet, FrictionEntry, Snapshot};
+use crate::app::catalogue::Author;
+use crate::app::friction_tests::SeriesChange;
+use crate::app::AppError;
+use crate::catalogue::{FrictionEntry, Snapshot};
 use crate::engine::calibration::proposal::Basis;
 use crate::http::auth::{Editor, Reader};
-use crate::http::catalogue::{if_match, CatalogueService};
+use crate::http::catalogue::if_match;
 use crate::http::error::{ApiError, FieldError, Problem};
+use crate::http::state::AppState;
 use crate::store::friction_series::{evidence, NewSeries, SeriesApplication, StoredSeries};
 
 const TAG: &str = "friction-tests";
@@ -88,10 +93,10 @@ pub struct ApplyResponse {
 
 fn check_names(snap: &Snapshot, req: &SeriesRequest) -> Result<(), ApiError> {
     if let Some(f) = &req.finish {
-        snap.finish(f)?;
+        snap.finish(f).map_err(AppError::from)?;
     }
     if let Some(l) = &req.lubricant {
-        snap.lubricant(l)?;
+        snap.lubricant(l).map_err(AppError::from)?;
     }
     Ok(())
 }
@@ -122,11 +127,11 @@ fn basis(b: Option<&str>) -> Result<Basis, ApiError> {
 #[post("/v1/friction-tests/evaluate")]
 async fn evaluate(
     _who: Reader,
-    svc: web::Data<CatalogueService>,
+    state: web::Data<AppState>,
     q: Query<UnitsQuery>,
     body: web::Json<SeriesRequest>,
 ) -> Result<HttpResponse, ApiError> {
-    check_names(&svc.live.current(), &body)?;
+    check_names(&state.app.current(), &body)?;
     let answer = super::evaluate(&body, q.units.unwrap_or_default())?;
     Ok(HttpResponse::Ok().json(answer))
 }
@@ -166,7 +171,7 @@ fn stored_response(
 #[post("/v1/friction-tests")]
 async fn record(
     who: Editor,
-    svc: web::Data<CatalogueService>,
+    state: web::Data<AppState>,
     body: web::Json<SeriesRequest>,
 ) -> Result<HttpResponse, ApiError> {
     let req = body.into_inner();
@@ -183,7 +188,7 @@ async fn record(
     if !missing.is_empty() {
         return Err(ApiError::unprocessable(missing));
     }
-    let snap = svc.live.current();
+    let snap = state.app.current();
     check_names(&snap, &req)?;
     let evaluation = super::evaluate(&req, Units::Si)?;
     let new = NewSeries {
@@ -196,7 +201,7 @@ async fn record(
         series_json: to_json(&req)?,
         evaluation_json: to_json(&evaluation)?,
     };
-    let stored = svc.store.insert_friction_test(&new).await?;
+    let stored = state.app.record_series(&new).await?;
     let body = stored_response(&stored, Vec::new())?;
     Ok(HttpResponse::Created()
         .insert_header((
@@ -223,28 +228,28 @@ fn to_json<T: Serialize>(v: &T) -> Result<String, ApiError> {
 #[get("/v1/friction-tests/{id}")]
 async fn get_series(
     _who: Reader,
-    svc: web::Data<CatalogueService>,
+    state: web::Data<AppState>,
     id: web::Path<i64>,
 ) -> Result<HttpResponse, ApiError> {
     let id = id.into_inner();
-    let stored = svc.store.friction_test(id).await?;
-    let apps = svc.store.friction_test_applications(id).await?;
+    let stored = state.app.stored_series(id).await?;
+    let apps = state.app.series_applications(id).await?;
     Ok(HttpResponse::Ok().json(stored_response(&stored, apps)?))
 }
 
 /// Re-evaluates a stored series (the engine is deterministic) and builds
 /// the proposal against the current catalogue.
 async fn proposal_for(
-    svc: &CatalogueService,
+    state: &AppState,
     id: i64,
     basis: Basis,
     units: Units,
 ) -> Result<Proposed, ApiError> {
-    let stored = svc.store.friction_test(id).await?;
+    let stored = state.app.stored_series(id).await?;
     let req: SeriesRequest = serde_json::from_str(&stored.series_json)
         .map_err(|e| ApiError::Internal(format!("stored friction test {id} unreadable: {e}")))?;
     let (_, eval) = super::run(&req)?;
-    let snap = svc.live.current();
+    let snap = state.app.current();
     proposal::build(
         &snap,
         id,
@@ -272,12 +277,12 @@ async fn proposal_for(
 #[get("/v1/friction-tests/{id}/proposal")]
 async fn get_proposal(
     _who: Reader,
-    svc: web::Data<CatalogueService>,
+    state: web::Data<AppState>,
     id: web::Path<i64>,
     q: Query<ProposalQuery>,
 ) -> Result<HttpResponse, ApiError> {
     let b = basis(q.basis.as_deref())?;
-    let p = proposal_for(&svc, id.into_inner(), b, q.units.unwrap_or_default()).await?;
+    let p = proposal_for(&state, id.into_inner(), b, q.units.unwrap_or_default()).await?;
     Ok(HttpResponse::Ok().json(p.response))
 }
 
@@ -301,7 +306,7 @@ async fn get_proposal(
 #[post("/v1/friction-tests/{id}/apply")]
 async fn apply(
     who: Editor,
-    svc: web::Data<CatalogueService>,
+    state: web::Data<AppState>,
     id: web::Path<i64>,
     req: HttpRequest,
     body: web::Json<ApplyRequest>,
@@ -326,48 +331,28 @@ async fn apply(
     let Some(b) = b.filter(|_| problems.is_empty()) else {
         return Err(ApiError::unprocessable(problems));
     };
-    let p = proposal_for(&svc, id, b, Units::Si).await?;
+    let p = proposal_for(&state, id, b, Units::Si).await?;
     let entry_id = p.response.entry_id;
     let expected = if_match(req.headers(), &format!("entry-{entry_id}"))?;
-    let set = ChangeSet {
-        actor: who.0.name.clone(),
-        reason: reason.to_owned(),
-        evidence: Some(evidence(id)),
-        items: vec![ChangeItem {
-            at: String::new(),
-            change: Change::UpdateEntry {
-                id: entry_id,
-                expected_revision: Some(expected),
-                entry: p.entry,
-            },
-        }],
+    let by = Author {
+        actor: &who.0.name,
+        reason,
     };
-    let applied = svc.store.apply_live(&svc.live, &set).await?;
-    let entry = applied.snapshot.entry(entry_id)?.clone();
-    let application = SeriesApplication {
+    let change = SeriesChange {
         series_id: id,
-        revision: applied.snapshot.revision,
-        entry_id,
         basis: b.as_str().into(),
-        actor: who.0.name.clone(),
-        reason: reason.to_owned(),
-        created_at: chrono::Utc::now(),
+        entry_id,
+        expected_revision: expected,
+        entry: p.entry,
     };
-    // The revision itself carries the evidence; this row only indexes it
-    // from the series side, so a failure here is logged, not fatal.
-    if let Err(e) = svc
-        .store
-        .record_friction_test_application(&application)
-        .await
-    {
-        tracing::error!(series = id, revision = application.revision, error = %e, "friction test application not indexed");
-    }
+    let applied = state.app.apply_series(by, change).await?;
+    let entry = applied.value;
     let etag = entry.etag();
     Ok(HttpResponse::Ok()
         .insert_header((header::ETAG, etag.clone()))
         .json(ApplyResponse {
             series_id: id,
-            catalogue_revision: applied.snapshot.revision,
+            catalogue_revision: applied.revision,
             evidence: evidence(id),
             entry,
             entry_etag: etag,

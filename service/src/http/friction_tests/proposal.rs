@@ -175,7 +175,10 @@ pub fn build(
     basis: Basis,
     u: Units,
 ) -> Result<Proposed, ApiError> {
-    let entry = snap.friction_for(finish, lubricant)?.clone();
+    let entry = snap
+        .friction_for(finish, lubricant)
+        .map_err(crate::app::AppError::from)?
+        .clone();
     Ok(build_for(snap, &entry, series_id, stats, count, basis, u)?)
 }
 

@@ -208,7 +208,7 @@ impl Batch {
         let mut snapshots = HashMap::new();
         snapshots.insert(None, Ok(state.snapshot()));
         Self {
-            stale: state.catalogue.is_stale(),
+            stale: state.app.stale(),
             state,
             items: items.into_iter().enumerate(),
             snapshots,

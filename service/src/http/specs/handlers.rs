@@ -43,7 +43,7 @@ pub async fn snapshot_for(
             format!("catalogue revisions start at 1, got {r}"),
         ));
     }
-    state.catalogue_service.snapshot(Some(r)).await
+    Ok(state.app.snapshot(Some(r)).await?)
 }
 
 fn units_tag(u: Units) -> &'static str {
@@ -98,8 +98,8 @@ struct Served {
 impl Served {
     fn now(state: &AppState) -> Self {
         Self {
-            revision: state.catalogue.revision(),
-            stale: state.catalogue.is_stale(),
+            revision: state.app.revision(),
+            stale: state.app.stale(),
         }
     }
 

@@ -1,0 +1,93 @@
+//! [`App`]: the application context every use case runs in — the store and
+//! the live catalogue (the revision being served, kept in step with the
+//! database by the watcher). Opened once at start-up (`startup.rs`) or by a
+//! command-line subcommand; cheap to clone (a pool handle and an `Arc`).
+
+use std::sync::Arc;
+
+use super::AppError;
+use crate::catalogue::{Live, Snapshot};
+use crate::store::{Store, StoreError};
+
+/// The store and the catalogue being served.
+#[derive(Debug, Clone)]
+pub struct App {
+    store: Store,
+    live: Arc<Live>,
+}
+
+impl App {
+    /// Opens the store (`database_url` `None` → embedded SQLite; migrations
+    /// and seed applied) and loads the current catalogue. The watcher is
+    /// started separately ([`App::watch`]): a command-line run needs none.
+    pub async fn open(database_url: Option<&str>) -> Result<Self, StoreError> {
+        let store = Store::open(database_url).await?;
+        let live = Arc::new(Live::new(store.load_current().await?));
+        tracing::info!(
+            backend = store.backend(),
+            revision = live.revision(),
+            "catalogue loaded"
+        );
+        Ok(Self { store, live })
+    }
+
+    /// Starts the task that keeps the live catalogue in step with the
+    /// database; abort the handle on shutdown.
+    pub fn watch(&self) -> tokio::task::JoinHandle<()> {
+        crate::store::watch::spawn(self.store.clone(), Arc::clone(&self.live))
+    }
+
+    /// Closes the store's connections (command-line runs, at their end).
+    pub async fn close(&self) {
+        self.store.close().await;
+    }
+
+    /// The store, for the use cases in `app/` only.
+    pub(in crate::app) fn store(&self) -> &Store {
+        &self.store
+    }
+
+    /// `postgres` or `sqlite`.
+    pub fn backend(&self) -> &'static str {
+        self.store.backend()
+    }
+
+    /// The head revision as the database holds it (a readiness probe: it
+    /// fails while the database cannot be reached).
+    pub async fn head(&self) -> Result<i64, AppError> {
+        Ok(self.store.head().await?)
+    }
+
+    /// The live catalogue.
+    pub fn live(&self) -> &Arc<Live> {
+        &self.live
+    }
+
+    /// The current catalogue.
+    pub fn current(&self) -> Arc<Snapshot> {
+        self.live.current()
+    }
+
+    /// The current catalogue revision.
+    pub fn revision(&self) -> i64 {
+        self.live.revision()
+    }
+
+    /// Whether the catalogue in memory may be stale (database unreachable).
+    pub fn stale(&self) -> bool {
+        self.live.is_stale()
+    }
+
+    /// The catalogue at `revision` (the current one when `None`): held in
+    /// memory when it is current or was read before, else rebuilt from the
+    /// store's history (404 naming `catalogue_revision` when it does not
+    /// exist).
+    pub async fn snapshot(&self, revision: Option<i64>) -> Result<Arc<Snapshot>, AppError> {
+        let current = self.live.current();
+        match revision {
+            None => Ok(current),
+            Some(r) if r == current.revision => Ok(current),
+            Some(r) => Ok(self.store.snapshot_at(&self.live, r).await?),
+        }
+    }
+}
