@@ -1,9 +1,13 @@
 //! The joint model of VDI 2230 Part 1 beyond the torque window, pure
 //! computation: `bolt` (bolt geometry, from explicit lengths or a product
 //! standard's thread length, turned into the shank sections inside the clamp
-//! length that `angle::resilience` takes).
+//! length that `angle::resilience` takes), `load_factor` (Φ_K and
+//! Φ = n·Φ_K) and `embedding` (f_Z from the roughness classes and the
+//! preload loss F_Z).
 //!
 //! The resilience formulas themselves (δ_S with shank sections, δ_P by the
 //! cone/sleeve model) live in `angle::resilience`; this module reuses them.
 
 pub mod bolt;
+pub mod embedding;
+pub mod load_factor;
