@@ -2,8 +2,10 @@
 //! computation: `bolt` (bolt geometry, from explicit lengths or a product
 //! standard's thread length, turned into the shank sections inside the clamp
 //! length that `angle::resilience` takes), `load_factor` (Φ_K and
-//! Φ = n·Φ_K) and `embedding` (f_Z from the roughness classes and the
-//! preload loss F_Z).
+//! Φ = n·Φ_K), `embedding` (f_Z from the roughness classes and the
+//! preload loss F_Z) and `working` (the working state under operating
+//! loads: residual clamp load, stresses, fatigue limit, safety factors and
+//! their checks).
 //!
 //! The resilience formulas themselves (δ_S with shank sections, δ_P by the
 //! cone/sleeve model) live in `angle::resilience`; this module reuses them.
@@ -11,3 +13,4 @@
 pub mod bolt;
 pub mod embedding;
 pub mod load_factor;
+pub mod working;
