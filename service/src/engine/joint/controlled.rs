@@ -33,6 +33,15 @@ use crate::engine::EngineError;
 /// R_p0.2max/R_p0.2min assumed where the grade gives no upper yield strength
 /// (recalled from memory; common practice).
 pub const DEFAULT_YIELD_SPREAD: f64 = 1.2;
+/// Yield strengths accepted, in N/mm² (common practice: bolt materials lie
+/// well inside; the bounds keep every figure finite).
+pub const YIELD_RANGE_MPA: (f64, f64) = (50.0, 3000.0);
+/// Largest R_p0.2max/R_p0.2min accepted (common practice: one batch of one
+/// grade spreads far less).
+pub const MAX_YIELD_SPREAD: f64 = 2.0;
+/// Largest δ_S + δ_P accepted, m/N (common practice: a bolted joint is
+/// orders of magnitude stiffer than 1e-5 m/N).
+pub const MAX_RESILIENCE: f64 = 1e-5;
 
 /// The assembly friction and bearing of a tightening.
 #[derive(Debug, Clone, Copy)]
@@ -86,14 +95,29 @@ pub struct AngleControlled {
 fn yield_max(a: &Assembly) -> Result<(f64, bool), EngineError> {
     positive(a.mean_bearing_diameter.value, "bearing")?;
     non_negative(a.prevailing_torque.value, "prevailing_torque")?;
+    let (lo, hi) = (YIELD_RANGE_MPA.0 * 1e6, YIELD_RANGE_MPA.1 * 1e6);
     let min = positive(a.yield_min.value, "property_class")?;
+    if !(lo..=hi).contains(&min) {
+        return Err(EngineError::invalid(
+            "property_class",
+            format!(
+                "minimum yield strength {:.0} N/mm² is outside {:.0} to {:.0} N/mm²",
+                min / 1e6,
+                YIELD_RANGE_MPA.0,
+                YIELD_RANGE_MPA.1
+            ),
+        ));
+    }
     match a.yield_max {
         Some(p) => {
             let max = positive(p.value, "yield_strength_max")?;
-            if max < min {
+            if max < min || max > MAX_YIELD_SPREAD * min {
                 return Err(EngineError::invalid(
                     "yield_strength_max",
-                    "the upper yield strength is below the minimum yield strength",
+                    format!(
+                        "the upper yield strength must lie between the minimum yield strength \
+                         and {MAX_YIELD_SPREAD} times it"
+                    ),
                 ));
             }
             Ok((max, false))
@@ -155,6 +179,12 @@ pub fn angle_controlled(
 ) -> Result<AngleControlled, EngineError> {
     let (rp_max, defaulted) = yield_max(a)?;
     let delta = positive(resilience, "joint")?;
+    if delta > MAX_RESILIENCE {
+        return Err(EngineError::invalid(
+            "joint",
+            format!("joint resilience {delta:e} m/N is outside the model's range"),
+        ));
+    }
     let snug = positive(snug_torque.value, "joint.snug_torque")?;
     let theta = positive(angle.get::<degree>(), "angle")?;
     if !(angle_scatter.is_finite() && (0.0..0.5).contains(&angle_scatter)) {

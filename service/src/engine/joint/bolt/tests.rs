@@ -234,3 +234,39 @@ fn audit_shank_aware_angle_window_m12x60_iso_4014() {
     // The shank-aware yield angle stays above its own window.
     assert!(deg(shank.angle_at_yield) > deg(shank.angle_max));
 }
+
+proptest::proptest! {
+    #![proptest_config(proptest::prelude::ProptestConfig { cases: 256, failure_persistence: None, ..Default::default() })]
+
+    /// Any numbers: a bolt and its clamped part, or a refusal naming a
+    /// `bolt.`/`joint.` field; never a panic, and accepted lengths add up.
+    #[test]
+    fn any_bolt_is_answered_or_refused(
+        l in proptest::prelude::any::<f64>(),
+        b in proptest::prelude::any::<f64>(),
+        s in proptest::collection::vec((proptest::prelude::any::<f64>(), proptest::prelude::any::<f64>()), 0..10),
+        lk in proptest::prelude::any::<f64>(),
+        le in proptest::prelude::any::<f64>(),
+        standard in proptest::prelude::any::<bool>(),
+    ) {
+        let t = metric(12.0, 1.75);
+        let input = if standard {
+            BoltInput::Standard { standard: BoltStandard::Iso4014, length: mm(l) }
+        } else {
+            explicit(l, b, &s)
+        };
+        let named = |f: &str| f.starts_with("bolt.") || f.starts_with("joint.") || f == "nut";
+        match bolt(&t, &input) {
+            Err(e) => proptest::prop_assert!(named(e.field()), "{e:?}"),
+            Ok(bo) => match in_clamp_length(&bo, mm(lk), mm(le), "nut") {
+                Err(e) => proptest::prop_assert!(named(e.field()), "{e:?}"),
+                Ok(c) => {
+                    let shank: f64 = c.shank_sections.iter().map(|x| x.length.value).sum();
+                    let total = shank + c.free_thread_length.value;
+                    proptest::prop_assert!(c.free_thread_length.value > 0.0);
+                    proptest::prop_assert!((total / mm(lk).value - 1.0).abs() < 1e-9);
+                }
+            },
+        }
+    }
+}

@@ -185,3 +185,30 @@ proptest! {
         }
     }
 }
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 256, failure_persistence: None, ..ProptestConfig::default() })]
+
+    /// Any numbers: an answer with finite figures or a refusal naming a field.
+    #[test]
+    fn any_controlled_input_is_answered_or_refused(
+        rp in any::<f64>(), rp_max in any::<f64>(), delta in any::<f64>(),
+        snug in any::<f64>(), angle in any::<f64>(), s in any::<f64>(),
+    ) {
+        let t = metric(12.0, 1.75);
+        let mut a = assembly(&t, 940.0, (0.08, 0.16), (0.08, 0.16));
+        a.yield_min = mpa(rp);
+        a.yield_max = Some(mpa(rp_max));
+        match yield_controlled(&a) {
+            Ok(y) => prop_assert!(y.preload.tightening_factor.is_finite()
+                && y.monitoring_torque_max.value.is_finite()),
+            Err(e) => prop_assert!(!e.field().is_empty()),
+        }
+        let snug = Torque::new::<newton_meter>(snug);
+        match angle_controlled(&a, delta, snug, Angle::new::<degree>(angle), s) {
+            Ok(ac) => prop_assert!(ac.preload.tightening_factor.is_finite()
+                && ac.angle_at_yield >= ac.angle_max),
+            Err(e) => prop_assert!(!e.field().is_empty()),
+        }
+    }
+}

@@ -5,6 +5,7 @@ use uom::si::pressure::megapascal;
 use uom::si::torque::newton_meter;
 
 use super::*;
+use crate::engine::checks::Severity;
 use crate::engine::tightening::fixtures::{bearing, metric, mm, mpa};
 
 fn kn(v: f64) -> Force {
@@ -179,6 +180,14 @@ fn bad_loads_name_their_field() {
     let l = loads(10.0);
     let e = working_state(&input(&c, &l, 1.0, (100.0, 150.0))).unwrap_err();
     assert_eq!(e.field(), "load_factor");
+    let e = working_state(&input(&c, &l, 0.2, (150.0, 100.0))).unwrap_err();
+    assert_eq!(e.field(), "preload.min");
+    let mut i = input(&c, &l, 0.2, (100.0, 150.0));
+    i.thread_friction_min = f64::NAN;
+    assert_eq!(
+        working_state(&i).unwrap_err().field(),
+        "thread_friction.min"
+    );
 }
 
 #[test]
