@@ -16,3 +16,6 @@ pub mod controlled;
 pub mod embedding;
 pub mod load_factor;
 pub mod working;
+
+#[cfg(test)]
+mod tests;
