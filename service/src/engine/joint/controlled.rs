@@ -65,7 +65,9 @@ pub struct ControlledPreload {
     pub preload_max: Force,
     /// α_A = F_M,max/F_M,min.
     pub tightening_factor: f64,
-    /// R_p0.2max used, and whether it was the default spread.
+    /// R_p0.2max assumed (it sets F_M,max of yield-controlled tightening;
+    /// the angle-controlled window stays below the first yield), and whether
+    /// it was the default spread.
     pub yield_max: Pressure,
     pub yield_max_defaulted: bool,
 }
