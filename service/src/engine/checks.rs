@@ -87,8 +87,20 @@ const HYDROGEN_RM_MPA: f64 = 1000.0;
 
 /// Code of the check that the angle window reaches the yield angle.
 pub const ANGLE_MAY_YIELD: &str = "angle_may_yield_bolt";
+/// Code of the working-state check on the residual clamp load (joint opening).
+pub const RESIDUAL_CLAMP_LOAD: &str = "residual_clamp_load";
+/// Code of the working-state check on the safety against yield.
+pub const WORKING_YIELD_SAFETY: &str = "working_yield_safety";
+/// Code of the working-state check on the safety against fatigue.
+pub const FATIGUE_SAFETY: &str = "fatigue_safety";
+/// Code of the working-state check on the safety against slip.
+pub const SLIP_SAFETY: &str = "slip_safety";
+/// Code of the working-state check on the sealing clamp load.
+pub const SEALING_CLAMP_LOAD: &str = "sealing_clamp_load";
+/// Code of the working-state check on the surface pressure in service.
+pub const WORKING_SURFACE_PRESSURE: &str = "working_surface_pressure";
 /// Every code a check can have (the names `accept_checks` may use).
-pub const CODES: [&str; 16] = [
+pub const CODES: [&str; 22] = [
     "surface_pressure_exceeded",
     "surface_pressure_not_checked",
     "thread_engagement_too_short",
@@ -105,6 +117,12 @@ pub const CODES: [&str; 16] = [
     WINDOW_ZERO_WIDTH,
     ANGLE_WINDOW_UNDER_TWO_STEPS,
     ANGLE_WINDOW_ZERO_WIDTH,
+    RESIDUAL_CLAMP_LOAD,
+    WORKING_YIELD_SAFETY,
+    FATIGUE_SAFETY,
+    SLIP_SAFETY,
+    SEALING_CLAMP_LOAD,
+    WORKING_SURFACE_PRESSURE,
 ];
 
 /// Property class 12.9 and stronger: Rm,min 1220 MPa for 12.9 (ISO 898-1:2013,

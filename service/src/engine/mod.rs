@@ -5,7 +5,8 @@
 //! `material` (clamped parts), `tightening` (VDI 2230 preload and torque),
 //! `method` (tightening methods and their scatter), `window` (torque
 //! window from friction and tool scatter), `angle` (joint resilience and
-//! torque-angle), `checks` (verdicts on a window), `cautions` (the
+//! torque-angle), `joint` (bolt geometry and the VDI 2230 joint model
+//! beyond the window), `checks` (verdicts on a window), `cautions` (the
 //! cautions an answer carries), `plausible` (input ranges), and `spec`,
 //! which puts them together. Beside them: `quantity` (validated numbers the
 //! formulas trust), `error` (typed errors naming the request field) and
@@ -18,6 +19,7 @@ pub mod cautions;
 pub mod checks;
 pub mod error;
 pub mod grade;
+pub mod joint;
 pub mod material;
 pub mod method;
 pub mod plausible;
