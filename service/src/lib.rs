@@ -2,7 +2,8 @@
 //!
 //! Dependencies point one way: `engine` (pure computation) and `catalogue`
 //! (friction data as domain types) use no other module of the crate;
-//! `store` (sqlx) uses `catalogue`; `http` and `cli` use all three.
+//! `registry` (joints and their releases as domain types) uses only
+//! `catalogue`; `store` (sqlx) uses `catalogue` and `registry`; `http` and `cli` use all three.
 //! `startup` wires `http` and `store` into a server (and holds the route
 //! registrations the OpenAPI document is generated from); `config` reads
 //! flags and environment.
@@ -13,6 +14,7 @@ pub mod cli;
 pub mod config;
 pub mod engine;
 pub mod http;
+pub mod registry;
 pub mod startup;
 
 #[cfg(test)]
