@@ -104,15 +104,17 @@ fn release_not_found(id: &JointId, number: i64) -> StoreError {
     }
 }
 
-/// The joint's releases (newest first) whose status is `status`, or
-/// release `number` alone.
-async fn releases_in(
-    tx: &mut Tx,
-    id: &JointId,
-    only: Result<i64, ReleaseStatus>,
-) -> Result<Vec<Release>, StoreError> {
-    let rows: Vec<ReleaseRow> = match only {
-        Ok(number) => {
+/// Which releases of a joint to read.
+enum Which {
+    /// Release N alone.
+    Number(i64),
+    /// Those whose current status is this one, newest first.
+    Status(ReleaseStatus),
+}
+
+async fn releases_in(tx: &mut Tx, id: &JointId, which: Which) -> Result<Vec<Release>, StoreError> {
+    let rows: Vec<ReleaseRow> = match which {
+        Which::Number(number) => {
             let sql = format!("{SELECT} AND r.number = $2");
             dispatch!(Tx, tx, |c| sqlx::query_as(&sql)
                 .bind(id.as_str())
@@ -120,7 +122,7 @@ async fn releases_in(
                 .fetch_all(&mut **c)
                 .await?)
         }
-        Err(status) => {
+        Which::Status(status) => {
             let sql =
                 format!("SELECT * FROM ({SELECT}) x WHERE x.status = $2 ORDER BY x.number DESC");
             dispatch!(Tx, tx, |c| sqlx::query_as(&sql)
@@ -165,7 +167,7 @@ async fn activate(
     actor: &str,
     now: DateTime<Utc>,
 ) -> Result<(), StoreError> {
-    let active = releases_in(tx, id, Err(ReleaseStatus::Released)).await?;
+    let active = releases_in(tx, id, Which::Status(ReleaseStatus::Released)).await?;
     for old in active.iter().filter(|r| r.number != number) {
         let reason = format!("superseded by release {number}");
         insert_event(
@@ -189,7 +191,7 @@ async fn activate(
 
 /// Release `number` of the joint read in the transaction, or `NotFound`.
 async fn one_in(tx: &mut Tx, id: &JointId, number: i64) -> Result<Release, StoreError> {
-    releases_in(tx, id, Ok(number))
+    releases_in(tx, id, Which::Number(number))
         .await?
         .into_iter()
         .next()
@@ -320,7 +322,7 @@ impl Store {
             tx.commit().await?;
             return Err(joints::not_found(id));
         }
-        let active = releases_in(&mut tx, id, Err(ReleaseStatus::Released)).await?;
+        let active = releases_in(&mut tx, id, Which::Status(ReleaseStatus::Released)).await?;
         tx.commit().await?;
         Ok(active.into_iter().next())
     }
