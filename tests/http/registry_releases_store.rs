@@ -21,6 +21,7 @@ on_both_backends!(
     a_release_is_frozen_with_its_event_and_outbox_row,
     the_four_eyes_flow_and_refused_transitions,
     concurrent_releases_get_distinct_numbers,
+    a_release_whose_outbox_row_fails_leaves_nothing,
     registry_records_are_append_only_in_the_database,
 );
 
@@ -300,6 +301,37 @@ async fn concurrent_releases_get_distinct_numbers(db: &TestDb) {
         );
     }
     assert_eq!(outbox_ids(&store).await.len(), 8);
+}
+
+async fn a_release_whose_outbox_row_fails_leaves_nothing(db: &TestDb) {
+    let store = open(db).await;
+    store
+        .create_joint(&definition("K4-RA-017", &[]), "editor", "new")
+        .await
+        .unwrap();
+    let ev = released_event("K4-RA-017");
+    let new = new_release("K4-RA-017", "editor-a", "first");
+    store.write_release(&new, K::Released, &ev).await.unwrap();
+    // the outbox refuses a second row with the same event id: the release,
+    // its first event and the superseding of release 1 are rolled back with it
+    let err = store
+        .write_release(&new, K::Released, &ev)
+        .await
+        .unwrap_err();
+    assert!(
+        matches!(&err, RegistryStoreError::Store(StoreError::Conflict { .. })),
+        "{err:?}"
+    );
+    let joint = id("K4-RA-017");
+    let err = store.release(&joint, 2).await.unwrap_err();
+    assert!(matches!(err, StoreError::NotFound { .. }), "{err:?}");
+    let active = store.active_release(&joint).await.unwrap();
+    assert_eq!(active.map(|r| (r.number, r.status)), Some((1, S::Released)));
+    assert_eq!(store.release_events(&joint, 1).await.unwrap().len(), 1);
+    assert_eq!(outbox_ids(&store).await, std::slice::from_ref(&ev.id));
+    // the next release takes number 2
+    let next = release(&store, "K4-RA-017", "second", K::Released).await;
+    assert_eq!(next.unwrap().number, 2);
 }
 
 async fn registry_records_are_append_only_in_the_database(db: &TestDb) {
