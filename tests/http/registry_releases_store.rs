@@ -1,15 +1,16 @@
 //! Releases in the store, on both backends: numbered 1, 2, … per joint even
 //! when written concurrently, each with its first event and its outbox event
 //! in one transaction; status events checked against the allowed
-//! transitions; the active release; and every append-only registry table
-//! refusing UPDATE and DELETE in the database.
+//! transitions; the active release; joints listed by release status; and
+//! every append-only registry table refusing UPDATE and DELETE.
 
 use chrono::Utc;
 use serde_json::json;
 use tightspec::registry::{
-    event, AcceptedCheck, NewRelease, OutboxEvent, RegistryError, Release, ReleaseEventKind as K,
-    ReleaseStatus as S,
+    event, AcceptedCheck, NewRelease, OutboxEvent, Page, RegistryError, Release,
+    ReleaseEventKind as K, ReleaseStatus as S,
 };
+use tightspec::store::joints::JointFilter;
 use tightspec::store::outbox::new_event_id;
 use tightspec::store::{RegistryStoreError, Store, StoreError};
 
@@ -167,6 +168,17 @@ async fn a_release_is_frozen_with_its_event_and_outbox_row(db: &TestDb) {
     assert_eq!(outbox_ids(&store).await.len(), before);
 }
 
+/// The ids of the joints with a release now at `status`.
+async fn listed(store: &Store, status: S) -> Vec<String> {
+    let filter = JointFilter {
+        status: Some(status),
+        ..JointFilter::default()
+    };
+    let page = Page::new(None, 500).unwrap();
+    let joints = store.joints(&filter, &page).await.unwrap();
+    joints.into_iter().map(|j| j.id.to_string()).collect()
+}
+
 async fn the_four_eyes_flow_and_refused_transitions(db: &TestDb) {
     let store = open(db).await;
     store
@@ -174,11 +186,17 @@ async fn the_four_eyes_flow_and_refused_transitions(db: &TestDb) {
         .await
         .unwrap();
     let joint = id("K4-ST-004");
+    store
+        .create_joint(&definition("K4-ST-005", &[]), "editor", "new")
+        .await
+        .unwrap();
     let draft = release(&store, "K4-ST-004", "first", K::Requested)
         .await
         .unwrap();
     assert_eq!(draft.status, S::Draft);
     assert_eq!(store.active_release(&joint).await.unwrap(), None);
+    assert_eq!(listed(&store, S::Draft).await, ["K4-ST-004"]);
+    assert!(listed(&store, S::Released).await.is_empty());
     // a draft is released by approval only
     let err = store
         .append_release_event(&joint, 1, K::Released, "approver-b", "ok", None)
@@ -211,6 +229,8 @@ async fn the_four_eyes_flow_and_refused_transitions(db: &TestDb) {
         Some(1)
     );
     assert!(outbox_ids(&store).await.contains(&ev.id));
+    assert_eq!(listed(&store, S::Released).await, ["K4-ST-004"]);
+    assert!(listed(&store, S::Draft).await.is_empty());
 
     let withdrawn = store
         .append_release_event(&joint, 1, K::Withdrawn, "approver-b", "wrong part", None)

@@ -193,6 +193,7 @@ async fn joints_are_listed_by_tag_and_review_mark_in_pages(db: &TestDb) {
 
     let station = JointFilter {
         tag: Some("station-12".into()),
+        status: None,
         review_due: None,
     };
     let got = store
@@ -202,6 +203,7 @@ async fn joints_are_listed_by_tag_and_review_mark_in_pages(db: &TestDb) {
     assert_eq!(ids(&got), ["K4-04", "K4-06"]);
     let none = JointFilter {
         tag: Some("station-1".into()),
+        status: None,
         review_due: None,
     };
     assert!(store
@@ -220,6 +222,7 @@ async fn joints_are_listed_by_tag_and_review_mark_in_pages(db: &TestDb) {
     store.mark_review_due(3, Utc::now(), &marks).await.unwrap();
     let due = JointFilter {
         tag: None,
+        status: None,
         review_due: Some(true),
     };
     assert_eq!(
@@ -231,6 +234,7 @@ async fn joints_are_listed_by_tag_and_review_mark_in_pages(db: &TestDb) {
     );
     let due_at_station = JointFilter {
         tag: Some("station-12".into()),
+        status: None,
         review_due: Some(true),
     };
     let got = store
@@ -240,6 +244,7 @@ async fn joints_are_listed_by_tag_and_review_mark_in_pages(db: &TestDb) {
     assert_eq!(ids(&got), ["K4-02"]);
     let not_due = JointFilter {
         tag: None,
+        status: None,
         review_due: Some(false),
     };
     let got = store

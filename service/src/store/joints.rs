@@ -1,7 +1,7 @@
 //! The joint registry's definitions: create, update from an expected
-//! version, read one, list by tag and review mark in pages of ids, and mark
-//! or clear the review mark. Every definition change writes its
-//! `joint_history` row (before, after, actor, reason) in the same
+//! version, read one, list by tag, release status and review mark in pages
+//! of ids, and mark or clear the review mark. Every definition change writes
+//! its `joint_history` row (before, after, actor, reason) in the same
 //! transaction; the history is append-only in the database.
 
 use chrono::{DateTime, Utc};
@@ -10,14 +10,16 @@ use super::backend::{dispatch, Tx};
 use super::error::RegistryStoreError;
 use super::{outbox, Store, StoreError};
 use crate::registry::{
-    Joint, JointDefinition, JointId, OutboxEvent, Page, RegistryError, ReviewDue,
+    Joint, JointDefinition, JointId, OutboxEvent, Page, RegistryError, ReleaseStatus, ReviewDue,
 };
 
-/// Which joints a listing shows: those with `tag`, and those whose review
-/// is (or is not) due.
+/// Which joints a listing shows: those with `tag`, those with a release
+/// now at `status` (`released`: an active release; `draft`: one waiting for
+/// approval), and those whose review is (or is not) due.
 #[derive(Debug, Clone, Default, PartialEq)]
 pub struct JointFilter {
     pub tag: Option<String>,
+    pub status: Option<ReleaseStatus>,
     pub review_due: Option<bool>,
 }
 
@@ -291,6 +293,14 @@ impl Store {
                 next()
             ));
         }
+        if filter.status.is_some() {
+            conditions.push(format!(
+                "EXISTS (SELECT 1 FROM joint_releases r WHERE r.joint_id = joints.id AND \
+                 (SELECT e.status FROM joint_release_events e WHERE e.joint_id = r.joint_id \
+                 AND e.number = r.number ORDER BY e.seq DESC LIMIT 1) = {})",
+                next()
+            ));
+        }
         match filter.review_due {
             Some(true) => conditions.push("review_due_revision IS NOT NULL".into()),
             Some(false) => conditions.push("review_due_revision IS NULL".into()),
@@ -309,6 +319,9 @@ impl Store {
             let mut q = sqlx::query_as(&sql);
             if let Some(tag) = &filter.tag {
                 q = q.bind(tag);
+            }
+            if let Some(status) = filter.status {
+                q = q.bind(status.as_str());
             }
             if let Some(after) = &page.after {
                 q = q.bind(after.as_str());
