@@ -7,7 +7,7 @@
 use chrono::Utc;
 use serde_json::json;
 use tightspec::registry::{
-    event, AcceptedCheck, NewRelease, OutboxEvent, Page, RegistryError, Release,
+    event, AcceptedCheck, JointId, NewRelease, OutboxEvent, Page, RegistryError, Release,
     ReleaseEventKind as K, ReleaseStatus as S,
 };
 use tightspec::store::joints::JointFilter;
@@ -15,7 +15,7 @@ use tightspec::store::outbox::new_event_id;
 use tightspec::store::{RegistryStoreError, Store, StoreError};
 
 use crate::on_both_backends;
-use crate::registry_store::{definition, id, open};
+use crate::registry_store::{id, with_joints};
 use crate::support::db::TestDb;
 
 on_both_backends!(
@@ -67,6 +67,12 @@ async fn release(
         .await
 }
 
+/// The number of the joint's active release.
+async fn active_number(store: &Store, joint: &JointId) -> Option<i64> {
+    let active = store.active_release(joint).await.unwrap();
+    active.map(|r| r.number)
+}
+
 async fn outbox_ids(store: &Store) -> Vec<String> {
     store
         .outbox_after(0, 1000)
@@ -78,11 +84,7 @@ async fn outbox_ids(store: &Store) -> Vec<String> {
 }
 
 async fn a_release_is_frozen_with_its_event_and_outbox_row(db: &TestDb) {
-    let store = open(db).await;
-    store
-        .create_joint(&definition("K4-RA-017", &[]), "editor", "new")
-        .await
-        .unwrap();
+    let store = with_joints(db, &["K4-RA-017"]).await;
     let joint = id("K4-RA-017");
     assert_eq!(store.active_release(&joint).await.unwrap(), None);
 
@@ -126,14 +128,7 @@ async fn a_release_is_frozen_with_its_event_and_outbox_row(db: &TestDb) {
         store.release(&joint, 1).await.unwrap().status,
         S::Superseded
     );
-    assert_eq!(
-        store
-            .active_release(&joint)
-            .await
-            .unwrap()
-            .map(|r| r.number),
-        Some(2)
-    );
+    assert_eq!(active_number(&store, &joint).await, Some(2));
     assert_eq!(store.joint(&joint).await.unwrap().review_due, None);
     let events: Vec<_> = store
         .release_events(&joint, 1)
@@ -180,16 +175,8 @@ async fn listed(store: &Store, status: S) -> Vec<String> {
 }
 
 async fn the_four_eyes_flow_and_refused_transitions(db: &TestDb) {
-    let store = open(db).await;
-    store
-        .create_joint(&definition("K4-ST-004", &[]), "editor", "new")
-        .await
-        .unwrap();
+    let store = with_joints(db, &["K4-ST-004", "K4-ST-005"]).await;
     let joint = id("K4-ST-004");
-    store
-        .create_joint(&definition("K4-ST-005", &[]), "editor", "new")
-        .await
-        .unwrap();
     let draft = release(&store, "K4-ST-004", "first", K::Requested)
         .await
         .unwrap();
@@ -220,14 +207,7 @@ async fn the_four_eyes_flow_and_refused_transitions(db: &TestDb) {
         (approved.status, approved.approved_by.as_deref()),
         (S::Released, Some("approver-b"))
     );
-    assert_eq!(
-        store
-            .active_release(&joint)
-            .await
-            .unwrap()
-            .map(|r| r.number),
-        Some(1)
-    );
+    assert_eq!(active_number(&store, &joint).await, Some(1));
     assert!(outbox_ids(&store).await.contains(&ev.id));
     assert_eq!(listed(&store, S::Released).await, ["K4-ST-004"]);
     assert!(listed(&store, S::Draft).await.is_empty());
@@ -281,11 +261,7 @@ async fn the_four_eyes_flow_and_refused_transitions(db: &TestDb) {
 }
 
 async fn concurrent_releases_get_distinct_numbers(db: &TestDb) {
-    let store = open(db).await;
-    store
-        .create_joint(&definition("K4-RA-017", &[]), "editor", "new")
-        .await
-        .unwrap();
+    let store = with_joints(db, &["K4-RA-017"]).await;
     let tasks: Vec<_> = (0..8)
         .map(|n| {
             let store = store.clone();
@@ -305,14 +281,7 @@ async fn concurrent_releases_get_distinct_numbers(db: &TestDb) {
     assert_eq!(numbers, (1..=8).collect::<Vec<i64>>());
     // exactly one active: the last one written
     let joint = id("K4-RA-017");
-    assert_eq!(
-        store
-            .active_release(&joint)
-            .await
-            .unwrap()
-            .map(|r| r.number),
-        Some(8)
-    );
+    assert_eq!(active_number(&store, &joint).await, Some(8));
     for n in 1..8 {
         assert_eq!(
             store.release(&joint, n).await.unwrap().status,
@@ -324,11 +293,7 @@ async fn concurrent_releases_get_distinct_numbers(db: &TestDb) {
 }
 
 async fn a_release_whose_outbox_row_fails_leaves_nothing(db: &TestDb) {
-    let store = open(db).await;
-    store
-        .create_joint(&definition("K4-RA-017", &[]), "editor", "new")
-        .await
-        .unwrap();
+    let store = with_joints(db, &["K4-RA-017"]).await;
     let ev = released_event("K4-RA-017");
     let new = new_release("K4-RA-017", "editor-a", "first");
     store.write_release(&new, K::Released, &ev).await.unwrap();
@@ -355,11 +320,7 @@ async fn a_release_whose_outbox_row_fails_leaves_nothing(db: &TestDb) {
 }
 
 async fn registry_records_are_append_only_in_the_database(db: &TestDb) {
-    let store = open(db).await;
-    store
-        .create_joint(&definition("K4-RA-017", &[]), "editor", "new")
-        .await
-        .unwrap();
+    let store = with_joints(db, &["K4-RA-017"]).await;
     release(&store, "K4-RA-017", "first", K::Released)
         .await
         .unwrap();

@@ -26,6 +26,18 @@ pub async fn open(db: &TestDb) -> Store {
         .unwrap_or_else(|e| panic!("open {}: {e}", db.url))
 }
 
+/// A store holding joints `ids` (untagged).
+pub async fn with_joints(db: &TestDb, ids: &[&str]) -> Store {
+    let store = open(db).await;
+    for id in ids {
+        store
+            .create_joint(&definition(id, &[]), "editor", "new")
+            .await
+            .unwrap_or_else(|e| panic!("create {id}: {e}"));
+    }
+    store
+}
+
 /// A joint of the invented Kestrel K4 tractor.
 pub fn definition(id: &str, tags: &[&str]) -> JointDefinition {
     JointDefinition::from_json(&json!({
@@ -255,11 +267,7 @@ async fn joints_are_listed_by_tag_and_review_mark_in_pages(db: &TestDb) {
 }
 
 async fn review_marks_are_set_once_with_their_event_and_cleared(db: &TestDb) {
-    let store = open(db).await;
-    store
-        .create_joint(&definition("K4-RA-017", &[]), "editor", "new")
-        .await
-        .unwrap();
+    let store = with_joints(db, &["K4-RA-017"]).await;
     let joint = id("K4-RA-017");
     let before = store.outbox_after(0, 1000).await.unwrap().len();
     let first = ReviewMark {
