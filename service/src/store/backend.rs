@@ -1,10 +1,11 @@
 //! What differs between the two databases, and nothing else: how to
 //! connect, the migrations, how a transaction starts, how the writer locks
-//! the head row (and a joint's row), how other instances are told of a new revision. Every
-//! query lives in the module of its aggregate (`snapshots`, `history`,
-//! `tokens`, `friction_series`, `joints`, `releases`, `outbox`) and is written once: its SQL is portable
-//! (`$n` placeholders, `RETURNING`, `ON CONFLICT` work in both), and
-//! [`dispatch!`] compiles that one body for each backend.
+//! the head row (and a joint's row), how other instances are told of a new
+//! revision. Every query lives in the module of its aggregate (`snapshots`,
+//! `history`, `tokens`, `friction_series`, `joints`, `releases`, `outbox`)
+//! and is written once: its SQL is portable (`$n` placeholders, `RETURNING`,
+//! `ON CONFLICT` work in both), and [`dispatch!`] compiles that one body for
+//! each backend.
 
 use std::path::Path;
 use std::str::FromStr;
