@@ -2,11 +2,13 @@
 //!
 //! Dependencies point one way: `engine` (pure computation) and `catalogue`
 //! (friction data as domain types) use no other module of the crate;
-//! `store` (sqlx) uses `catalogue`; `app` (the use cases and the
-//! application context) uses the three; `http` and `cli` are adapters over
-//! `app`. `startup` opens the application context and serves `http`
-//! (`http::routes` holds the route registrations the OpenAPI document is
-//! generated from); `config` holds the server's settings.
+//! `registry` (joints and their releases as domain types) uses only
+//! `catalogue`; `store` (sqlx) uses `catalogue` and `registry`; `app` (the
+//! use cases and the application context) uses those and the engine;
+//! `http` and `cli` are adapters over `app`. `startup` opens the
+//! application context and serves `http` (`http::routes` holds the route
+//! registrations the OpenAPI document is generated from); `config` holds
+//! the server's settings.
 
 pub mod app;
 pub mod catalogue;
@@ -14,6 +16,7 @@ pub mod cli;
 pub mod config;
 pub mod engine;
 pub mod http;
+pub mod registry;
 pub mod startup;
 
 #[cfg(test)]

@@ -8,6 +8,8 @@ mod errors;
 mod health;
 mod openapi;
 mod reference;
+mod registry_releases_store;
+mod registry_store;
 mod revision_keys;
 
 mod answer_cache;

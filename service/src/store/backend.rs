@@ -1,10 +1,11 @@
 //! What differs between the two databases, and nothing else: how to
 //! connect, the migrations, how a transaction starts, how the writer locks
-//! the head row, how other instances are told of a new revision. Every
-//! query lives in the module of its aggregate (`snapshots`, `history`,
-//! `tokens`, `friction_series`) and is written once: its SQL is portable
-//! (`$n` placeholders, `RETURNING`, `ON CONFLICT` work in both), and
-//! [`dispatch!`] compiles that one body for each backend.
+//! the head row (and a joint's row), how other instances are told of a new
+//! revision. Every query lives in the module of its aggregate (`snapshots`,
+//! `history`, `tokens`, `friction_series`, `joints`, `releases`, `outbox`)
+//! and is written once: its SQL is portable (`$n` placeholders, `RETURNING`,
+//! `ON CONFLICT` work in both), and [`dispatch!`] compiles that one body for
+//! each backend.
 
 use std::path::Path;
 use std::str::FromStr;
@@ -100,6 +101,26 @@ impl Tx {
                 .await?;
         }
         Ok(())
+    }
+
+    /// The version of joint `id`, its row locked until the transaction ends
+    /// (PostgreSQL `FOR UPDATE`; SQLite's `BEGIN IMMEDIATE` already holds
+    /// the write lock), so two releases or edits of one joint take turns.
+    pub(super) async fn lock_joint(&mut self, id: &str) -> Result<Option<i64>, StoreError> {
+        Ok(match self {
+            Tx::Postgres(c) => {
+                sqlx::query_scalar("SELECT version FROM joints WHERE id = $1 FOR UPDATE")
+                    .bind(id)
+                    .fetch_optional(&mut **c)
+                    .await?
+            }
+            Tx::Sqlite(c) => {
+                sqlx::query_scalar("SELECT version FROM joints WHERE id = $1")
+                    .bind(id)
+                    .fetch_optional(&mut **c)
+                    .await?
+            }
+        })
     }
 
     pub(super) async fn commit(self) -> Result<(), StoreError> {

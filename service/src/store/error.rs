@@ -89,3 +89,27 @@ impl From<serde_json::Error> for StoreError {
         StoreError::Internal(format!("stored JSON could not be read: {e}"))
     }
 }
+
+/// Why a registry call failed: refused on registry grounds (invalid input,
+/// a stale version, a status change not allowed) or a store failure (a
+/// duplicate id is `Store(Conflict)` naming `id`, an unknown joint or
+/// release `Store(NotFound)`).
+#[derive(Debug, thiserror::Error)]
+pub enum RegistryStoreError {
+    #[error(transparent)]
+    Registry(#[from] crate::registry::RegistryError),
+    #[error(transparent)]
+    Store(#[from] StoreError),
+}
+
+impl From<sqlx::Error> for RegistryStoreError {
+    fn from(e: sqlx::Error) -> Self {
+        RegistryStoreError::Store(e.into())
+    }
+}
+
+impl From<serde_json::Error> for RegistryStoreError {
+    fn from(e: serde_json::Error) -> Self {
+        RegistryStoreError::Store(e.into())
+    }
+}

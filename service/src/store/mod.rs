@@ -1,5 +1,5 @@
-//! Persistence of the friction catalogue, friction test series and API
-//! tokens (sqlx). PostgreSQL in production, SQLite as the embedded default,
+//! Persistence of the friction catalogue, friction test series, API
+//! tokens and the joint registry (sqlx). PostgreSQL in production, SQLite as the embedded default,
 //! behind one [`Store`]. Each query is written once, in the module of its
 //! aggregate, as a method of `Store`:
 //!
@@ -7,7 +7,10 @@
 //!   revision, writing a change set as a new revision, the seed;
 //! - `history` — revisions, one revision's changes, one item's changes;
 //! - `friction_series` — stored friction test series and their uses;
-//! - `tokens` — API tokens.
+//! - `tokens` — API tokens;
+//! - `joints` — the joint registry's definitions, their history and review
+//!   marks; `releases` — frozen releases and their status events;
+//!   `outbox` — events written with the change they announce.
 //!
 //! `backend` holds what differs between the databases (connecting,
 //! migrations, transaction start, head lock, notification) and the
@@ -20,6 +23,9 @@ mod backend;
 pub mod error;
 pub mod friction_series;
 mod history;
+pub mod joints;
+pub mod outbox;
+pub mod releases;
 mod snapshots;
 pub mod tokens;
 pub mod watch;
@@ -33,7 +39,7 @@ use crate::catalogue::{
 };
 pub use backend::DEFAULT_SQLITE_PATH;
 use backend::{PG_MIGRATOR, SQLITE_MIGRATOR};
-pub use error::{StoreError, RETRY_AFTER_SECS};
+pub use error::{RegistryStoreError, StoreError, RETRY_AFTER_SECS};
 pub use tokens::{Role, TokenInfo};
 
 /// Author recorded for revision 1.
