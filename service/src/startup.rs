@@ -256,3 +256,9 @@ pub fn init_logging_with(filter: tracing_subscriber::EnvFilter) {
         builder.try_init()
     };
 }
+
+/// The OpenAPI document of every registered route, as `GET /openapi.json`
+/// serves it (for `tightspec openapi`, which may not use `http` itself).
+pub fn openapi_document() -> Result<String, serde_json::Error> {
+    crate::http::openapi::document_json()
+}

@@ -10,6 +10,10 @@ use crate::engine::checks::Check;
 use crate::engine::EngineError;
 use crate::store::StoreError;
 
+/// Seconds a client should wait before retrying a write while the
+/// database is unavailable.
+pub use crate::store::RETRY_AFTER_SECS;
+
 /// The class of a field problem, ordered from most to least basic; a
 /// request's answer takes the most basic class present.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]

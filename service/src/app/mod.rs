@@ -14,6 +14,7 @@
 //! - `quantity` — wire quantities `{"value", "unit"}` and units, read into
 //!   engine quantities (a misread is a [`FieldProblem`]).
 //! - `reading` — nearest-name suggestions and JSON Schema integers.
+//! - `reference` — the engine's reference tables and lists as served.
 //! - `friction_tests` — friction test series: store, read, apply the
 //!   entry change a series supports.
 //! - `tokens` — API tokens: create, list, revoke, find by secret.
@@ -27,6 +28,7 @@ pub mod error;
 pub mod friction_tests;
 pub mod quantity;
 pub mod reading;
+pub mod reference;
 pub mod spec;
 pub mod tokens;
 

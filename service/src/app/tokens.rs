@@ -4,7 +4,9 @@
 use chrono::{DateTime, Utc};
 
 use super::{App, AppError, FieldProblem};
-use crate::store::{tokens, Role, TokenInfo};
+use crate::store::tokens;
+pub use crate::store::tokens::hash_secret;
+pub use crate::store::{Role, TokenInfo};
 
 impl App {
     /// Creates a token named `name` with `role`; returns it and its secret

@@ -2,6 +2,6 @@
 //! `GET /openapi.json` serves and `openapi/openapi.json` holds.
 
 pub fn run() -> Result<String, String> {
-    crate::http::openapi::document_json()
+    crate::startup::openapi_document()
         .map_err(|e| format!("cannot render the OpenAPI document: {e}"))
 }

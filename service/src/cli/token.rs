@@ -6,8 +6,8 @@ use std::io::Write;
 
 use chrono::{DateTime, Duration, Utc};
 
+use crate::app::tokens::{Role, TokenInfo};
 use crate::app::{App, AppError};
-use crate::store::{Role, TokenInfo};
 
 pub type CliResult = Result<(), Box<dyn std::error::Error + Send + Sync>>;
 

@@ -15,8 +15,8 @@ use chrono::Utc;
 
 use super::error::ApiError;
 use super::state::AppState;
+use crate::app::tokens::{self, Role, TokenInfo};
 use crate::app::{App, AppError};
-use crate::store::{tokens, Role, TokenInfo};
 
 /// Who is making a request.
 #[derive(Debug, Clone, PartialEq)]

@@ -15,7 +15,7 @@ use utoipa_actix_web::service_config::ServiceConfig;
 use super::auth::Reader;
 use super::error::ApiError;
 use super::state::AppState;
-use crate::store::Role;
+use crate::app::tokens::Role;
 
 pub fn configure(cfg: &mut ServiceConfig) {
     cfg.service(healthz).service(readyz).service(metrics);

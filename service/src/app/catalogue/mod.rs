@@ -7,6 +7,7 @@ mod entries;
 mod items;
 mod revisions;
 
+pub use crate::store::{HistoryItem, RevisionInfo};
 pub use entries::EntryFilter;
 pub use revisions::{Export, History, Imported, RevisionPage};
 

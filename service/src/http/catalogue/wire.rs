@@ -6,9 +6,9 @@
 use serde::{Deserialize, Serialize};
 use utoipa::{IntoParams, ToSchema};
 
+use crate::app::catalogue::{HistoryItem, RevisionInfo};
 use crate::catalogue::{DiffItem, EntryInput, FrictionEntry, RangeInput, Status};
 use crate::http::error::{ApiError, FieldError};
-use crate::store::{HistoryItem, RevisionInfo};
 
 mod items;
 pub use items::{

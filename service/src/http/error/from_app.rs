@@ -1,10 +1,10 @@
 //! The one mapping from the application's error to a problem response.
 
 use super::{ApiError, FieldError};
+use crate::app::error::RETRY_AFTER_SECS;
 use crate::app::spec::view::checks_out;
 use crate::app::{AppError, FieldProblem, ProblemClass};
 use crate::catalogue::CurrentState;
-use crate::store::RETRY_AFTER_SECS;
 
 impl From<&FieldProblem> for FieldError {
     fn from(p: &FieldProblem) -> Self {
