@@ -39,7 +39,7 @@ pub enum StartupError {
     #[error("openapi document: {0}")]
     OpenApi(#[from] serde_json::Error),
     #[error("catalogue store: {0}")]
-    Store(#[from] crate::store::StoreError),
+    Store(#[from] crate::app::AppError),
 }
 
 /// The application for one worker: routes, extractor error handlers,

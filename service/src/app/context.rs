@@ -7,7 +7,7 @@ use std::sync::Arc;
 
 use super::AppError;
 use crate::catalogue::{Live, Snapshot};
-use crate::store::{Store, StoreError};
+use crate::store::Store;
 
 /// The store and the catalogue being served.
 #[derive(Debug, Clone)]
@@ -20,7 +20,7 @@ impl App {
     /// Opens the store (`database_url` `None` → embedded SQLite; migrations
     /// and seed applied) and loads the current catalogue. The watcher is
     /// started separately ([`App::watch`]): a command-line run needs none.
-    pub async fn open(database_url: Option<&str>) -> Result<Self, StoreError> {
+    pub async fn open(database_url: Option<&str>) -> Result<Self, AppError> {
         let store = Store::open(database_url).await?;
         let live = Arc::new(Live::new(store.load_current().await?));
         tracing::info!(
