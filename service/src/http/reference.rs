@@ -57,7 +57,7 @@ pub struct ThreadsQuery {
     params(ThreadsQuery),
     responses(
         (status = 200, description = "Tabulated threads", body = Vec<Thread>),
-        (status = 400, description = "Unknown parameter or series", body = super::error::Problem, content_type = "application/problem+json")
+        (status = 400, description = "Unknown parameter or series")
     )
 )]
 #[get("/v1/threads")]
@@ -73,8 +73,8 @@ async fn threads(_reader: Reader, query: Query<ThreadsQuery>) -> Result<HttpResp
     params(("designation" = String, Path, description = "e.g. `M10`, `M10x1.25`, `1/2-13 UNC`"), UnitsQuery),
     responses(
         (status = 200, description = "Thread geometry", body = Thread),
-        (status = 400, description = "Not a thread designation", body = super::error::Problem, content_type = "application/problem+json"),
-        (status = 404, description = "Unknown thread, with suggestions", body = super::error::Problem, content_type = "application/problem+json")
+        (status = 400, description = "Not a thread designation"),
+        (status = 404, description = "Unknown thread, with suggestions")
     )
 )]
 #[get("/v1/threads/{designation}")]
@@ -133,7 +133,7 @@ async fn property_classes(_reader: Reader, query: Query<UnitsQuery>) -> HttpResp
     params(("id" = String, Path, description = "e.g. `8.8`, `10.9`, `A2-70`, `sae-j429-5`"), UnitsQuery),
     responses(
         (status = 200, description = "Property class", body = PropertyClass),
-        (status = 404, description = "Unknown property class, with suggestions", body = super::error::Problem, content_type = "application/problem+json")
+        (status = 404, description = "Unknown property class, with suggestions")
     )
 )]
 #[get("/v1/property-classes/{id}")]

@@ -14,7 +14,7 @@ use super::wire::{
 use crate::app::catalogue::{AtRevision, Author, EntryFilter};
 use crate::catalogue::{EntityKind, FrictionEntry};
 use crate::http::auth::{Editor, Reader};
-use crate::http::error::{ApiError, Problem};
+use crate::http::error::ApiError;
 use crate::http::state::AppState;
 
 pub fn configure(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
@@ -56,9 +56,9 @@ fn view(
     params(EntryListQuery),
     responses(
         (status = 200, description = "Friction entries", body = EntryList),
-        (status = 400, description = "Malformed query", body = Problem, content_type = "application/problem+json"),
-        (status = 401, description = "Token required or not accepted", body = Problem, content_type = "application/problem+json"),
-        (status = 404, description = "No such revision", body = Problem, content_type = "application/problem+json"),
+        (status = 400, description = "Malformed query"),
+        (status = 401, description = "Token required or not accepted"),
+        (status = 404, description = "No such revision"),
     )
 )]
 #[get("/v1/friction-entries")]
@@ -93,7 +93,7 @@ async fn list_entries(
     params(("id" = i64, Path, description = "Entry id"), RevisionQuery),
     responses(
         (status = 200, description = "The entry", body = EntryView, headers(("ETag" = String, description = "Entity tag for If-Match"))),
-        (status = 404, description = "No such entry or revision", body = Problem, content_type = "application/problem+json"),
+        (status = 404, description = "No such entry or revision"),
     )
 )]
 #[get("/v1/friction-entries/{id}")]
@@ -114,10 +114,10 @@ async fn get_entry(
     security(("bearer" = [])),
     responses(
         (status = 201, description = "Created", body = EntryView),
-        (status = 401, description = "Token required or not accepted", body = Problem, content_type = "application/problem+json"),
-        (status = 403, description = "Role may not change the catalogue", body = Problem, content_type = "application/problem+json"),
-        (status = 422, description = "Every problem listed; nothing written", body = Problem, content_type = "application/problem+json"),
-        (status = 503, description = "Database unavailable; retry", body = Problem, content_type = "application/problem+json"),
+        (status = 401, description = "Token required or not accepted"),
+        (status = 403, description = "Role may not change the catalogue"),
+        (status = 422, description = "Every problem listed; nothing written"),
+        (status = 503, description = "Database unavailable; retry"),
     )
 )]
 #[post("/v1/friction-entries")]
@@ -153,11 +153,11 @@ async fn create_entry(
     security(("bearer" = [])),
     responses(
         (status = 200, description = "Changed", body = EntryView),
-        (status = 404, description = "No such entry", body = Problem, content_type = "application/problem+json"),
-        (status = 412, description = "Stale ETag; `current` holds the current entry", body = Problem, content_type = "application/problem+json"),
-        (status = 422, description = "Every problem listed; nothing written", body = Problem, content_type = "application/problem+json"),
-        (status = 428, description = "If-Match missing", body = Problem, content_type = "application/problem+json"),
-        (status = 503, description = "Database unavailable; retry", body = Problem, content_type = "application/problem+json"),
+        (status = 404, description = "No such entry"),
+        (status = 412, description = "Stale ETag; `current` holds the current entry"),
+        (status = 422, description = "Every problem listed; nothing written"),
+        (status = 428, description = "If-Match missing"),
+        (status = 503, description = "Database unavailable; retry"),
     )
 )]
 #[put("/v1/friction-entries/{id}")]
@@ -197,10 +197,10 @@ async fn update_entry(
     security(("bearer" = [])),
     responses(
         (status = 200, description = "Retired", body = EntryView),
-        (status = 404, description = "No such entry", body = Problem, content_type = "application/problem+json"),
-        (status = 412, description = "Stale ETag", body = Problem, content_type = "application/problem+json"),
-        (status = 422, description = "Reason missing or already retired", body = Problem, content_type = "application/problem+json"),
-        (status = 428, description = "If-Match missing", body = Problem, content_type = "application/problem+json"),
+        (status = 404, description = "No such entry"),
+        (status = 412, description = "Stale ETag"),
+        (status = 422, description = "Reason missing or already retired"),
+        (status = 428, description = "If-Match missing"),
     )
 )]
 #[delete("/v1/friction-entries/{id}")]
@@ -265,8 +265,8 @@ fn reason_body(bytes: &[u8]) -> Result<Option<ReasonBody>, ApiError> {
     params(("id" = i64, Path, description = "Entry id")),
     responses(
         (status = 200, description = "History", body = HistoryView),
-        (status = 404, description = "No such entry", body = Problem, content_type = "application/problem+json"),
-        (status = 503, description = "Database unavailable", body = Problem, content_type = "application/problem+json"),
+        (status = 404, description = "No such entry"),
+        (status = 503, description = "Database unavailable"),
     )
 )]
 #[get("/v1/friction-entries/{id}/history")]

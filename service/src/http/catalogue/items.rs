@@ -16,7 +16,7 @@ use super::wire::{
 use crate::app::catalogue::{AtRevision, Author};
 use crate::catalogue::{CatalogueItem, Finish, Lubricant};
 use crate::http::auth::{Editor, Reader};
-use crate::http::error::{ApiError, Problem};
+use crate::http::error::ApiError;
 use crate::http::state::AppState;
 
 pub fn configure(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
@@ -111,7 +111,7 @@ async fn history<I: ItemWire>(state: &AppState, id: &str) -> Result<HttpResponse
 }
 
 /// Surface finishes in the catalogue (current or at `catalogue_revision`).
-#[utoipa::path(tag = "catalogue", params(RevisionQuery), responses((status = 200, description = "Finishes", body = FinishList), (status = 404, description = "No such revision", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", params(RevisionQuery), responses((status = 200, description = "Finishes", body = FinishList), (status = 404, description = "No such revision")))]
 #[get("/v1/finishes")]
 async fn list_finishes(
     state: web::Data<AppState>,
@@ -122,7 +122,7 @@ async fn list_finishes(
 }
 
 /// One finish, with its ETag.
-#[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Finish id"), RevisionQuery), responses((status = 200, description = "The finish", body = FinishView), (status = 404, description = "Unknown finish (with suggestions)", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Finish id"), RevisionQuery), responses((status = 200, description = "The finish", body = FinishView), (status = 404, description = "Unknown finish (with suggestions)")))]
 #[get("/v1/finishes/{id}")]
 async fn get_finish(
     state: web::Data<AppState>,
@@ -134,7 +134,7 @@ async fn get_finish(
 }
 
 /// Adds a finish (editor), e.g. a plant's own coating.
-#[utoipa::path(tag = "catalogue", request_body = FinishWrite, security(("bearer" = [])), responses((status = 201, description = "Created", body = FinishView), (status = 422, description = "Every problem listed", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", request_body = FinishWrite, security(("bearer" = [])), responses((status = 201, description = "Created", body = FinishView), (status = 422, description = "Every problem listed")))]
 #[post("/v1/finishes")]
 async fn create_finish(
     state: web::Data<AppState>,
@@ -146,7 +146,7 @@ async fn create_finish(
 }
 
 /// Replaces a finish (editor, If-Match).
-#[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Finish id"), ("If-Match" = String, Header, description = "ETag from GET")), request_body = FinishWrite, security(("bearer" = [])), responses((status = 200, description = "Changed", body = FinishView), (status = 412, description = "Stale ETag", body = Problem, content_type = "application/problem+json"), (status = 422, description = "Every problem listed", body = Problem, content_type = "application/problem+json"), (status = 428, description = "If-Match missing", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Finish id"), ("If-Match" = String, Header, description = "ETag from GET")), request_body = FinishWrite, security(("bearer" = [])), responses((status = 200, description = "Changed", body = FinishView), (status = 412, description = "Stale ETag"), (status = 422, description = "Every problem listed"), (status = 428, description = "If-Match missing")))]
 #[put("/v1/finishes/{id}")]
 async fn update_finish(
     state: web::Data<AppState>,
@@ -160,7 +160,7 @@ async fn update_finish(
 }
 
 /// Every change to one finish, oldest first.
-#[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Finish id")), responses((status = 200, description = "History", body = HistoryView), (status = 404, description = "No such finish", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Finish id")), responses((status = 200, description = "History", body = HistoryView), (status = 404, description = "No such finish")))]
 #[get("/v1/finishes/{id}/history")]
 async fn finish_history(
     state: web::Data<AppState>,
@@ -172,7 +172,7 @@ async fn finish_history(
 }
 
 /// Lubricants in the catalogue (current or at `catalogue_revision`).
-#[utoipa::path(tag = "catalogue", params(RevisionQuery), responses((status = 200, description = "Lubricants", body = LubricantList), (status = 404, description = "No such revision", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", params(RevisionQuery), responses((status = 200, description = "Lubricants", body = LubricantList), (status = 404, description = "No such revision")))]
 #[get("/v1/lubricants")]
 async fn list_lubricants(
     state: web::Data<AppState>,
@@ -183,7 +183,7 @@ async fn list_lubricants(
 }
 
 /// One lubricant, with its ETag.
-#[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Lubricant id"), RevisionQuery), responses((status = 200, description = "The lubricant", body = LubricantView), (status = 404, description = "Unknown lubricant (with suggestions)", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Lubricant id"), RevisionQuery), responses((status = 200, description = "The lubricant", body = LubricantView), (status = 404, description = "Unknown lubricant (with suggestions)")))]
 #[get("/v1/lubricants/{id}")]
 async fn get_lubricant(
     state: web::Data<AppState>,
@@ -195,7 +195,7 @@ async fn get_lubricant(
 }
 
 /// Adds a lubricant (editor).
-#[utoipa::path(tag = "catalogue", request_body = LubricantWrite, security(("bearer" = [])), responses((status = 201, description = "Created", body = LubricantView), (status = 422, description = "Every problem listed", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", request_body = LubricantWrite, security(("bearer" = [])), responses((status = 201, description = "Created", body = LubricantView), (status = 422, description = "Every problem listed")))]
 #[post("/v1/lubricants")]
 async fn create_lubricant(
     state: web::Data<AppState>,
@@ -207,7 +207,7 @@ async fn create_lubricant(
 }
 
 /// Replaces a lubricant (editor, If-Match).
-#[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Lubricant id"), ("If-Match" = String, Header, description = "ETag from GET")), request_body = LubricantWrite, security(("bearer" = [])), responses((status = 200, description = "Changed", body = LubricantView), (status = 412, description = "Stale ETag", body = Problem, content_type = "application/problem+json"), (status = 422, description = "Every problem listed", body = Problem, content_type = "application/problem+json"), (status = 428, description = "If-Match missing", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Lubricant id"), ("If-Match" = String, Header, description = "ETag from GET")), request_body = LubricantWrite, security(("bearer" = [])), responses((status = 200, description = "Changed", body = LubricantView), (status = 412, description = "Stale ETag"), (status = 422, description = "Every problem listed"), (status = 428, description = "If-Match missing")))]
 #[put("/v1/lubricants/{id}")]
 async fn update_lubricant(
     state: web::Data<AppState>,
@@ -221,7 +221,7 @@ async fn update_lubricant(
 }
 
 /// Every change to one lubricant, oldest first.
-#[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Lubricant id")), responses((status = 200, description = "History", body = HistoryView), (status = 404, description = "No such lubricant", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", params(("id" = String, Path, description = "Lubricant id")), responses((status = 200, description = "History", body = HistoryView), (status = 404, description = "No such lubricant")))]
 #[get("/v1/lubricants/{id}/history")]
 async fn lubricant_history(
     state: web::Data<AppState>,

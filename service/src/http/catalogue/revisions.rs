@@ -13,7 +13,7 @@ use super::wire::{
 use crate::app::catalogue::Export;
 use crate::catalogue::exchange;
 use crate::http::auth::Reader;
-use crate::http::error::{ApiError, Problem};
+use crate::http::error::ApiError;
 use crate::http::state::AppState;
 
 pub fn configure(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
@@ -24,7 +24,7 @@ pub fn configure(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
 }
 
 /// Catalogue revisions, newest first: who, when, why, how many changes.
-#[utoipa::path(tag = "catalogue", params(RevisionsQuery), responses((status = 200, description = "Revisions", body = RevisionList), (status = 503, description = "Database unavailable", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", params(RevisionsQuery), responses((status = 200, description = "Revisions", body = RevisionList), (status = 503, description = "Database unavailable")))]
 #[get("/v1/catalogue/revisions")]
 async fn list_revisions(
     state: web::Data<AppState>,
@@ -40,7 +40,7 @@ async fn list_revisions(
 }
 
 /// One revision: who, when, why, and every change with before and after.
-#[utoipa::path(tag = "catalogue", params(("n" = i64, Path, description = "Revision number")), responses((status = 200, description = "The revision", body = RevisionDetail), (status = 404, description = "No such revision", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", params(("n" = i64, Path, description = "Revision number")), responses((status = 200, description = "The revision", body = RevisionDetail), (status = 404, description = "No such revision")))]
 #[get("/v1/catalogue/revisions/{n}")]
 async fn get_revision(
     state: web::Data<AppState>,
@@ -55,7 +55,7 @@ async fn get_revision(
 }
 
 /// What differs between revisions `from` and `to`, item by item.
-#[utoipa::path(tag = "catalogue", params(DiffQuery), responses((status = 200, description = "The difference", body = DiffView), (status = 404, description = "No such revision", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", params(DiffQuery), responses((status = 200, description = "The difference", body = DiffView), (status = 404, description = "No such revision")))]
 #[get("/v1/catalogue/diff")]
 async fn diff_revisions(
     state: web::Data<AppState>,
@@ -72,7 +72,7 @@ async fn diff_revisions(
 
 /// The catalogue as JSON (everything) or CSV (friction entries), current
 /// or at `catalogue_revision`; `tightspec catalogue import` reads both.
-#[utoipa::path(tag = "catalogue", params(ExportQuery), responses((status = 200, description = "The catalogue", content((Object = "application/json"), (String = "text/csv"))), (status = 404, description = "No such revision", body = Problem, content_type = "application/problem+json")))]
+#[utoipa::path(tag = "catalogue", params(ExportQuery), responses((status = 200, description = "The catalogue", content((Object = "application/json"), (String = "text/csv"))), (status = 404, description = "No such revision")))]
 #[get("/v1/catalogue/export")]
 async fn export_catalogue(
     state: web::Data<AppState>,

@@ -96,9 +96,9 @@ pub struct BatchResponse {
     request_body = BatchRequest,
     responses(
         (status = 200, description = "One result per item, in order (streamed; the counts follow the items)", body = BatchResponse),
-        (status = 400, description = "The body is not a batch", body = Problem, content_type = "application/problem+json"),
-        (status = 413, description = "Body over the limit", body = Problem, content_type = "application/problem+json"),
-        (status = 422, description = "More than 10,000 items", body = Problem, content_type = "application/problem+json"),
+        (status = 400, description = "The body is not a batch"),
+        (status = 413, description = "Body over the limit"),
+        (status = 422, description = "More than 10,000 items"),
     )
 )]
 #[post("/v1/tightening-specs/batch")]

@@ -16,7 +16,7 @@ use crate::app::spec::{compute_one, SetpointQuery, SpecQuery, SpecRequest};
 use crate::app::AppError;
 use crate::catalogue::Snapshot;
 use crate::http::auth::Reader;
-use crate::http::error::{ApiError, Problem};
+use crate::http::error::ApiError;
 use crate::http::extract::parse_query;
 use crate::http::metrics::CachedRoute;
 use crate::http::state::AppState;
@@ -177,9 +177,9 @@ async fn spec_answer(
     responses(
         (status = 200, description = "The spec; ETag and Cache-Control set", body = SpecResponse),
         (status = 304, description = "Not modified (If-None-Match matched)"),
-        (status = 400, description = "Malformed input or unknown parameter", body = Problem, content_type = "application/problem+json"),
-        (status = 404, description = "Unknown thread, grade, finish, lubricant, method or revision, with suggestions", body = Problem, content_type = "application/problem+json"),
-        (status = 422, description = "Invalid engineering input; every problem listed", body = Problem, content_type = "application/problem+json"),
+        (status = 400, description = "Malformed input or unknown parameter"),
+        (status = 404, description = "Unknown thread, grade, finish, lubricant, method or revision, with suggestions"),
+        (status = 422, description = "Invalid engineering input; every problem listed"),
     )
 )]
 #[get("/v1/tightening-specs")]
@@ -203,11 +203,11 @@ pub async fn get_spec(
     request_body = SpecRequest,
     responses(
         (status = 200, description = "The spec", body = SpecResponse),
-        (status = 400, description = "Malformed body or unknown field", body = Problem, content_type = "application/problem+json"),
-        (status = 404, description = "Unknown name, with suggestions", body = Problem, content_type = "application/problem+json"),
-        (status = 413, description = "Body over the limit", body = Problem, content_type = "application/problem+json"),
-        (status = 415, description = "Body is not JSON", body = Problem, content_type = "application/problem+json"),
-        (status = 422, description = "Invalid engineering input; every problem listed", body = Problem, content_type = "application/problem+json"),
+        (status = 400, description = "Malformed body or unknown field"),
+        (status = 404, description = "Unknown name, with suggestions"),
+        (status = 413, description = "Body over the limit"),
+        (status = 415, description = "Body is not JSON"),
+        (status = 422, description = "Invalid engineering input; every problem listed"),
     )
 )]
 #[post("/v1/tightening-specs")]
@@ -236,9 +236,9 @@ pub async fn post_spec(
     responses(
         (status = 200, description = "The setpoints; ETag and Cache-Control set", body = SetpointResponse),
         (status = 304, description = "Not modified (If-None-Match matched)"),
-        (status = 400, description = "Malformed input or unknown parameter", body = Problem, content_type = "application/problem+json"),
-        (status = 404, description = "Unknown name, with suggestions", body = Problem, content_type = "application/problem+json"),
-        (status = 422, description = "Invalid input, no step of the resolution inside the window, or an error check applies that `accept_checks` does not name (the problem lists the checks)", body = Problem, content_type = "application/problem+json"),
+        (status = 400, description = "Malformed input or unknown parameter"),
+        (status = 404, description = "Unknown name, with suggestions"),
+        (status = 422, description = "Invalid input, no step of the resolution inside the window, or an error check applies that `accept_checks` does not name (the problem lists the checks)"),
     )
 )]
 #[get("/v1/setpoints")]
