@@ -4,7 +4,7 @@
 use std::io::Write;
 use std::path::PathBuf;
 
-use crate::app::catalogue::{Export, Imported};
+use crate::app::catalogue::{CatalogueExport, Imported};
 use crate::app::{App, AppError, FieldProblem};
 use crate::catalogue::exchange;
 
@@ -75,8 +75,8 @@ pub async fn run_on(app: &App, cmd: &CatalogueCommand, out: &mut dyn Write) -> C
                 .export(*revision, (format == "csv").then_some(false))
                 .await?
             {
-                Export::Csv { text, .. } => write!(out, "{text}")?,
-                Export::Json(snapshot) => writeln!(
+                CatalogueExport::Csv { text, .. } => write!(out, "{text}")?,
+                CatalogueExport::Json(snapshot) => writeln!(
                     out,
                     "{}",
                     serde_json::to_string_pretty(&exchange::export(&snapshot))?

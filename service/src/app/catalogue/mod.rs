@@ -9,7 +9,7 @@ mod revisions;
 
 pub use crate::store::{HistoryItem, RevisionInfo};
 pub use entries::EntryFilter;
-pub use revisions::{Export, History, Imported, RevisionPage};
+pub use revisions::{CatalogueExport, History, Imported, RevisionPage};
 
 use crate::catalogue::{Applied, Change, ChangeSet};
 

@@ -22,14 +22,14 @@ pub type History = AtRevision<Vec<HistoryItem>>;
 
 /// A catalogue export.
 #[derive(Debug, Clone)]
-pub enum Export {
+pub enum CatalogueExport {
     /// Everything, rendered by the caller with `catalogue::exchange::export`.
     Json(Arc<Snapshot>),
     /// Friction entries as CSV, with the evidence of each entry's revision.
     Csv { revision: i64, text: String },
 }
 
-impl Export {
+impl CatalogueExport {
     /// The revision exported.
     pub fn revision(&self) -> i64 {
         match self {
@@ -137,10 +137,10 @@ impl App {
         &self,
         revision: Option<i64>,
         csv_bom: Option<bool>,
-    ) -> Result<Export, AppError> {
+    ) -> Result<CatalogueExport, AppError> {
         let snap = self.snapshot(revision).await?;
         let Some(bom) = csv_bom else {
-            return Ok(Export::Json(snap));
+            return Ok(CatalogueExport::Json(snap));
         };
         let evidence = self.store().entry_evidence(&snap).await?;
         let options = exchange::CsvOptions {
@@ -148,7 +148,7 @@ impl App {
             evidence: Some(&evidence),
         };
         let text = exchange::to_csv_with(&snap, &options).map_err(AppError::Internal)?;
-        Ok(Export::Csv {
+        Ok(CatalogueExport::Csv {
             revision: snap.revision,
             text,
         })

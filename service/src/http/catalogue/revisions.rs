@@ -10,7 +10,7 @@ use super::wire::{
     DiffQuery, DiffView, ExportFormat, ExportQuery, NoQuery, RevisionDetail, RevisionList,
     RevisionsQuery,
 };
-use crate::app::catalogue::Export;
+use crate::app::catalogue::CatalogueExport;
 use crate::catalogue::exchange;
 use crate::http::auth::Reader;
 use crate::http::error::ApiError;
@@ -86,13 +86,13 @@ async fn export_catalogue(
     let export = state.app.export(q.catalogue_revision, csv_bom).await?;
     let name = format!("tightspec-catalogue-r{}", export.revision());
     Ok(match export {
-        Export::Json(snap) => HttpResponse::Ok()
+        CatalogueExport::Json(snap) => HttpResponse::Ok()
             .insert_header((
                 header::CONTENT_DISPOSITION,
                 format!("attachment; filename=\"{name}.json\""),
             ))
             .json(exchange::export(&snap)),
-        Export::Csv { text, .. } => HttpResponse::Ok()
+        CatalogueExport::Csv { text, .. } => HttpResponse::Ok()
             .content_type("text/csv; charset=utf-8")
             .insert_header((
                 header::CONTENT_DISPOSITION,
