@@ -72,6 +72,19 @@ pub struct ControlledPreload {
     pub yield_max_defaulted: bool,
 }
 
+impl ControlledPreload {
+    /// From the preload range in N and R_p0.2max in Pa.
+    fn new(f_min: f64, f_max: f64, rp_max: f64, yield_max_defaulted: bool) -> Self {
+        Self {
+            preload_min: Force::new::<newton>(f_min),
+            preload_max: Force::new::<newton>(f_max),
+            tightening_factor: f_max / f_min,
+            yield_max: Pressure::new::<pascal>(rp_max),
+            yield_max_defaulted,
+        }
+    }
+}
+
 /// Yield-controlled tightening: preload range and the torque band at yield.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct YieldControlled {
@@ -155,13 +168,7 @@ pub fn yield_controlled(a: &Assembly) -> Result<YieldControlled, EngineError> {
         }
     }
     Ok(YieldControlled {
-        preload: ControlledPreload {
-            preload_min: Force::new::<newton>(f_min),
-            preload_max: Force::new::<newton>(f_max),
-            tightening_factor: f_max / f_min,
-            yield_max: Pressure::new::<pascal>(rp_max),
-            yield_max_defaulted: defaulted,
-        },
+        preload: ControlledPreload::new(f_min, f_max, rp_max, defaulted),
         monitoring_torque_min: Torque::new::<newton_meter>(lo),
         monitoring_torque_max: Torque::new::<newton_meter>(hi),
     })
@@ -224,13 +231,7 @@ pub fn angle_controlled(
     let f_min = snug_lo + lo * per_degree;
     let f_max = snug_hi + hi * per_degree;
     Ok(AngleControlled {
-        preload: ControlledPreload {
-            preload_min: Force::new::<newton>(f_min),
-            preload_max: Force::new::<newton>(f_max),
-            tightening_factor: f_max / f_min,
-            yield_max: Pressure::new::<pascal>(rp_max),
-            yield_max_defaulted: defaulted,
-        },
+        preload: ControlledPreload::new(f_min, f_max, rp_max, defaulted),
         angle_min: Angle::new::<degree>(lo),
         angle_max: Angle::new::<degree>(hi),
         angle_at_yield: Angle::new::<degree>(at_yield),
