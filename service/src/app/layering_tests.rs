@@ -1,8 +1,9 @@
 //! Edges the application layer removed stay removed, read from the source:
 //! nothing in `app` uses `http` or `cli`; `cli/spec.rs` uses neither `http`
-//! nor the engine; `http/specs/` does not call the engine (the use cases
-//! do); `http` uses no `config` and never opens the store; the catalogue and
-//! token subcommands use neither `http` nor the store.
+//! nor the engine; `cli/friction*` uses neither `http`, the engine nor the
+//! store; `http/specs/` and `http/friction_tests/` do not call the engine
+//! (the use cases do); `http` uses no `config` and never opens the store;
+//! the catalogue and token subcommands use neither `http` nor the store.
 
 use std::path::{Path, PathBuf};
 
@@ -94,4 +95,15 @@ fn the_search_finds_what_it_looks_for() {
     // line known to be there.
     let found = offenders(&["app"], &["pub struct App {"]);
     assert!(found.iter().any(|f| f.contains("context.rs")), "{found:?}");
+}
+
+#[test]
+fn the_friction_adapters_leave_the_engine_to_the_use_cases() {
+    let cli = offenders(
+        &["cli/friction.rs", "cli/friction"],
+        &["crate::http", "crate::engine", "crate::store"],
+    );
+    assert!(cli.is_empty(), "{cli:#?}");
+    let http = offenders(&["http/friction_tests"], &["crate::engine", "crate::store"]);
+    assert!(http.is_empty(), "{http:#?}");
 }

@@ -14,8 +14,9 @@
 //! - `quantity` — wire quantities `{"value", "unit"}` and units, read into
 //!   engine quantities (a misread is a [`FieldProblem`]).
 //! - `reading` — nearest-name suggestions and JSON Schema integers.
-//! - `friction_tests` — friction test series: store, read, apply the
-//!   entry change a series supports.
+//! - `friction_tests` — friction test series: their wire types, parsing
+//!   and evaluation (ISO 16047 method), store and read a series, propose
+//!   and apply the entry change a series supports.
 //! - `tokens` — API tokens: create, list, revoke, find by secret.
 //!
 //! `layering_tests` checks from the source that the removed edges stay
