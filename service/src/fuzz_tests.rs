@@ -204,7 +204,7 @@ proptest! {
                 let d = thread.nominal_diameter_mm();
                 prop_assert!(d.is_finite() && d > 0.0, "{text:?}: {d}");
             }
-            Err(e) => prop_assert!(names_fields(&ApiError::from(e)), "{text:?}"),
+            Err(e) => prop_assert!(names_fields(&ApiError::from(crate::app::AppError::from(e))), "{text:?}"),
         }
     }
 

@@ -21,4 +21,6 @@ pub mod startup;
 
 #[cfg(test)]
 mod fuzz_tests;
+#[cfg(test)]
+mod layering_tests;
 pub mod store;

@@ -15,12 +15,10 @@
 //!   engine quantities (a misread is a [`FieldProblem`]).
 //! - `reading` — nearest-name suggestions and JSON Schema integers.
 //! - `reference` — the engine's reference tables and lists as served.
-//! - `friction_tests` — friction test series: store, read, apply the
-//!   entry change a series supports.
+//! - `friction_tests` — friction test series: their wire types, parsing
+//!   and evaluation (ISO 16047 method), store and read a series, propose
+//!   and apply the entry change a series supports.
 //! - `tokens` — API tokens: create, list, revoke, find by secret.
-//!
-//! `layering_tests` checks from the source that the removed edges stay
-//! removed.
 
 pub mod catalogue;
 pub mod context;
@@ -31,9 +29,6 @@ pub mod reading;
 pub mod reference;
 pub mod spec;
 pub mod tokens;
-
-#[cfg(test)]
-mod layering_tests;
 
 pub use context::App;
 pub use error::{AppError, FieldProblem, ProblemClass};

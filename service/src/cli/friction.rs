@@ -1,7 +1,7 @@
 //! `tightspec friction evaluate FILE.csv`: evaluate a torque–tension test
 //! series from a CSV file and print the table (or `--json`, the answer of
-//! `POST /v1/friction-tests/evaluate`). It goes through the same parse step
-//! and engine as the HTTP endpoint.
+//! `POST /v1/friction-tests/evaluate`). It calls the same use case
+//! (`app::friction_tests::evaluate`) as the HTTP endpoint.
 //!
 //! CSV layout: one header row, then one row per specimen, in test order.
 //! Columns (the unit in square brackets is required in the header):
@@ -18,11 +18,12 @@
 
 use std::path::PathBuf;
 
-use crate::http::friction_tests;
-use crate::http::friction_tests::units::{parse_units, Quantity};
-use crate::http::friction_tests::wire::{
+use crate::app::friction_tests;
+use crate::app::friction_tests::wire::{
     BearingRequest, EvaluationResponse, SeriesRequest, SpecimenRequest,
 };
+use crate::app::quantity::{Quantity, Units};
+use crate::app::AppError;
 
 /// `tightspec friction ...`
 #[derive(Debug, Clone, clap::Subcommand)]
@@ -73,8 +74,8 @@ pub struct EvaluateArgs {
     #[arg(long)]
     pub thrust_bearing: bool,
     /// Units of the answer: si or us.
-    #[arg(long, default_value = "si")]
-    pub units: String,
+    #[arg(long, value_enum, ignore_case = true, default_value = "si")]
+    pub units: Units,
     /// Print the API's JSON instead of the table.
     #[arg(long)]
     pub json: bool,
@@ -88,7 +89,6 @@ pub fn run(cmd: &FrictionCommand) -> Result<String, String> {
 }
 
 fn evaluate(args: &EvaluateArgs) -> Result<String, String> {
-    let units = parse_units(Some(&args.units)).map_err(|e| e.to_string())?;
     let text =
         std::fs::read_to_string(&args.file).map_err(|e| format!("{}: {e}", args.file.display()))?;
     let specimens = read_csv(&text)?;
@@ -117,7 +117,7 @@ fn evaluate(args: &EvaluateArgs) -> Result<String, String> {
         specimens,
         notes: None,
     };
-    let answer = friction_tests::evaluate(&req, units).map_err(|e| list(&e.0))?;
+    let answer = friction_tests::evaluate(&req, args.units).map_err(|e| list(&e))?;
     if args.json {
         serde_json::to_string_pretty(&answer).map_err(|e| e.to_string())
     } else {
@@ -125,8 +125,14 @@ fn evaluate(args: &EvaluateArgs) -> Result<String, String> {
     }
 }
 
-fn list(errors: &[crate::engine::EngineError]) -> String {
-    let lines: Vec<String> = errors.iter().map(|e| format!("  {e}")).collect();
+fn list(e: &AppError) -> String {
+    let lines: Vec<String> = match e.problems() {
+        [] => vec![format!("  {e}")],
+        problems => problems
+            .iter()
+            .map(|p| format!("  {}: {}", p.field, p.reason))
+            .collect(),
+    };
     format!("the series was refused:\n{}", lines.join("\n"))
 }
 

@@ -17,7 +17,6 @@ use actix_web::http::StatusCode;
 use actix_web::{HttpResponse, ResponseError};
 
 use crate::app::spec::view::CheckOut;
-use crate::engine::EngineError;
 
 pub use super::problem::{FieldError, Problem};
 
@@ -344,27 +343,6 @@ impl ResponseError for ApiError {
             Ok(body) => builder.body(body),
             // Serialising a struct of strings cannot fail; answer plainly if it ever does.
             Err(_) => builder.body(r#"{"type":"/problems/internal-error","title":"Internal error","status":500,"detail":"","errors":[]}"#),
-        }
-    }
-}
-
-impl From<EngineError> for ApiError {
-    fn from(e: EngineError) -> Self {
-        match e {
-            EngineError::Malformed { field, reason } => Self::malformed(field, reason),
-            EngineError::Unknown {
-                field,
-                kind,
-                given,
-                suggestions,
-            } => Self::unknown(field, kind, &given, suggestions),
-            EngineError::Invalid {
-                field,
-                reason,
-                suggestions,
-            } => Self::unprocessable(vec![
-                FieldError::new(field, reason).with_suggestions(suggestions)
-            ]),
         }
     }
 }

@@ -1,6 +1,5 @@
 //! The HTTP layer (actix-web): thin handlers over the application layer
-//! (`app`; the spec and friction-test routes still parse and evaluate with
-//! the engine themselves).
+//! (`app`).
 //!
 //! Infrastructure: `error` and `problem` (RFC 9457 problem responses),
 //! `problem_responses` (the shared problem responses of the OpenAPI

@@ -13,7 +13,7 @@ fn args(file: PathBuf) -> EvaluateArgs {
         bearing_outer: Some("16 mm".into()),
         bearing_inner: Some("10.5 mm".into()),
         thrust_bearing: false,
-        units: "si".into(),
+        units: Units::Si,
         json: false,
     }
 }
@@ -38,7 +38,7 @@ fn evaluates_a_csv_file_and_prints_the_table() {
     assert_eq!(numbers, ["1", "2"], "{out}");
     let mut json_args = args(path.clone());
     json_args.json = true;
-    json_args.units = "us".into();
+    json_args.units = Units::Us;
     let json = run(&FrictionCommand::Evaluate(json_args)).unwrap();
     let v: serde_json::Value = serde_json::from_str(&json).unwrap();
     assert_eq!(v["specimens"][0]["clamp_force"]["unit"], "lbf");

@@ -8,16 +8,19 @@
 use serde::{Deserialize, Serialize};
 use utoipa::ToSchema;
 
-use super::units::{self, Quantity, Units};
+use super::units;
+use crate::app::quantity::{Quantity, Units};
+use crate::app::{AppError, FieldProblem};
 use crate::catalogue::{EntryInput, FrictionEntry, RangeInput, Snapshot};
 use crate::engine::bearing::{bearing_surface, HeadType, HoleSeries, Washer};
-use crate::engine::calibration::proposal::{propose, Basis, ProposedRange};
+use crate::engine::calibration::proposal::{propose, ProposedRange};
 use crate::engine::calibration::SeriesStatistics;
 use crate::engine::method::TighteningMethod;
 use crate::engine::quantity::FrictionRange;
 use crate::engine::spec::{self, SpecFlags, SpecInput, WindowMode};
 use crate::engine::{grade, thread, EngineError};
-use crate::http::error::ApiError;
+
+pub use crate::engine::calibration::proposal::Basis;
 
 /// Representative joints whose specs the proposal is shown on.
 pub const REPRESENTATIVE_THREADS: [&str; 3] = ["M8", "M10", "M12"];
@@ -163,6 +166,18 @@ fn change(
     )
 }
 
+/// The basis a proposal or an apply names (field `basis`): missing is
+/// invalid, an unknown name is unknown with the two known ones suggested.
+pub fn basis(b: Option<&str>) -> Result<Basis, FieldProblem> {
+    match b {
+        None => Err(FieldProblem::invalid(
+            "basis",
+            "missing: choose observed (min to max of the series) or three_sigma (mean ± 3σ)",
+        )),
+        Some(b) => Ok(Basis::parse(b)?),
+    }
+}
+
 /// Builds the proposal for `series_id` against the current snapshot.
 #[allow(clippy::too_many_arguments)]
 pub fn build(
@@ -174,11 +189,8 @@ pub fn build(
     count: usize,
     basis: Basis,
     u: Units,
-) -> Result<Proposed, ApiError> {
-    let entry = snap
-        .friction_for(finish, lubricant)
-        .map_err(crate::app::AppError::from)?
-        .clone();
+) -> Result<Proposed, AppError> {
+    let entry = snap.friction_for(finish, lubricant)?.clone();
     Ok(build_for(snap, &entry, series_id, stats, count, basis, u)?)
 }
 
@@ -316,8 +328,8 @@ fn figures(
         torque_lower: units::torque(w.lower, u),
         torque_target: units::torque(w.target, u),
         torque_upper: units::torque(w.upper, u),
-        preload_min: units::force(w.preload_min, u),
-        preload_max: units::force(w.preload_max, u),
+        preload_min: Quantity::force(w.preload_min, u),
+        preload_max: Quantity::force(w.preload_max, u),
     })
 }
 

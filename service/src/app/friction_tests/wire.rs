@@ -1,4 +1,6 @@
-//! Wire types of the friction-test endpoints. The names `thread`,
+//! Wire types of the friction-test use cases: the series as posted (the
+//! HTTP body, built from a CSV file by the CLI) and its evaluation as
+//! answered (the HTTP answer, printed by the CLI). The names `thread`,
 //! `property_class`, `finish`, `lubricant`, `head`, `hole`, `bearing`
 //! (`outer_diameter`, `inner_diameter`), `thrust_bearing` and `specimens`
 //! (`clamp_force`, `total_torque`, `thread_torque`) are fixed: test rigs and
@@ -7,7 +9,7 @@
 use serde::{Deserialize, Serialize};
 use utoipa::ToSchema;
 
-use super::units::Quantity;
+use crate::app::quantity::Quantity;
 
 /// A torque–tension test series as posted.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]

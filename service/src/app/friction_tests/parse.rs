@@ -4,11 +4,13 @@
 
 use uom::si::f64::{Angle, Force, Length, Torque};
 
-use super::units::{self, Quantity};
+use super::units;
 use super::wire::{CurvePointRequest, SeriesRequest, SpecimenRequest};
+use crate::app::quantity::Quantity;
+use crate::app::{AppError, FieldProblem};
 use crate::engine::bearing::{self, BearingSurface};
 use crate::engine::calibration::{
-    CalibrationErrors, CurvePoint, JointGeometry, Measurement, SeriesInput, SpecimenRecord,
+    CurvePoint, JointGeometry, Measurement, SeriesInput, SpecimenRecord,
 };
 use crate::engine::grade::{self, Strength};
 use crate::engine::thread::{self, ThreadGeometry};
@@ -25,13 +27,13 @@ pub struct ParsedSeries {
     pub original_index: Vec<usize>,
     /// Problems reading individual specimens (units, missing values); the
     /// specimens concerned are left out of `input`.
-    pub problems: Vec<EngineError>,
+    pub problems: Vec<FieldProblem>,
 }
 
 /// Parse a posted series. Name problems (thread, grade, head) come first
 /// and alone; a specimen that cannot be read is left out and its problems
 /// kept in `problems`, so the rest can still be checked by the engine.
-pub fn parse(req: &SeriesRequest) -> Result<ParsedSeries, CalibrationErrors> {
+pub fn parse(req: &SeriesRequest) -> Result<ParsedSeries, AppError> {
     let thread = thread::parse_designation(&req.thread)?;
     let strength = req
         .property_class
@@ -78,26 +80,29 @@ pub fn parse(req: &SeriesRequest) -> Result<ParsedSeries, CalibrationErrors> {
 fn parse_bearing(
     req: &SeriesRequest,
     thread: &ThreadGeometry,
-) -> Result<Option<BearingSurface>, EngineError> {
+) -> Result<Option<BearingSurface>, FieldProblem> {
     let named = req.head.is_some() || req.hole.is_some() || req.washer.is_some();
     match (&req.bearing, named) {
-        (Some(_), true) => Err(EngineError::invalid(
+        (Some(_), true) => Err(FieldProblem::invalid(
             "bearing",
             "give either `bearing` diameters or `head`/`washer`/`hole`, not both",
         )),
         (Some(b), false) => {
             let outer = length(&b.outer_diameter, "bearing.outer_diameter")?;
             let inner = length(&b.inner_diameter, "bearing.inner_diameter")?;
-            bearing::explicit_bearing(outer, inner).map(Some)
+            Ok(Some(bearing::explicit_bearing(outer, inner)?))
         }
         (None, true) => {
-            let head = req.head.as_deref().unwrap_or("hexagon-head").parse()?;
-            let washer = req.washer.as_deref().unwrap_or("none").parse()?;
-            let hole = req.hole.as_deref().unwrap_or("medium").parse()?;
-            bearing::bearing_surface(thread, head, washer, hole).map(Some)
+            let named = || -> Result<BearingSurface, EngineError> {
+                let head = req.head.as_deref().unwrap_or("hexagon-head").parse()?;
+                let washer = req.washer.as_deref().unwrap_or("none").parse()?;
+                let hole = req.hole.as_deref().unwrap_or("medium").parse()?;
+                bearing::bearing_surface(thread, head, washer, hole)
+            };
+            Ok(Some(named()?))
         }
         (None, false) if req.thrust_bearing => Ok(None),
-        (None, false) => Err(EngineError::invalid(
+        (None, false) => Err(FieldProblem::invalid(
             "bearing",
             "the bearing under the turned part is needed: `head` and `hole`, or `bearing` with \
              `outer_diameter` and `inner_diameter` (or `thrust_bearing: true`)",
@@ -105,21 +110,21 @@ fn parse_bearing(
     }
 }
 
-fn collect<T>(r: Result<T, EngineError>, errors: &mut Vec<EngineError>) -> Option<T> {
+fn collect<T>(r: Result<T, FieldProblem>, errors: &mut Vec<FieldProblem>) -> Option<T> {
     r.map_err(|e| errors.push(e)).ok()
 }
 
 fn specimen(
     s: &SpecimenRequest,
     i: usize,
-    errors: &mut Vec<EngineError>,
+    errors: &mut Vec<FieldProblem>,
 ) -> Option<SpecimenRecord> {
     let at = |name: &str| format!("specimens[{i}].{name}");
     let has_point =
         s.clamp_force.is_some() || s.total_torque.is_some() || s.thread_torque.is_some();
     match (&s.curve, has_point) {
         (Some(_), true) => {
-            errors.push(EngineError::invalid(
+            errors.push(FieldProblem::invalid(
                 format!("specimens[{i}]"),
                 "give either the values at the evaluation point or a `curve`, not both",
             ));
@@ -155,10 +160,10 @@ fn specimen(
 fn required<'a>(
     q: Option<&'a Quantity>,
     field: &str,
-    errors: &mut Vec<EngineError>,
+    errors: &mut Vec<FieldProblem>,
 ) -> Option<&'a Quantity> {
     if q.is_none() {
-        errors.push(EngineError::invalid(field, "missing"));
+        errors.push(FieldProblem::invalid(field, "missing"));
     }
     q
 }
@@ -166,7 +171,7 @@ fn required<'a>(
 fn curve_point(
     p: &CurvePointRequest,
     at: &str,
-    errors: &mut Vec<EngineError>,
+    errors: &mut Vec<FieldProblem>,
 ) -> Option<CurvePoint> {
     let f = collect(force(&p.clamp_force, &format!("{at}.clamp_force")), errors);
     let t = collect(
@@ -189,18 +194,18 @@ fn curve_point(
     })
 }
 
-fn force(q: &Quantity, field: &str) -> Result<Force, EngineError> {
+fn force(q: &Quantity, field: &str) -> Result<Force, FieldProblem> {
     units::to_force(q, field)
 }
 
-fn torque(q: &Quantity, field: &str) -> Result<Torque, EngineError> {
+fn torque(q: &Quantity, field: &str) -> Result<Torque, FieldProblem> {
     units::to_torque(q, field)
 }
 
-fn length(q: &Quantity, field: &str) -> Result<Length, EngineError> {
+fn length(q: &Quantity, field: &str) -> Result<Length, FieldProblem> {
     units::to_length(q, field)
 }
 
-fn angle(q: &Quantity, field: &str) -> Result<Angle, EngineError> {
+fn angle(q: &Quantity, field: &str) -> Result<Angle, FieldProblem> {
     units::to_angle(q, field)
 }

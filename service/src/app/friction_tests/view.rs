@@ -1,11 +1,13 @@
-//! From the engine's evaluation to the wire answer, in SI or US units.
+//! From the engine's evaluation to the wire answer, in SI or US units
+//! (torque in lbf·in for US units, see `units`).
 
 use super::parse::ParsedSeries;
-use super::units::{self, Units};
+use super::units;
 use super::wire::{
     CoefficientStatisticsResponse, EvaluationResponse, GeometryResponse, MethodResponse,
     SeriesRequest, SpecimenResponse, StatisticsResponse, WarningResponse,
 };
+use crate::app::quantity::{Quantity, Units};
 use crate::engine::calibration::{
     CoefficientStatistics, SeriesEvaluation, SpecimenForm, SpecimenResult,
     EVALUATION_FRACTION_OF_PROOF_LOAD, MINIMUM_SERIES_SIZE, OUTLIER_RULE, STD_DEV_RULE,
@@ -34,16 +36,16 @@ pub fn evaluation(
         lubricant: req.lubricant.clone(),
         thrust_bearing: joint.thrust_bearing,
         geometry: GeometryResponse {
-            nominal_diameter: units::length(joint.nominal_diameter, u),
-            pitch: units::length(joint.pitch, u),
-            pitch_diameter: units::length(joint.pitch_diameter, u),
-            flank_angle: units::angle(joint.flank_angle),
+            nominal_diameter: Quantity::length(joint.nominal_diameter, u),
+            pitch: Quantity::length(joint.pitch, u),
+            pitch_diameter: Quantity::length(joint.pitch_diameter, u),
+            flank_angle: Quantity::angle(joint.flank_angle),
             flank_factor: joint.flank_factor(),
-            bearing_mean_diameter: joint.bearing_mean_diameter.map(|d| units::length(d, u)),
+            bearing_mean_diameter: joint.bearing_mean_diameter.map(|d| Quantity::length(d, u)),
             bearing_source: parsed.bearing.as_ref().map(|b| b.source.clone()),
-            proof_load: parsed.input.proof_load.map(|f| units::force(f, u)),
+            proof_load: parsed.input.proof_load.map(|f| Quantity::force(f, u)),
         },
-        evaluation_clamp_force: eval.evaluation_clamp_force.map(|f| units::force(f, u)),
+        evaluation_clamp_force: eval.evaluation_clamp_force.map(|f| Quantity::force(f, u)),
         specimens: eval.specimens.iter().map(|s| specimen(s, u)).collect(),
         statistics: StatisticsResponse {
             thread_friction: eval.statistics.thread_friction.as_ref().map(statistics),
@@ -92,10 +94,10 @@ fn specimen(s: &SpecimenResult, u: Units) -> SpecimenResponse {
     SpecimenResponse {
         form: form_name(s.form).into(),
         from_curve: s.from_curve,
-        clamp_force: units::force(s.clamp_force, u),
+        clamp_force: Quantity::force(s.clamp_force, u),
         total_torque: units::torque(s.total_torque, u),
         thread_torque: s.thread_torque.map(|t| units::torque(t, u)),
-        angle: s.angle.map(units::angle),
+        angle: s.angle.map(Quantity::angle),
         thread_friction: s.thread_friction,
         bearing_friction: s.bearing_friction,
         total_friction: s.total_friction,

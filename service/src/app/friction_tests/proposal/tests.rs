@@ -114,3 +114,16 @@ fn no_matching_entry_is_a_catalogue_error() {
     );
     assert!(err.is_err());
 }
+
+#[test]
+fn a_basis_is_named_or_refused_naming_the_field() {
+    assert_eq!(basis(Some("three_sigma")).unwrap(), Basis::ThreeSigma);
+    let missing = basis(None).unwrap_err();
+    assert_eq!(
+        (missing.field.as_str(), missing.class),
+        ("basis", crate::app::ProblemClass::Invalid)
+    );
+    let unknown = basis(Some("observd")).unwrap_err();
+    assert_eq!(unknown.class, crate::app::ProblemClass::Unknown);
+    assert_eq!(unknown.suggestions, ["observed", "three_sigma"]);
+}
