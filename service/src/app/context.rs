@@ -59,7 +59,7 @@ impl App {
     }
 
     /// The live catalogue.
-    pub fn live(&self) -> &Arc<Live> {
+    pub(in crate::app) fn live(&self) -> &Arc<Live> {
         &self.live
     }
 

@@ -106,17 +106,25 @@ pub enum AppError {
 }
 
 fn summary(problems: &[FieldProblem]) -> String {
+    let pairs: Vec<(&str, &str)> = problems
+        .iter()
+        .map(|p| (p.field.as_str(), p.reason.as_str()))
+        .collect();
+    problems_summary(&pairs)
+}
+
+/// The one-sentence `detail` of a list of `(field, reason)` problems, the
+/// same wherever a refusal lists fields: one problem is `field: reason`,
+/// several are `N problems in the request: field, field`.
+pub fn problems_summary(problems: &[(&str, &str)]) -> String {
     match problems {
         // A reason that already leads with its field is not prefixed again.
-        [one] if one.reason.starts_with(&format!("{}: ", one.field)) => one.reason.clone(),
-        [one] => format!("{}: {}", one.field, one.reason),
+        [(field, reason)] if reason.starts_with(&format!("{field}: ")) => reason.to_string(),
+        [(field, reason)] => format!("{field}: {reason}"),
         many => format!(
             "{} problems in the request: {}",
             many.len(),
-            many.iter()
-                .map(|p| p.field.as_str())
-                .collect::<Vec<_>>()
-                .join(", ")
+            many.iter().map(|(f, _)| *f).collect::<Vec<_>>().join(", ")
         ),
     }
 }

@@ -273,15 +273,17 @@ impl ApiError {
     }
 }
 
+/// `lead` when no field is named, else the application's one wording for
+/// a list of field problems.
 fn summarise(lead: &str, errors: &[FieldError]) -> String {
     if errors.is_empty() {
         return lead.to_string();
     }
-    let parts: Vec<String> = errors
+    let pairs: Vec<(&str, &str)> = errors
         .iter()
-        .map(|e| format!("{}: {}", e.field, e.reason))
+        .map(|e| (e.field.as_str(), e.reason.as_str()))
         .collect();
-    format!("{lead}: {}", parts.join("; "))
+    crate::app::error::problems_summary(&pairs)
 }
 
 impl ResponseError for ApiError {

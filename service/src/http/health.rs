@@ -65,7 +65,7 @@ const STORE_PROBE_TIMEOUT: std::time::Duration = std::time::Duration::from_secs(
 /// The readiness checks of this instance: the catalogue is loaded and the
 /// store answers.
 pub async fn readiness(state: &AppState) -> Readiness {
-    let snapshot = state.snapshot();
+    let snapshot = state.app.current();
     let loaded = snapshot.revision >= 1 && !snapshot.entries.is_empty();
     let store = &state.app;
     let store_check = match tokio::time::timeout(STORE_PROBE_TIMEOUT, store.head()).await {

@@ -6,7 +6,6 @@
 use std::sync::Arc;
 
 use crate::app::App;
-use crate::catalogue::Snapshot;
 
 use super::auth::Authenticator;
 use super::metrics::Metrics;
@@ -66,10 +65,5 @@ impl AppState {
             app,
             openapi_json,
         }
-    }
-
-    /// The catalogue snapshot to answer the current request from.
-    pub fn snapshot(&self) -> Arc<Snapshot> {
-        self.app.current()
     }
 }

@@ -1,5 +1,6 @@
-//! Store errors. Outages are a type of their own so the HTTP layer can
-//! answer 503 with Retry-After while reads go on from memory.
+//! Store errors. Outages are a type of their own so the application layer
+//! can report `AppError::Unavailable` (HTTP answers 503 with Retry-After
+//! while reads go on from memory).
 
 use crate::catalogue::CatalogueError;
 

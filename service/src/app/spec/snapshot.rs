@@ -1,13 +1,13 @@
 //! The catalogue snapshot a spec is answered from outside the server (the
 //! `tightspec spec` command): the built-in seed catalogue, or the one a
-//! database holds, at its current or a named revision. The server answers
-//! from its live catalogue instead (`http::specs::handlers::snapshot_for`).
+//! database holds, at its current or a named revision; and [`pinned`], the
+//! rule a spec request's `catalogue_revision` adds to `App::snapshot`
+//! (revisions start at 1), which the server's spec routes use too.
 
 use std::sync::Arc;
 
-use crate::app::{AppError, FieldProblem};
+use crate::app::{App, AppError, FieldProblem};
 use crate::catalogue::Snapshot;
-use crate::store::Store;
 
 /// Where the catalogue comes from.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -41,10 +41,22 @@ pub async fn snapshot(
         }
         CatalogueSource::Database(url) => url.as_deref(),
     };
-    let store = Store::open(url).await?;
-    let snap = match revision {
-        None => store.load_current().await?,
-        Some(r) => store.load_at(r).await?,
-    };
-    Ok(Arc::new(snap))
+    let app = App::open(url).await?;
+    let snap = pinned(&app, revision).await;
+    app.close().await;
+    snap
+}
+
+/// The catalogue a spec request names by `catalogue_revision` (the
+/// current one when `None`); a revision below 1 is refused (422) before the
+/// store is asked.
+pub async fn pinned(app: &App, revision: Option<i64>) -> Result<Arc<Snapshot>, AppError> {
+    if let Some(r) = revision.filter(|r| *r < 1) {
+        return Err(FieldProblem::invalid(
+            "catalogue_revision",
+            format!("catalogue revisions start at 1, got {r}"),
+        )
+        .into());
+    }
+    app.snapshot(revision).await
 }

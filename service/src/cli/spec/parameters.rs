@@ -2,8 +2,9 @@
 //! (`SpecQuery`'s `IntoParams`), the POST body (`SpecRequest`'s schema,
 //! friction and bearing written as objects there), the flags of
 //! `tightspec spec` (clap's argument ids, minus the command's own) and the
-//! committed OpenAPI document; and the setpoint query is the spec query
-//! plus its four tool fields, in the code and in the document.
+//! committed OpenAPI document; the setpoint query is the spec query plus
+//! its four tool fields, in the code and in the document; and a batch item
+//! is the spec body plus `answer` and the same four tool fields.
 
 use std::collections::BTreeSet;
 
@@ -100,7 +101,13 @@ fn document_query(doc: &serde_json::Value, path: &str) -> Names {
 }
 
 fn document_body(doc: &serde_json::Value) -> Names {
-    let schema = &doc["components"]["schemas"]["SpecRequest"];
+    document_schema(doc, "SpecRequest")
+}
+
+/// The flat parameters a body schema of the document names (its own
+/// properties and those of its `allOf` branches).
+fn document_schema(doc: &serde_json::Value, name: &str) -> Names {
+    let schema = &doc["components"]["schemas"][name];
     let mut out = Names::new();
     let branches = schema["allOf"]
         .as_array()
@@ -142,6 +149,18 @@ fn the_setpoint_query_is_the_spec_query_plus_the_tool_fields() {
     expected.extend(SETPOINT_EXTRA.iter().map(|s| s.to_string()));
     assert_eq!(query_names::<SetpointQuery>(), expected);
     assert_eq!(document_query(&document(), "/v1/setpoints"), expected);
+}
+
+#[test]
+fn a_batch_item_is_the_spec_body_plus_the_answer_and_the_tool_fields() {
+    let mut expected = query_names::<SpecQuery>();
+    expected.extend(SETPOINT_EXTRA.iter().map(|s| s.to_string()));
+    expected.insert("answer".to_string());
+    assert_eq!(
+        document_schema(&document(), "BatchItemRequest"),
+        expected,
+        "a batch item's keys vs the setpoint query and `answer`"
+    );
 }
 
 #[test]

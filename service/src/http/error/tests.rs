@@ -38,3 +38,28 @@ fn payload_limit_is_stated() {
     let p = ApiError::PayloadTooLarge { limit_bytes: 1024 }.problem();
     assert!(p.detail.contains("1024"));
 }
+
+#[test]
+fn every_field_list_is_summed_up_in_one_wording() {
+    let one = ApiError::invalid("clamp_length", "must be above zero").problem();
+    assert_eq!(one.detail, "clamp_length: must be above zero");
+    let two = ApiError::unprocessable(vec![
+        FieldError::new("entries[0].finish", "unknown finish 'x'"),
+        FieldError::new("entries[1].lubricant", "unknown lubricant 'y'"),
+    ])
+    .problem();
+    assert_eq!(
+        two.detail,
+        "2 problems in the request: entries[0].finish, entries[1].lubricant"
+    );
+    let from_app: ApiError = AppError::Fields(vec![
+        crate::app::FieldProblem::invalid("entries[0].finish", "unknown finish 'x'"),
+        crate::app::FieldProblem::invalid("entries[1].lubricant", "unknown lubricant 'y'"),
+    ])
+    .into();
+    assert_eq!(
+        from_app.problem().detail,
+        two.detail,
+        "the same words either way"
+    );
+}

@@ -206,7 +206,7 @@ struct Batch {
 impl Batch {
     fn new(state: Arc<AppState>, items: Vec<Box<RawValue>>) -> Self {
         let mut snapshots = HashMap::new();
-        snapshots.insert(None, Ok(state.snapshot()));
+        snapshots.insert(None, Ok(state.app.current()));
         Self {
             stale: state.app.stale(),
             state,

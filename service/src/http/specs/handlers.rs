@@ -30,20 +30,7 @@ pub async fn snapshot_for(
     state: &AppState,
     revision: Option<i64>,
 ) -> Result<Arc<Snapshot>, ApiError> {
-    let current = state.snapshot();
-    let Some(r) = revision else {
-        return Ok(current);
-    };
-    if r == current.revision {
-        return Ok(current);
-    }
-    if r < 1 {
-        return Err(ApiError::invalid(
-            "catalogue_revision",
-            format!("catalogue revisions start at 1, got {r}"),
-        ));
-    }
-    Ok(state.app.snapshot(Some(r)).await?)
+    Ok(crate::app::spec::snapshot::pinned(&state.app, revision).await?)
 }
 
 fn units_tag(u: Units) -> &'static str {
