@@ -18,7 +18,8 @@ use std::sync::Arc;
 use serde_json::value::RawValue;
 
 use tightspec::app::quantity::TorqueUnit;
-use tightspec::app::spec::setpoints::{setpoints, ToolOptions};
+use tightspec::app::spec::setpoints::setpoints;
+use tightspec::app::spec::tool::ToolAsk;
 use tightspec::app::spec::view::spec_response;
 use tightspec::app::spec::{compute_one, SetpointQuery, SpecQuery};
 use tightspec::catalogue::Snapshot;
@@ -52,13 +53,13 @@ fn setpoints_get(query: &str, snapshot: &Snapshot) -> Result<Vec<u8>, String> {
         .map_err(|e| format!("{e:?}"))?;
     let req = q.to_request().map_err(|e| format!("{e:?}"))?;
     let (resolved, spec) = compute_one(&req, snapshot).map_err(|e| format!("{e:?}"))?;
-    let tool = ToolOptions {
+    let tool = ToolAsk {
         unit,
         resolution: q.resolution,
         angle_resolution: q.angle_resolution,
-        accept: &[],
+        accept: Vec::new(),
     };
-    let body = setpoints(&spec, &resolved, tool, false).map_err(|e| format!("{e:?}"))?;
+    let body = setpoints(&spec, &resolved, &tool, false).map_err(|e| format!("{e:?}"))?;
     json_bytes(&body, SPEC_JSON_CAPACITY).map_err(|e| e.to_string())
 }
 

@@ -62,12 +62,6 @@ impl FieldProblem {
         self.suggestions = suggestions;
         self
     }
-
-    /// The field problems of a catalogue refusal about the request's
-    /// fields (an unknown finish, no friction entry, ...).
-    pub fn from_catalogue(e: &CatalogueError) -> Vec<Self> {
-        catalogue_problems(e)
-    }
 }
 
 /// Why a use case refused or failed.
@@ -195,7 +189,7 @@ impl From<EngineError> for AppError {
 
 /// The field problems of a catalogue refusal that is about the request's
 /// fields (unknown names, missing entries, invalid changes).
-fn catalogue_problems(e: &CatalogueError) -> Vec<FieldProblem> {
+pub fn catalogue_problems(e: &CatalogueError) -> Vec<FieldProblem> {
     let class = match e {
         CatalogueError::Unknown { .. }
         | CatalogueError::NoFrictionEntry { .. }

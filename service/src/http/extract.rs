@@ -212,7 +212,8 @@ fn backticked(text: &str) -> Vec<String> {
         .collect()
 }
 
-pub use crate::app::reading::{integral, suggest};
+pub use crate::app::reading::integral;
+use crate::app::reading::suggest;
 
 #[cfg(test)]
 mod tests {

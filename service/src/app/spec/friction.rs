@@ -91,7 +91,7 @@ pub fn resolve_friction(
         .and_then(|id| match snapshot.finish(id) {
             Ok(f) => Some(f),
             Err(e) => {
-                problems.extend(FieldProblem::from_catalogue(&e));
+                problems.extend(crate::app::error::catalogue_problems(&e));
                 None
             }
         });
@@ -101,7 +101,7 @@ pub fn resolve_friction(
         .and_then(|id| match snapshot.lubricant(id) {
             Ok(l) => Some(l),
             Err(e) => {
-                problems.extend(FieldProblem::from_catalogue(&e));
+                problems.extend(crate::app::error::catalogue_problems(&e));
                 None
             }
         });
@@ -135,7 +135,7 @@ pub fn resolve_friction(
             Err(e) => {
                 // Only a problem when the catalogue values are needed.
                 if need_catalogue {
-                    problems.extend(FieldProblem::from_catalogue(&e));
+                    problems.extend(crate::app::error::catalogue_problems(&e));
                 }
                 None
             }

@@ -7,7 +7,7 @@
 //! applies it is refused unless the request accepts each one
 //! ([`super::checks::gate`]).
 
-use crate::app::quantity::{Quantity, TorqueUnit};
+use crate::app::quantity::Quantity;
 use crate::app::{AppError, FieldProblem};
 use crate::engine::angle::AngleOutcome;
 use crate::engine::cautions::Caution;
@@ -18,24 +18,13 @@ use super::cautions::Cautions;
 use super::checks::gate;
 use super::resolve::Resolved;
 use super::rounding::{round_window, RoundingError};
+use super::tool::ToolAsk;
 use super::view::{checks_out, error_count, SetpointAngle, SetpointResponse};
 
 /// Default torque resolution of a tool, in its torque unit.
 pub const DEFAULT_RESOLUTION: f64 = 0.1;
 /// Default angle resolution of a tool, in degrees.
 pub const DEFAULT_ANGLE_RESOLUTION: f64 = 1.0;
-
-/// How the tool holds the window, and which error checks the request accepts.
-#[derive(Debug, Clone, Copy)]
-pub struct ToolOptions<'a> {
-    pub unit: TorqueUnit,
-    /// Torque resolution in `unit`; default [`DEFAULT_RESOLUTION`].
-    pub resolution: Option<f64>,
-    /// Angle resolution in degrees; default [`DEFAULT_ANGLE_RESOLUTION`].
-    pub angle_resolution: Option<f64>,
-    /// Error check codes the request accepts.
-    pub accept: &'a [&'static str],
-}
 
 /// The refusal of a window that cannot be rounded, with the window in the
 /// tool's unit to two decimal places more than the resolution has.
@@ -62,7 +51,7 @@ fn rounding_problem(field: &str, unit: &str, e: RoundingError) -> FieldProblem {
 pub fn setpoints(
     spec: &Spec,
     resolved: &Resolved,
-    tool: ToolOptions,
+    tool: &ToolAsk,
     stale: bool,
 ) -> Result<SetpointResponse, AppError> {
     let unit = tool.unit;
@@ -121,7 +110,7 @@ pub fn setpoints(
         .chain(&angle_check)
         .cloned()
         .collect();
-    let accepted_checks = gate(&found, tool.accept)?;
+    let accepted_checks = gate(&found, &tool.accept)?;
     let checks = checks_out(&found);
     // The elastic-model caution goes with an angle window in the answer.
     let cautions = if angle.is_some() {

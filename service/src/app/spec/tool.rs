@@ -7,30 +7,19 @@ use crate::app::{AppError, FieldProblem};
 
 use super::checks::codes_from_query;
 use super::request::{SetpointQuery, SpecRequest};
-use super::setpoints::ToolOptions;
 
 /// A tool's options, read.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ToolAsk {
     pub unit: TorqueUnit,
-    /// Torque resolution in `unit`; `None` is the default.
+    /// Torque resolution in `unit`; `None` is the default
+    /// ([`super::setpoints::DEFAULT_RESOLUTION`]).
     pub resolution: Option<f64>,
-    /// Angle resolution in degrees; `None` is the default.
+    /// Angle resolution in degrees; `None` is the default
+    /// ([`super::setpoints::DEFAULT_ANGLE_RESOLUTION`]).
     pub angle_resolution: Option<f64>,
     /// Error check codes the request accepts.
     pub accept: Vec<&'static str>,
-}
-
-impl ToolAsk {
-    /// The options as [`super::setpoints::setpoints`] takes them.
-    pub fn options(&self) -> ToolOptions<'_> {
-        ToolOptions {
-            unit: self.unit,
-            resolution: self.resolution,
-            angle_resolution: self.angle_resolution,
-            accept: &self.accept,
-        }
-    }
 }
 
 /// The torque unit named in `torque_unit` (default N·m).

@@ -152,7 +152,7 @@ fn answer_item(index: usize, item: &ItemRequest, snapshot: &Snapshot, stale: boo
     };
     match &item.answer {
         Answer::Spec => out.spec = Some(spec_response(&spec, &resolved, stale)),
-        Answer::Setpoints(ask) => match setpoints(&spec, &resolved, ask.options(), stale) {
+        Answer::Setpoints(ask) => match setpoints(&spec, &resolved, ask, stale) {
             Ok(sp) => out.setpoints = Some(sp),
             Err(e) => return failed(index, ApiError::from(e).problem()),
         },

@@ -259,7 +259,7 @@ async fn setpoint_answer(
         tool.accept.join(",")
     );
     let tag = etag(&resolved.content_hash, &presentation);
-    let body = setpoints(&spec, &resolved, tool.options(), served.stale)?;
+    let body = setpoints(&spec, &resolved, &tool, served.stale)?;
     let body = json_bytes(&body, SPEC_JSON_CAPACITY)?;
     served.rendered(resolved.pinned, tag, body)
 }
