@@ -249,7 +249,7 @@ mod tests {
     #[serde(deny_unknown_fields)]
     #[allow(dead_code)]
     struct U {
-        units: Option<crate::http::quantity::Units>,
+        units: Option<crate::app::quantity::Units>,
     }
 
     #[test]

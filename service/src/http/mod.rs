@@ -5,9 +5,8 @@
 //! `problem_responses` (the shared problem responses of the OpenAPI
 //! document), `extract` (extractor error handlers), `accept` (content
 //! negotiation), `auth` (bearer tokens and roles), `request_id`, `metrics`,
-//! `deadline` (body-read and request deadlines), `state`, `quantity` (wire
-//! quantities, re-exported from `app`), `openapi` and `routes_table` (404 versus 405 from the
-//! document). Routes: `health`, `reference` and `reference_lists`, and the
+//! `deadline` (body-read and request deadlines), `state`, `openapi` and
+//! `routes_table` (404 versus 405 from the document). Routes: `health`, `reference` and `reference_lists`, and the
 //! feature modules `specs`, `catalogue` and `friction_tests`, all registered
 //! in `routes`.
 
@@ -25,7 +24,6 @@ pub mod problem;
 pub mod problem_responses;
 /// Wire quantities live in `app` (both adapters read them); kept at this
 /// path for the HTTP modules.
-pub use crate::app::quantity;
 pub mod reference;
 pub mod reference_lists;
 pub mod request_id;

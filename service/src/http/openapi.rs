@@ -10,8 +10,8 @@ use utoipa_actix_web::AppExt;
 
 use super::auth::BearerScheme;
 use super::error::{FieldError, Problem};
-use super::quantity::{Quantity, Units};
 use super::state::AppState;
+use crate::app::quantity::{Quantity, Units};
 
 #[derive(OpenApi)]
 #[openapi(

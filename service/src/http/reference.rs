@@ -14,7 +14,7 @@ use crate::app::reference::{self, PropertyClass, Thread};
 
 use super::auth::Reader;
 use super::error::ApiError;
-use super::quantity::Units;
+use crate::app::quantity::Units;
 
 pub fn configure(cfg: &mut ServiceConfig) {
     cfg.service(threads)

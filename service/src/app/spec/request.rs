@@ -21,8 +21,7 @@ use serde::de::{self, MapAccess, Visitor};
 use serde::{Deserialize, Deserializer, Serialize};
 use utoipa::ToSchema;
 
-use crate::app::quantity::Quantity;
-pub use crate::app::quantity::Units;
+use crate::app::quantity::{Quantity, Units};
 
 /// A friction coefficient: one value (`0.12`) or a range
 /// (`{"min": 0.10, "max": 0.16}`).

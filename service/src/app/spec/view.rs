@@ -19,9 +19,9 @@ use crate::engine::window::Governing;
 
 use super::cautions::Cautions;
 use super::friction::FrictionOrigin;
-use super::request::Units;
 use super::resolve::Resolved;
 use crate::app::quantity::Quantity;
+use crate::app::quantity::Units;
 
 mod checks;
 mod parts;

@@ -7,8 +7,9 @@ use utoipa::IntoParams;
 
 use crate::engine::bearing::{HeadType, HoleSeries, Washer};
 
-use super::{BearingInput, FrictionInput, SpecRequest, Units};
+use super::{BearingInput, FrictionInput, SpecRequest};
 use crate::app::quantity::Quantity;
+use crate::app::quantity::Units;
 use crate::app::FieldProblem;
 
 /// Reads a query value such as `40mm`, `40 mm`, `1.5in`, `2N·m` into a

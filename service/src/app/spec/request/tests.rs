@@ -1,4 +1,5 @@
 use super::*;
+use crate::app::quantity::Units;
 
 #[test]
 fn friction_single_or_range() {
