@@ -1,5 +1,6 @@
 //! Wire types of finishes and lubricants, one item kind: their views and
-//! lists, their write bodies (declared once by `item_write!`), and the two
+//! lists (declared once by `item_wire!`), their write bodies (declared once
+//! by `item_write!`), and the two
 //! traits the generic handlers in `items.rs` are written over.
 
 use serde::{Deserialize, Serialize};
@@ -8,36 +9,6 @@ use utoipa::ToSchema;
 use super::required;
 use crate::catalogue::{CatalogueItem, Finish, FinishInput, Lubricant, LubricantInput, Status};
 use crate::http::error::{ApiError, FieldError};
-
-#[derive(Debug, Serialize, ToSchema)]
-pub struct FinishList {
-    pub catalogue_revision: i64,
-    pub catalogue_may_be_stale: bool,
-    pub finishes: Vec<Finish>,
-}
-
-#[derive(Debug, Serialize, ToSchema)]
-pub struct FinishView {
-    #[serde(flatten)]
-    pub finish: Finish,
-    pub catalogue_revision: i64,
-    pub catalogue_may_be_stale: bool,
-}
-
-#[derive(Debug, Serialize, ToSchema)]
-pub struct LubricantList {
-    pub catalogue_revision: i64,
-    pub catalogue_may_be_stale: bool,
-    pub lubricants: Vec<Lubricant>,
-}
-
-#[derive(Debug, Serialize, ToSchema)]
-pub struct LubricantView {
-    #[serde(flatten)]
-    pub lubricant: Lubricant,
-    pub catalogue_revision: i64,
-    pub catalogue_may_be_stale: bool,
-}
 
 /// How a catalogue item kind goes on the wire: its collection path, the
 /// view of one item and the list of them (the handlers in `items.rs` are
@@ -51,57 +22,67 @@ pub trait ItemWire: CatalogueItem {
     fn list(items: Vec<Self>, catalogue_revision: i64, catalogue_may_be_stale: bool) -> Self::List;
 }
 
-impl ItemWire for Finish {
-    type View = FinishView;
-    type List = FinishList;
-    const COLLECTION: &'static str = "/v1/finishes";
-    fn view(finish: Self, catalogue_revision: i64, catalogue_may_be_stale: bool) -> FinishView {
-        FinishView {
-            finish,
-            catalogue_revision,
-            catalogue_may_be_stale,
+/// Declares a kind's view (the item with the revision it was read at) and
+/// list (the items under the kind's plural name), and their `ItemWire`.
+macro_rules! item_wire {
+    ($item:ident, $one:ident, $many:ident, $view:ident, $list:ident, $path:literal) => {
+        #[derive(Debug, Serialize, ToSchema)]
+        pub struct $list {
+            pub catalogue_revision: i64,
+            pub catalogue_may_be_stale: bool,
+            pub $many: Vec<$item>,
         }
-    }
-    fn list(
-        finishes: Vec<Self>,
-        catalogue_revision: i64,
-        catalogue_may_be_stale: bool,
-    ) -> FinishList {
-        FinishList {
-            catalogue_revision,
-            catalogue_may_be_stale,
-            finishes,
+
+        #[derive(Debug, Serialize, ToSchema)]
+        pub struct $view {
+            #[serde(flatten)]
+            pub $one: $item,
+            pub catalogue_revision: i64,
+            pub catalogue_may_be_stale: bool,
         }
-    }
+
+        impl ItemWire for $item {
+            type View = $view;
+            type List = $list;
+            const COLLECTION: &'static str = $path;
+            fn view($one: Self, catalogue_revision: i64, catalogue_may_be_stale: bool) -> $view {
+                $view {
+                    $one,
+                    catalogue_revision,
+                    catalogue_may_be_stale,
+                }
+            }
+            fn list(
+                $many: Vec<Self>,
+                catalogue_revision: i64,
+                catalogue_may_be_stale: bool,
+            ) -> $list {
+                $list {
+                    catalogue_revision,
+                    catalogue_may_be_stale,
+                    $many,
+                }
+            }
+        }
+    };
 }
 
-impl ItemWire for Lubricant {
-    type View = LubricantView;
-    type List = LubricantList;
-    const COLLECTION: &'static str = "/v1/lubricants";
-    fn view(
-        lubricant: Self,
-        catalogue_revision: i64,
-        catalogue_may_be_stale: bool,
-    ) -> LubricantView {
-        LubricantView {
-            lubricant,
-            catalogue_revision,
-            catalogue_may_be_stale,
-        }
-    }
-    fn list(
-        lubricants: Vec<Self>,
-        catalogue_revision: i64,
-        catalogue_may_be_stale: bool,
-    ) -> LubricantList {
-        LubricantList {
-            catalogue_revision,
-            catalogue_may_be_stale,
-            lubricants,
-        }
-    }
-}
+item_wire!(
+    Finish,
+    finish,
+    finishes,
+    FinishView,
+    FinishList,
+    "/v1/finishes"
+);
+item_wire!(
+    Lubricant,
+    lubricant,
+    lubricants,
+    LubricantView,
+    LubricantList,
+    "/v1/lubricants"
+);
 
 /// A write body of a catalogue item kind: the input and reason it gives
 /// (`path_id`: the id in the path of a replacement).
