@@ -12,9 +12,8 @@ use super::load_factor::load_factor;
 use super::working::{working_state, Loads, ThreadRolling, WorkingInput};
 use crate::engine::angle::{resilience, JointInput, JointType};
 use crate::engine::checks::{Severity, SLIP_SAFETY};
-use crate::engine::quantity::{FrictionRange, Scatter, Utilisation};
-use crate::engine::tightening::fixtures::{bearing, metric, mm, mpa};
-use crate::engine::window::{maximum_window, no_prevailing_torque, WindowInput};
+use crate::engine::tightening::fixtures::{bearing, m12_10_9_input, metric, mm, mpa};
+use crate::engine::window::maximum_window;
 
 fn kn(v: f64) -> Force {
     Force::new::<kilonewton>(v)
@@ -30,16 +29,7 @@ fn kn(v: f64) -> Force {
 fn embedding_turns_the_audit_margin_into_a_shortfall() {
     let t = metric(12.0, 1.75);
     let b = bearing(16.63, 13.5);
-    let w_in = WindowInput {
-        thread: &t,
-        yield_strength: mpa(940.0),
-        mean_bearing_diameter: b.mean_diameter(),
-        thread_friction: FrictionRange::single(0.12, "thread_friction").unwrap(),
-        bearing_friction: FrictionRange::single(0.12, "bearing_friction").unwrap(),
-        scatter: Scatter::new(0.09, "scatter").unwrap(),
-        utilisation: Utilisation::DEFAULT,
-        prevailing_torque: no_prevailing_torque(),
-    };
+    let w_in = m12_10_9_input(&t, &b);
     let window = maximum_window(&w_in).unwrap();
     let fully_threaded = BoltInput::Standard {
         standard: BoltStandard::Iso4017,

@@ -86,3 +86,24 @@ pub fn strength(id: &str, rm: f64, rp: f64, sp: f64) -> Strength {
 pub fn class_8_8() -> Strength {
     strength("8.8", 800.0, 640.0, 580.0)
 }
+
+/// The M12 10.9 window input of the joint-model regressions: R_p0.2 940
+/// N/mm² (ISO 898-1, property class 10.9), μ_th = μ_b = 0.12 single values,
+/// ±9 % scatter, ν = 0.9, on `bearing` (ISO 4017 grade A d_W 16.63 mm over
+/// an ISO 273 medium hole 13.5 mm in those tests).
+pub fn m12_10_9_input<'a>(
+    thread: &'a ThreadGeometry,
+    bearing: &BearingSurface,
+) -> crate::engine::window::WindowInput<'a> {
+    use crate::engine::quantity::{FrictionRange, Scatter, Utilisation};
+    crate::engine::window::WindowInput {
+        thread,
+        yield_strength: mpa(940.0),
+        mean_bearing_diameter: bearing.mean_diameter(),
+        thread_friction: FrictionRange::single(0.12, "thread_friction").expect("plausible"),
+        bearing_friction: FrictionRange::single(0.12, "bearing_friction").expect("plausible"),
+        scatter: Scatter::new(0.09, "scatter").expect("plausible"),
+        utilisation: Utilisation::DEFAULT,
+        prevailing_torque: crate::engine::window::no_prevailing_torque(),
+    }
+}

@@ -4,10 +4,10 @@ use uom::si::length::{inch, millimeter};
 use super::{bolt, in_clamp_length, standard_thread_length, BoltInput, BoltStandard};
 use crate::engine::angle::ShankSection;
 use crate::engine::angle::{angle_window, AngleOutcome, AngleWindow, JointInput, JointType};
-use crate::engine::quantity::{FrictionRange, Scatter, Utilisation};
-use crate::engine::tightening::fixtures::{bearing, metric, mm, mpa, unified};
+use crate::engine::quantity::Utilisation;
+use crate::engine::tightening::fixtures::{bearing, m12_10_9_input, metric, mm, mpa, unified};
 use crate::engine::tightening::permissible_preload;
-use crate::engine::window::{maximum_window, no_prevailing_torque, WindowInput};
+use crate::engine::window::maximum_window;
 
 fn b_mm(standard: BoltStandard, d: f64, p: f64, l: f64) -> f64 {
     standard_thread_length(standard, &metric(d, p), mm(l))
@@ -156,16 +156,7 @@ fn bad_bolt_input_names_the_field() {
 fn audit_window(shank_aware: bool) -> (AngleWindow, f64) {
     let t = metric(12.0, 1.75);
     let b = bearing(16.63, 13.5);
-    let i = WindowInput {
-        thread: &t,
-        yield_strength: mpa(940.0),
-        mean_bearing_diameter: b.mean_diameter(),
-        thread_friction: FrictionRange::single(0.12, "thread_friction").unwrap(),
-        bearing_friction: FrictionRange::single(0.12, "bearing_friction").unwrap(),
-        scatter: Scatter::new(0.09, "scatter").unwrap(),
-        utilisation: Utilisation::DEFAULT,
-        prevailing_torque: no_prevailing_torque(),
-    };
+    let i = m12_10_9_input(&t, &b);
     let w = maximum_window(&i).unwrap();
     let standard = BoltInput::Standard {
         standard: BoltStandard::Iso4014,
