@@ -88,6 +88,12 @@ pub enum AppError {
         detail: String,
         current: CurrentState,
     },
+    /// A joint changed from an older version; `current` is the joint now.
+    #[error("{detail}")]
+    JointStale {
+        detail: String,
+        current: Box<super::joints::JointView>,
+    },
     /// A uniqueness rule refused the change.
     #[error("{field}: {reason}")]
     Conflict { field: String, reason: String },

@@ -18,12 +18,16 @@
 //! - `friction_tests` — friction test series: their wire types, parsing
 //!   and evaluation (ISO 16047 method), store and read a series, propose
 //!   and apply the entry change a series supports.
+//! - `joints` — the joint registry's definitions: define, read, list (by
+//!   tag, due review, pages of ids) and change from an expected version;
+//!   [`joints::JointView`] as both adapters render it.
 //! - `tokens` — API tokens: create, list, revoke, find by secret.
 
 pub mod catalogue;
 pub mod context;
 pub mod error;
 pub mod friction_tests;
+pub mod joints;
 pub mod quantity;
 pub mod reading;
 pub mod reference;

@@ -7,7 +7,7 @@
 //! negotiation), `auth` (bearer tokens and roles), `request_id`, `metrics`,
 //! `deadline` (body-read and request deadlines), `state`, `openapi` and
 //! `routes_table` (404 versus 405 from the document). Routes: `health`, `reference` and `reference_lists`, and the
-//! feature modules `specs`, `catalogue` and `friction_tests`, all registered
+//! feature modules `specs`, `catalogue`, `friction_tests` and `joints`, all registered
 //! in `routes`.
 
 pub mod accept;
@@ -18,6 +18,7 @@ pub mod error;
 pub mod extract;
 pub mod friction_tests;
 pub mod health;
+pub mod joints;
 pub mod metrics;
 pub mod openapi;
 pub mod problem;
@@ -45,4 +46,5 @@ pub fn routes(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
     reference::configure(cfg);
     catalogue::configure(cfg);
     friction_tests::configure(cfg);
+    joints::configure(cfg);
 }

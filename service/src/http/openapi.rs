@@ -29,7 +29,8 @@ with an `Allow` header listing the methods that path answers.",
     tags(
         (name = "operations", description = "Health, readiness, metrics"),
         (name = "reference", description = "Threads, property classes, methods, materials, finishes, lubricants"),
-        (name = "catalogue", description = "The versioned friction catalogue: entries, finishes, lubricants, revisions, history, diff, export")
+        (name = "catalogue", description = "The versioned friction catalogue: entries, finishes, lubricants, revisions, history, diff, export"),
+        (name = "joints", description = "The joint registry: each tightening operation defined once under the plant's own id")
     ),
     modifiers(&BearerScheme),
     components(schemas(Problem, FieldError, Quantity, Units))

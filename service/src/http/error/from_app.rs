@@ -47,6 +47,12 @@ impl From<AppError> for ApiError {
                 ),
                 current: current_json(&current),
             },
+            AppError::JointStale { detail, current } => ApiError::PreconditionFailed {
+                detail: format!(
+                    "{detail}; the current joint is in `current`: merge and resend with its ETag"
+                ),
+                current: serde_json::to_value(current).ok(),
+            },
             AppError::Conflict { field, reason } => ApiError::Conflict {
                 detail,
                 errors: vec![FieldError::new(field, reason)],
