@@ -28,6 +28,7 @@ mod friction_tests_notes;
 mod friction_tests_store;
 mod hydrogen;
 mod implausible;
+mod joints;
 mod kill9;
 mod limits;
 mod outage_freeze;
