@@ -162,6 +162,8 @@ async fn refused_joint_writes_name_their_fields_and_write_nothing(db: &TestDb) {
     // an unknown joint: 404 naming id, on read and on change
     let p = problem(app.get("/v1/joints/K4-RA-999").await, StatusCode::NOT_FOUND).await;
     assert_eq!(problem_fields(&p), ["id"]);
+    let p = problem(app.get("/v1/joints/K4-RA-071").await, StatusCode::NOT_FOUND).await;
+    assert_eq!(p["errors"][0]["suggestions"], json!(["K4-RA-017"]));
     let missing = definition("K4-RA-999", &[], "M10");
     let p = problem(
         put(
@@ -217,6 +219,14 @@ async fn refused_joint_writes_name_their_fields_and_write_nothing(db: &TestDb) {
     )
     .await;
     assert_eq!(problem_fields(&p), ["id"]);
+    // not an object at all
+    let p = problem(
+        app.post_json(Some(&editor), "/v1/joints", &json!(["K4-RA-022"]))
+            .await,
+        StatusCode::UNPROCESSABLE_ENTITY,
+    )
+    .await;
+    assert_eq!(problem_fields(&p), ["body"]);
     // a bad page
     let p = problem(
         app.get("/v1/joints?limit=0").await,

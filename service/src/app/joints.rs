@@ -11,6 +11,7 @@ use serde::Serialize;
 use serde_json::Value;
 use utoipa::ToSchema;
 
+use super::reading::suggest;
 use super::spec::rounding::check_resolution;
 use super::spec::tool::torque_unit;
 use super::spec::{compute_one, SpecRequest};
@@ -19,7 +20,10 @@ use crate::catalogue::ChangeProblem;
 use crate::registry::joint::TAG_MAX;
 use crate::registry::{Joint, JointDefinition, JointId, Page, RegistryError};
 use crate::store::joints::JointFilter;
-use crate::store::RegistryStoreError;
+use crate::store::{RegistryStoreError, StoreError};
+
+/// Ids read to find the near ones of an unknown id.
+pub const NEAR_IDS_SCANNED: u32 = 200;
 
 /// Joints in a page when the request names no `limit`.
 pub const DEFAULT_LIMIT: u32 = 50;
@@ -101,11 +105,20 @@ pub struct JointPage {
     pub next: Option<String>,
 }
 
+/// The registry's problems as 422 field problems; one about the whole
+/// body (no field) names `body`.
 fn invalid(problems: Vec<ChangeProblem>) -> AppError {
     AppError::Fields(
         problems
             .into_iter()
-            .map(|p| FieldProblem::invalid(p.field, p.reason).with_suggestions(p.suggestions))
+            .map(|p| {
+                let field = if p.field.is_empty() {
+                    "body".into()
+                } else {
+                    p.field
+                };
+                FieldProblem::invalid(field, p.reason).with_suggestions(p.suggestions)
+            })
             .collect(),
     )
 }
@@ -229,10 +242,40 @@ impl App {
         Ok(self.store().create_joint(&def, actor, CREATED).await?)
     }
 
-    /// One joint (unknown: 404 naming `id`).
+    /// One joint (unknown: 404 naming `id`, with near ids).
     pub async fn joint(&self, id: &str) -> Result<Joint, AppError> {
         let id = JointId::parse("id", id).map_err(|p| invalid(vec![p]))?;
-        Ok(self.store().joint(&id).await?)
+        match self.store().joint(&id).await {
+            Ok(joint) => Ok(joint),
+            Err(StoreError::NotFound { field, reason }) => {
+                let near = self.near_ids(&id).await;
+                Err(FieldProblem::unknown(field, reason)
+                    .with_suggestions(near)
+                    .into())
+            }
+            Err(e) => Err(e.into()),
+        }
+    }
+
+    /// Registered ids close to `id`, looked for among the (at most
+    /// [`NEAR_IDS_SCANNED`]) ids from its first half on in id order, where a
+    /// mistyped tail lies. A failed look-up gives none: it only helps.
+    async fn near_ids(&self, id: &JointId) -> Vec<String> {
+        let half: String = id.as_str().chars().take(id.as_str().len() / 2).collect();
+        let after = (!half.is_empty())
+            .then(|| JointId::parse("after", &half).ok())
+            .flatten();
+        let page = Page {
+            after,
+            limit: NEAR_IDS_SCANNED,
+        };
+        match self.store().joints(&JointFilter::default(), &page).await {
+            Ok(joints) => {
+                let known: Vec<String> = joints.iter().map(|j| j.id.to_string()).collect();
+                suggest(id.as_str(), &known)
+            }
+            Err(_) => Vec::new(),
+        }
     }
 
     /// Replaces the definition of joint `id` if it is still at `expected`
