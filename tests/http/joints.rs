@@ -1,12 +1,17 @@
 //! `/v1/joints` over HTTP on SQLite and PostgreSQL: define, read with its
 //! ETag, list by tag in pages, change with If-Match, and every refusal
 //! (stale 412, missing If-Match 428, duplicate id 409, unknown joint 404,
-//! a bad body 422 naming each field, a reader's token 403) writing nothing.
+//! a bad body 422 naming each field, a reader's token 403) writing nothing,
+//! and a review mark shown in the `review=due` filter and in the joint.
 //! The plant and its joints are invented for the test.
 
+use chrono::Utc;
 use reqwest::{Response, StatusCode};
 use serde_json::{json, Value};
-use tightspec::store::Role;
+use tightspec::registry::{event, JointId, OutboxEvent};
+use tightspec::store::joints::ReviewMark;
+use tightspec::store::outbox::new_event_id;
+use tightspec::store::{Role, Store};
 
 use crate::catalogue_support::{problem_fields, start, token, Instance};
 use crate::on_both_backends;
@@ -103,6 +108,26 @@ async fn engineer_defines_reads_lists_and_changes_a_joint(db: &TestDb) {
     assert_eq!(ids(&all), ["K4-FA-001", "K4-RA-017", "K4-RA-018"]);
     let due = app.get_json("/v1/joints?review=due").await;
     assert_eq!(ids(&due), Vec::<String>::new());
+    // a review mark (set in the store, as a catalogue revision will) shows
+    // in the filter and in the joint
+    let store = Store::open(Some(&db.url)).await.expect("store");
+    let mark = ReviewMark {
+        joint: JointId::parse("id", "K4-RA-018").unwrap(),
+        event: OutboxEvent::cloud_event(
+            new_event_id(),
+            event::JOINT_REVIEW_DUE,
+            "K4-RA-018",
+            Utc::now(),
+            json!({"revision": 7}),
+        ),
+    };
+    store.mark_review_due(7, Utc::now(), &[mark]).await.unwrap();
+    store.close().await;
+    let due = app.get_json("/v1/joints?review=due").await;
+    assert_eq!(ids(&due), ["K4-RA-018"]);
+    assert_eq!(due["joints"][0]["review_due"]["revision"], 7);
+    let marked = app.get_json("/v1/joints/K4-RA-018").await;
+    assert_eq!(marked["review_due"]["revision"], 7);
 
     // change with If-Match: version 2, new ETag, the tag filter follows
     let mut changed = body.clone();
