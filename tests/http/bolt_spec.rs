@@ -85,6 +85,22 @@ async fn audit_case(app: TestApp) {
     // The fully threaded 39.2° would take this bolt past its yield angle.
     assert!(max < at_yield && at_yield < 39.2, "{max} {at_yield}");
     assert!(!codes(&shank).contains(&"angle_past_bolt_yield".to_string()));
+    let says = |s: &Value, words: &str| {
+        s["assumptions"].as_array().is_some_and(|a| {
+            a.iter()
+                .any(|t| t.as_str().is_some_and(|t| t.contains(words)))
+        })
+    };
+    assert!(
+        says(&plain, "taken as threaded up to the head"),
+        "{}",
+        plain["assumptions"]
+    );
+    assert!(
+        says(&shank, "shank sections inside the clamp length"),
+        "{}",
+        shank["assumptions"]
+    );
     // The bolt is part of the spec's identity.
     assert_ne!(shank["spec_hash"], plain["spec_hash"]);
     assert_eq!(
