@@ -16,6 +16,7 @@ mod answer_cache;
 mod auth;
 mod batch;
 mod batch_setpoints;
+mod bolt_spec;
 mod catalogue;
 mod catalogue_cli;
 mod catalogue_instances;

@@ -78,6 +78,9 @@ pub struct CheckInput<'a> {
     pub stainless: bool,
     /// The torque-angle window, where computed.
     pub angle: Option<&'a AngleWindow>,
+    /// The bolt's shank was described (`bolt`), so the angle window and its
+    /// yield angle are those of the real bolt, not of a fully threaded one.
+    pub bolt_described: bool,
 }
 
 /// Strength from which electroplated fasteners are at risk of hydrogen
@@ -87,6 +90,9 @@ const HYDROGEN_RM_MPA: f64 = 1000.0;
 
 /// Code of the check that the angle window reaches the yield angle.
 pub const ANGLE_MAY_YIELD: &str = "angle_may_yield_bolt";
+/// Code of the error check that the angle window of a described bolt (its
+/// shank in the resilience) reaches that bolt's yield angle.
+pub const ANGLE_PAST_BOLT_YIELD: &str = "angle_past_bolt_yield";
 /// Code of the working-state check on the residual clamp load (joint opening).
 pub const RESIDUAL_CLAMP_LOAD: &str = "residual_clamp_load";
 /// Code of the working-state check on the safety against yield.
@@ -100,7 +106,7 @@ pub const SEALING_CLAMP_LOAD: &str = "sealing_clamp_load";
 /// Code of the working-state check on the surface pressure in service.
 pub const WORKING_SURFACE_PRESSURE: &str = "working_surface_pressure";
 /// Every code a check can have (the names `accept_checks` may use).
-pub const CODES: [&str; 22] = [
+pub const CODES: [&str; 23] = [
     "surface_pressure_exceeded",
     "surface_pressure_not_checked",
     "thread_engagement_too_short",
@@ -113,6 +119,7 @@ pub const CODES: [&str; 22] = [
     "impact_tool_unsuitable",
     "torque_window_is_monitoring",
     ANGLE_MAY_YIELD,
+    ANGLE_PAST_BOLT_YIELD,
     WINDOW_UNDER_TWO_STEPS,
     WINDOW_ZERO_WIDTH,
     ANGLE_WINDOW_UNDER_TWO_STEPS,
@@ -344,19 +351,38 @@ fn method_monitoring(i: &CheckInput, out: &mut Vec<Check>) {
 
 fn angle_yield(i: &CheckInput, out: &mut Vec<Check>) {
     let Some(a) = i.angle else { return };
-    if a.angle_max.value >= a.angle_at_yield.value {
+    if a.angle_max.value < a.angle_at_yield.value {
+        return;
+    }
+    let (at_yield, max) = (
+        a.angle_at_yield.get::<uom::si::angle::degree>(),
+        a.angle_max.get::<uom::si::angle::degree>(),
+    );
+    if i.bolt_described {
+        // The described bolt's own resilience: turning to the window's upper
+        // end takes this bolt past its yield force (ν = 1, highest thread
+        // friction), so a tool must not be set to it unless accepted.
         out.push(Check {
-            code: "angle_may_yield_bolt",
-            severity: Severity::Warning,
+            code: ANGLE_PAST_BOLT_YIELD,
+            severity: Severity::Error,
             message: format!(
-                "At the highest thread friction the bolt may start to yield from {:.0}° after \
-                 snug, inside the angle window (up to {:.0}°). Narrow the friction range or \
-                 keep the angle below the yield angle.",
-                a.angle_at_yield.get::<uom::si::angle::degree>(),
-                a.angle_max.get::<uom::si::angle::degree>()
+                "With the bolt as described (its shank inside the clamp length) the bolt may \
+                 yield from {at_yield:.1}° after snug, while the angle window reaches \
+                 {max:.1}°. Narrow the friction range, lower the utilisation or keep the angle \
+                 below the yield angle."
             ),
         });
+        return;
     }
+    out.push(Check {
+        code: ANGLE_MAY_YIELD,
+        severity: Severity::Warning,
+        message: format!(
+            "At the highest thread friction the bolt may start to yield from {at_yield:.0}° \
+             after snug, inside the angle window (up to {max:.0}°). Narrow the friction range \
+             or keep the angle below the yield angle."
+        ),
+    });
 }
 
 #[cfg(test)]

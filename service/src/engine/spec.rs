@@ -56,6 +56,9 @@ pub struct SpecFlags {
     /// Friction range the data was measured in, where known.
     pub measured_thread_friction: Option<FrictionRange>,
     pub measured_bearing_friction: Option<FrictionRange>,
+    /// The bolt was described (`bolt`): its shank sections inside the clamp
+    /// length are in the joint's resilience. False: taken as fully threaded.
+    pub bolt_described: bool,
 }
 
 /// Everything a spec is computed from. Thread, strength and bearing come from
@@ -331,6 +334,7 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         acid_cleaned: input.flags.acid_cleaned,
         dry: input.flags.dry,
         stainless: is_stainless_grade(&input.strength.id),
+        bolt_described: input.flags.bolt_described,
         angle: match &angle {
             AngleOutcome::Computed(a) => Some(a),
             AngleOutcome::NotComputed { .. } => None,
@@ -339,7 +343,9 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
 
     let angle_given = matches!(angle, AngleOutcome::Computed(_));
     let into_plastic_range = method.method == TighteningMethod::YieldControlled
-        || checks.iter().any(|c| c.code == checks::ANGLE_MAY_YIELD);
+        || checks
+            .iter()
+            .any(|c| c.code == checks::ANGLE_MAY_YIELD || c.code == checks::ANGLE_PAST_BOLT_YIELD);
     let cautions = CautionSet::for_spec(angle_given, into_plastic_range);
     let area = thread.stress_area.value;
     Ok(Spec {

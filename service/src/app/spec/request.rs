@@ -90,6 +90,46 @@ pub struct BearingInput {
     pub inner_diameter: Quantity,
 }
 
+/// One reduced shank section of a bolt, from under the head.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
+#[serde(deny_unknown_fields)]
+pub struct ShankSectionInput {
+    /// Length l_i of the section.
+    pub length: Quantity,
+    /// Diameter d_i of the section (at most the nominal diameter).
+    pub diameter: Quantity,
+}
+
+/// The bolt's geometry: `{"length", "thread_length", "shank_sections"}`, or a
+/// product standard and its nominal length (`{"standard", "length"}`, the
+/// thread length then from the standard's b column). With `clamp_length`,
+/// the shank inside the clamp length goes into the bolt's resilience
+/// (VDI 2230 Part 1 §5.1.1), so the angle window is that of this bolt;
+/// without `bolt` the bolt is taken as threaded up to the head.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
+#[serde(deny_unknown_fields)]
+pub struct BoltRequest {
+    /// Product standard: `iso-4014`, `iso-4017`, `iso-4762` or
+    /// `asme-b18.2.1` (hex cap screw); not with `thread_length` or
+    /// `shank_sections`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    #[schema(example = "iso-4014")]
+    pub standard: Option<String>,
+    /// Length under the head (the nominal length of a standard bolt);
+    /// required (a request without it is refused naming `bolt.length`).
+    #[serde(default)]
+    #[schema(required = true, nullable = false)]
+    pub length: Option<Quantity>,
+    /// Thread length b; required without `standard`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub thread_length: Option<Quantity>,
+    /// Reduced shank sections from under the head (at most 8); the rest of
+    /// the unthreaded part is a plain shank of the nominal diameter.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    #[schema(max_items = 8)]
+    pub shank_sections: Option<Vec<ShankSectionInput>>,
+}
+
 /// One tightening-spec request: the POST body of `/v1/tightening-specs`
 /// and one item of a batch.
 #[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize, ToSchema)]
@@ -163,6 +203,10 @@ pub struct SpecRequest {
     /// `required_clamp_load`).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub window_mode: Option<String>,
+    /// The bolt's geometry (shank and thread length); default: taken as
+    /// threaded up to the head.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub bolt: Option<BoltRequest>,
     /// Snug torque before the angle is counted.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub snug_torque: Option<Quantity>,

@@ -6,7 +6,8 @@
 //! Every problem is collected, so a client sees all bad fields at once.
 //! Engine field names are mapped to the request's names where they differ
 //! (`method` → `tightening_method`, `joint.snug_torque` → `snug_torque`, ...).
-//! The parts are read in `parts`; the identity is written in `normalised`;
+//! The parts are read in `parts`, the bolt and its shank inside the clamp
+//! length in `bolt`; the identity is written in `normalised`;
 //! tests are in `resolve/tests.rs`.
 
 use uom::si::force::newton;
@@ -16,6 +17,7 @@ use uom::si::torque::newton_meter;
 use crate::app::quantity::Units;
 use crate::app::{AppError, FieldProblem};
 use crate::catalogue::Snapshot;
+use crate::engine::angle::JointType;
 use crate::engine::method::TighteningMethod;
 use crate::engine::plausible;
 use crate::engine::spec::{SpecFlags, SpecInput};
@@ -24,11 +26,12 @@ use crate::engine::EngineError;
 use super::friction::{resolve_friction, ResolvedFriction};
 use super::request::SpecRequest;
 
+mod bolt;
 mod normalised;
 mod parts;
 
 pub use normalised::content_hash;
-use normalised::{friction_words, origin, Normalised};
+use normalised::{friction_words, origin, Normalised, NormalisedBolt};
 use parts::{keep, Problems, Quantities};
 
 /// Default tightening method when the request names none.
@@ -93,6 +96,7 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
     let q = Quantities::read(req, &mut p);
     let (joint_type, material) = parts::joint_names(req, &mut p);
     let friction = resolve_friction(req, snapshot, &mut p);
+    let described = bolt::described(req, thread.as_ref(), bearing_parts.head, &mut p);
     refused(p)?;
 
     // Every `None` below is an input the request left out (problems would
@@ -103,10 +107,23 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
         return Err(FieldProblem::malformed("thread", "the request could not be read").into());
     };
 
-    let joint = parts::joint(req, &q, joint_type, bearing_parts.head);
+    let mut joint = parts::joint(req, &q, joint_type, bearing_parts.head);
     let mut p: Problems = Vec::new();
     let tapped_hole =
         parts::tapped_hole(q.engagement, material.as_ref(), &strength, &thread, &mut p);
+    // The described bolt's shank inside the clamp length goes into δ_S.
+    let mut bolt_described = false;
+    if let (Some(b), Some(j)) = (&described, joint.as_mut()) {
+        if let Some(lk) = j.clamp_length {
+            let tapped = j.joint_type == JointType::TappedHole;
+            let engagement = q.engagement.filter(|_| tapped);
+            if let Some(c) = bolt::clamped(b, &thread, lk, engagement, &mut p) {
+                j.shank_sections = c.shank_sections;
+                j.socket_head = c.socket_head;
+                bolt_described = true;
+            }
+        }
+    }
     refused(p)?;
 
     let tables = req.bearing.is_none();
@@ -140,6 +157,7 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
         engagement_length_mm: q.engagement.map(|l| l.get::<millimeter>()),
         required_clamp_load_n: q.required_clamp_load.map(|f| f.get::<newton>()),
         window_mode: parts::window_mode_id(mode),
+        bolt: described.as_ref().map(NormalisedBolt::from),
     };
     let bytes = serde_json::to_vec(&normalised).map_err(|e| {
         AppError::field(FieldProblem::malformed(
@@ -156,6 +174,7 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
         dry: friction.dry,
         measured_thread_friction: friction.catalogue_ranges.map(|(t, _)| t),
         measured_bearing_friction: friction.catalogue_ranges.map(|(_, b)| b),
+        bolt_described,
     };
     let input = SpecInput {
         thread,

@@ -214,6 +214,18 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
         format!("bearing surface: {}", spec.bearing.source),
         format!("friction: {}", spec.friction_source),
     ];
+    if matches!(spec.angle, AngleOutcome::Computed(_)) {
+        assumptions.push(if resolved.input.flags.bolt_described {
+            "bolt: the shank sections inside the clamp length and the free loaded thread \
+             behind them are in the bolt's resilience (VDI 2230 Part 1 §5.1.1)"
+                .to_string()
+        } else {
+            "bolt: taken as threaded up to the head (no bolt described), so the bolt's \
+             resilience has no shank; a plain shank inside the clamp length makes the bolt \
+             stiffer and the angle window smaller"
+                .to_string()
+        });
+    }
     if spec.scatter_source == ValueSource::Default {
         assumptions.push(format!(
             "tool scatter ±{:.0} % from the method default: {}",

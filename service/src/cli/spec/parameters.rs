@@ -2,7 +2,9 @@
 //! (`SpecQuery`'s `IntoParams`), the POST body (`SpecRequest`'s schema,
 //! friction and bearing written as objects there), the flags of
 //! `tightspec spec` (clap's argument ids, minus the command's own) and the
-//! committed OpenAPI document; the setpoint query is the spec query plus
+//! committed OpenAPI document (`bolt` standing for `bolt_standard`,
+//! `bolt_length` and `bolt_thread_length`; its shank sections are body
+//! only); the setpoint query is the spec query plus
 //! its four tool fields, in the code and in the document; and a batch item
 //! is the spec body plus `answer` and the same four tool fields.
 
@@ -46,6 +48,12 @@ fn flat(property: &str) -> Vec<String> {
         "bearing" => vec![
             "bearing_outer_diameter".into(),
             "bearing_inner_diameter".into(),
+        ],
+        // Shank sections are in the body only (the query's docs say so).
+        "bolt" => vec![
+            "bolt_standard".into(),
+            "bolt_length".into(),
+            "bolt_thread_length".into(),
         ],
         other => vec![other.to_string()],
     }
@@ -176,6 +184,10 @@ fn a_body_property_stands_for_its_flat_parameters() {
     assert_eq!(
         flat("bearing"),
         ["bearing_outer_diameter", "bearing_inner_diameter"]
+    );
+    assert_eq!(
+        flat("bolt"),
+        ["bolt_standard", "bolt_length", "bolt_thread_length"]
     );
     assert_eq!(flat("thread"), ["thread"]);
 }

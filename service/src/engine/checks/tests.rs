@@ -60,6 +60,7 @@ fn input(c: &Case) -> CheckInput<'_> {
         dry: false,
         stainless: false,
         angle: None,
+        bolt_described: false,
     }
 }
 
@@ -217,4 +218,61 @@ fn tool_angle_window_warns_below_two_steps_and_refuses_one_value() {
         (ANGLE_WINDOW_UNDER_TWO_STEPS, Severity::Warning)
     );
     assert!(tool_angle_window(30.3, 39.2, (32.0, 36.0), 4.0).is_none());
+}
+
+/// An angle window reaching the yield angle: a warning for a bolt taken as
+/// fully threaded, an error (refusing setpoints unless accepted) for a bolt
+/// whose shank was described, since that yield angle is the real bolt's.
+#[test]
+fn angle_past_yield_is_an_error_for_a_described_bolt() {
+    use crate::engine::angle::{angle_window, AngleOutcome, JointInput, JointType};
+    let c = case();
+    let w_in = WindowInput {
+        thread: &c.thread,
+        yield_strength: mpa(940.0),
+        mean_bearing_diameter: c.bearing.mean_diameter(),
+        thread_friction: c.friction,
+        bearing_friction: c.friction,
+        scatter: Scatter::new(0.06, "scatter").unwrap(),
+        utilisation: Utilisation::DEFAULT,
+        prevailing_torque: no_prevailing_torque(),
+    };
+    let joint = JointInput {
+        clamp_length: Some(mm(30.0)),
+        joint_type: JointType::ThroughBolted,
+        clamped_modulus: Some(mpa(205_000.0)),
+        nut_modulus: None,
+        bolt_modulus: None,
+        outer_diameter: Some(mm(25.0)),
+        socket_head: false,
+        shank_sections: Vec::new(),
+        snug_torque: None,
+    };
+    let AngleOutcome::Computed(mut a) = angle_window(&w_in, &c.bearing, &joint, &c.window).unwrap()
+    else {
+        panic!("angle not computed");
+    };
+    let mut i = input(&c);
+    i.angle = Some(&a);
+    let below = run(&i);
+    assert!(!codes(&below).contains(&ANGLE_MAY_YIELD));
+    assert!(!codes(&below).contains(&ANGLE_PAST_BOLT_YIELD));
+    a.angle_max = a.angle_at_yield * 1.01;
+    let mut i = input(&c);
+    i.angle = Some(&a);
+    let fully_threaded = run(&i);
+    let warn = fully_threaded
+        .iter()
+        .find(|k| k.code == ANGLE_MAY_YIELD)
+        .expect("warning");
+    assert_eq!(warn.severity, Severity::Warning);
+    assert!(!codes(&fully_threaded).contains(&ANGLE_PAST_BOLT_YIELD));
+    i.bolt_described = true;
+    let described = run(&i);
+    let err = described
+        .iter()
+        .find(|k| k.code == ANGLE_PAST_BOLT_YIELD)
+        .expect("error");
+    assert_eq!(err.severity, Severity::Error);
+    assert!(!codes(&described).contains(&ANGLE_MAY_YIELD));
 }

@@ -56,7 +56,7 @@ impl BoltStandard {
             Self::Iso4014 => "iso-4014",
             Self::Iso4017 => "iso-4017",
             Self::Iso4762 => "iso-4762",
-            Self::AsmeB1821HexCapScrew => "asme-b18.2.1-hex-cap-screw",
+            Self::AsmeB1821HexCapScrew => "asme-b18.2.1",
         }
     }
 
@@ -74,6 +74,9 @@ impl std::str::FromStr for BoltStandard {
     type Err = EngineError;
     fn from_str(s: &str) -> Result<Self, Self::Err> {
         let k = s.trim().to_ascii_lowercase().replace([' ', '_'], "-");
+        // The ASME standard also covers other products; its hex cap screw is
+        // the one meant, and may be named in full.
+        let k = k.strip_suffix("-hex-cap-screw").unwrap_or(&k).to_string();
         Self::ALL
             .into_iter()
             .find(|b| b.id() == k || b.id().replace('-', "") == k.replace('-', ""))

@@ -7,7 +7,7 @@ use utoipa::IntoParams;
 
 use crate::engine::bearing::{HeadType, HoleSeries, Washer};
 
-use super::{BearingInput, FrictionInput, SpecRequest};
+use super::{BearingInput, BoltRequest, FrictionInput, SpecRequest};
 use crate::app::quantity::Quantity;
 use crate::app::quantity::Units;
 use crate::app::FieldProblem;
@@ -160,6 +160,20 @@ macro_rules! spec_query {
             /// `maximum-preload` (default) or `minimum-clamp-load`.
             #[arg(long)]
             pub window_mode: Option<String>,
+            /// Bolt product standard (`iso-4014`, `iso-4017`, `iso-4762`,
+            /// `asme-b18.2.1`), with `bolt_length`; the thread length then
+            /// comes from the standard. Reduced shank sections can be given
+            /// only in the POST body (`bolt.shank_sections`).
+            #[arg(long)]
+            pub bolt_standard: Option<String>,
+            /// Bolt length under the head with unit, e.g. `60mm`; with
+            /// `bolt_standard` or `bolt_thread_length`.
+            #[arg(long)]
+            pub bolt_length: Option<String>,
+            /// Bolt thread length with unit, e.g. `30mm` (without
+            /// `bolt_standard`).
+            #[arg(long)]
+            pub bolt_thread_length: Option<String>,
             /// Snug torque with unit, e.g. `10N·m`.
             #[arg(long)]
             pub snug_torque: Option<String>,
@@ -210,6 +224,15 @@ macro_rules! spec_query {
                 let engagement_length = q("engagement_length", &self.engagement_length);
                 let required_clamp_load = q("required_clamp_load", &self.required_clamp_load);
                 let snug_torque = q("snug_torque", &self.snug_torque);
+                let bolt_length = q("bolt_length", &self.bolt_length);
+                let bolt_thread_length = q("bolt_thread_length", &self.bolt_thread_length);
+                let bolt = bolt_from_query(
+                    self.bolt_standard.as_deref(),
+                    self.bolt_length.is_some(),
+                    bolt_length,
+                    bolt_thread_length,
+                    &mut problems,
+                );
                 let bearing = match (outer, inner) {
                     (Some(outer_diameter), Some(inner_diameter)) => Some(BearingInput {
                         outer_diameter,
@@ -260,6 +283,7 @@ macro_rules! spec_query {
                     engagement_length,
                     required_clamp_load,
                     window_mode: self.window_mode.clone(),
+                    bolt,
                     snug_torque,
                     units: self.units,
                     catalogue_revision: self.catalogue_revision,
@@ -296,6 +320,32 @@ spec_query! {
         #[arg(long)]
         accept_checks: Option<String>,
     }
+}
+
+/// The bolt from its flat parameters: none of them, or `bolt_length` with
+/// `bolt_standard` or `bolt_thread_length` (checked further in `resolve`).
+fn bolt_from_query(
+    standard: Option<&str>,
+    length_given: bool,
+    length: Option<Quantity>,
+    thread_length: Option<Quantity>,
+    problems: &mut Vec<FieldProblem>,
+) -> Option<BoltRequest> {
+    if standard.is_none() && !length_given && thread_length.is_none() {
+        return None;
+    }
+    if !length_given {
+        problems.push(FieldProblem::malformed(
+            "bolt_length",
+            "bolt_standard and bolt_thread_length need bolt_length",
+        ));
+    }
+    Some(BoltRequest {
+        standard: standard.map(str::to_string),
+        length,
+        thread_length,
+        shank_sections: None,
+    })
 }
 
 /// One value, or both ends of a range; anything else is refused.

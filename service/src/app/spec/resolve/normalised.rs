@@ -5,6 +5,9 @@
 
 use serde::Serialize;
 use sha2::{Digest, Sha256};
+use uom::si::length::millimeter;
+
+use crate::engine::joint::bolt::Bolt;
 
 use super::super::friction::{FrictionOrigin, ResolvedFriction};
 
@@ -36,6 +39,36 @@ pub(super) struct Normalised<'a> {
     pub engagement_length_mm: Option<f64>,
     pub required_clamp_load_n: Option<f64>,
     pub window_mode: &'static str,
+    /// Left out when no bolt is described, so the hash of a request without
+    /// `bolt` is what it was before `bolt` existed.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub bolt: Option<NormalisedBolt>,
+}
+
+/// The described bolt after validation: lengths in mm, the shank sections
+/// from under the head as `[length, diameter]`. A standard bolt and the same
+/// bolt given by its lengths are one spec.
+#[derive(Serialize)]
+pub(super) struct NormalisedBolt {
+    pub length_mm: f64,
+    pub thread_length_mm: f64,
+    pub shank_mm: Vec<[f64; 2]>,
+    pub socket_head: bool,
+}
+
+impl From<&Bolt> for NormalisedBolt {
+    fn from(b: &Bolt) -> Self {
+        Self {
+            length_mm: b.length.get::<millimeter>(),
+            thread_length_mm: b.thread_length.get::<millimeter>(),
+            shank_mm: b
+                .shank
+                .iter()
+                .map(|s| [s.length.get::<millimeter>(), s.diameter.get::<millimeter>()])
+                .collect(),
+            socket_head: b.socket_head,
+        }
+    }
 }
 
 #[derive(Serialize)]

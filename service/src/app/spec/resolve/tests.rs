@@ -1,6 +1,6 @@
 use super::*;
 use crate::app::quantity::Quantity;
-use crate::app::spec::request::{BearingInput, FrictionInput};
+use crate::app::spec::request::{BearingInput, BoltRequest, FrictionInput, ShankSectionInput};
 use crate::app::ProblemClass;
 use crate::engine::angle::JointType;
 
@@ -223,6 +223,48 @@ mod no_panic {
             match resolve(&req, &snap) {
                 Ok(r) => { let _ = compute(&r.input); }
                 Err(e) => prop_assert!(!e.problems().is_empty()),
+            }
+        }
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(300))]
+        /// Any bolt with the audit's joint: a spec, or problems each naming a
+        /// `bolt` field or the clamp length; never a panic.
+        #[test]
+        fn arbitrary_bolts_never_panic(
+            standard in proptest::option::of(prop_oneof![
+                Just("iso-4014".to_string()), Just("iso-4762".to_string()), text()
+            ]),
+            length in quantity(),
+            thread_length in quantity(),
+            sections in proptest::option::of(proptest::collection::vec((quantity(), quantity()), 0..10)),
+            clamp in quantity(),
+        ) {
+            let shank_sections = sections.map(|v| {
+                v.into_iter()
+                    .filter_map(|(l, d)| Some(ShankSectionInput { length: l?, diameter: d? }))
+                    .collect()
+            });
+            let req = SpecRequest {
+                thread: "M12".into(),
+                property_class: "10.9".into(),
+                thread_friction: Some(FrictionInput::Single(0.12)),
+                bearing_friction: Some(FrictionInput::Single(0.12)),
+                clamp_length: clamp,
+                clamped_material: Some("steel".into()),
+                joint_outer_diameter: Some(mm(30.0)),
+                bolt: Some(BoltRequest { standard, length, thread_length, shank_sections }),
+                ..SpecRequest::default()
+            };
+            match resolve(&req, &Snapshot::seed()) {
+                Ok(r) => { let _ = compute(&r.input); }
+                Err(e) => {
+                    prop_assert!(!e.problems().is_empty());
+                    for p in e.problems() {
+                        prop_assert!(p.field.starts_with("bolt") || p.field.starts_with("clamp_length"), "{p:?}");
+                    }
+                }
             }
         }
     }

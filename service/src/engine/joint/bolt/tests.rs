@@ -56,6 +56,12 @@ fn thread_length_from_the_standards_b_column() {
         standard_thread_length(BoltStandard::Iso4014, &metric(12.0, 1.75), mm(30.0)).unwrap_err();
     assert_eq!(e.field(), "bolt.length");
     assert!("ISO 4762".parse::<BoltStandard>().unwrap() == BoltStandard::Iso4762);
+    for name in ["asme-b18.2.1", "ASME B18.2.1 hex cap screw"] {
+        assert_eq!(
+            name.parse::<BoltStandard>().unwrap(),
+            BoltStandard::AsmeB1821HexCapScrew
+        );
+    }
     assert_eq!(
         "iso-4016".parse::<BoltStandard>().unwrap_err().field(),
         "bolt.standard"
