@@ -67,6 +67,7 @@ pub struct JointListQuery {
     /// Only joints carrying this tag.
     pub tag: Option<String>,
     /// `due`: only joints marked for review after a catalogue change.
+    #[param(inline)]
     pub review: Option<ReviewFilter>,
     /// Joints per page, 1–500 (default 50).
     pub limit: Option<u32>,

@@ -212,4 +212,36 @@ mod tests {
             "a key outside the schema is refused"
         );
     }
+
+    /// Every `"$ref"` string anywhere below `v`.
+    fn refs<'a>(v: &'a Value, out: &mut Vec<&'a str>) {
+        match v {
+            Value::Object(map) => {
+                for (k, child) in map {
+                    match (k.as_str(), child) {
+                        ("$ref", Value::String(r)) => out.push(r),
+                        _ => refs(child, out),
+                    }
+                }
+            }
+            Value::Array(items) => items.iter().for_each(|i| refs(i, out)),
+            _ => {}
+        }
+    }
+
+    #[test]
+    fn every_reference_in_the_document_resolves() {
+        let doc = serde_json::to_value(super::document()).expect("json");
+        let mut found = Vec::new();
+        refs(&doc, &mut found);
+        assert!(found.len() > 100, "references walked: {}", found.len());
+        let dangling: BTreeSet<&str> = found
+            .into_iter()
+            .filter(|r| {
+                let pointer = r.strip_prefix('#').unwrap_or(r);
+                doc.pointer(pointer).is_none()
+            })
+            .collect();
+        assert!(dangling.is_empty(), "references to nothing: {dangling:?}");
+    }
 }
