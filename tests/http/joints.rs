@@ -108,6 +108,9 @@ async fn engineer_defines_reads_lists_and_changes_a_joint(db: &TestDb) {
     assert_eq!(ids(&all), ["K4-FA-001", "K4-RA-017", "K4-RA-018"]);
     let due = app.get_json("/v1/joints?review=due").await;
     assert_eq!(ids(&due), Vec::<String>::new());
+    // no release yet: no joint has a released one
+    let released = app.get_json("/v1/joints?status=released").await;
+    assert_eq!(ids(&released), Vec::<String>::new());
     // a review mark (set in the store, as a catalogue revision will) shows
     // in the filter and in the joint
     let store = Store::open(Some(&db.url)).await.expect("store");
@@ -259,6 +262,13 @@ async fn refused_joint_writes_name_their_fields_and_write_nothing(db: &TestDb) {
     )
     .await;
     assert_eq!(problem_fields(&p), ["limit"]);
+    let p = problem(
+        app.get("/v1/joints?status=relased").await,
+        StatusCode::UNPROCESSABLE_ENTITY,
+    )
+    .await;
+    assert_eq!(problem_fields(&p), ["status"]);
+    assert_eq!(p["errors"][0]["suggestions"][0], "released");
 
     // a reader's token may read but not define
     let r = app

@@ -18,7 +18,7 @@ use super::spec::{compute_one, SpecRequest};
 use super::{App, AppError, FieldProblem};
 use crate::catalogue::ChangeProblem;
 use crate::registry::joint::TAG_MAX;
-use crate::registry::{Joint, JointDefinition, JointId, Page, RegistryError};
+use crate::registry::{Joint, JointDefinition, JointId, Page, RegistryError, ReleaseStatus};
 use crate::store::joints::JointFilter;
 use crate::store::{RegistryStoreError, StoreError};
 
@@ -92,6 +92,9 @@ impl From<&Joint> for JointView {
 #[derive(Debug, Clone, Default, PartialEq)]
 pub struct JointQuery {
     pub tag: Option<String>,
+    /// Only joints with a release now at this status (`draft`, `released`,
+    /// `superseded`, `withdrawn`).
+    pub status: Option<String>,
     /// Only joints whose review is due.
     pub review_due: bool,
     pub limit: Option<u32>,
@@ -324,12 +327,24 @@ impl App {
                 ));
             }
         }
+        let status = match q
+            .status
+            .as_deref()
+            .map(|g| ReleaseStatus::named("status", g))
+        {
+            Some(Err(p)) => {
+                problems.push(p);
+                None
+            }
+            Some(Ok(status)) => Some(status),
+            None => None,
+        };
         let Some(page) = page.filter(|_| problems.is_empty()) else {
             return Err(invalid(problems));
         };
         let filter = JointFilter {
             tag: q.tag.clone(),
-            status: None,
+            status,
             review_due: q.review_due.then_some(true),
         };
         // One more than the page: whether a next page exists.

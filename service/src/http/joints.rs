@@ -66,6 +66,9 @@ pub enum ReviewFilter {
 pub struct JointListQuery {
     /// Only joints carrying this tag.
     pub tag: Option<String>,
+    /// Only joints with a release now at this status: `draft`, `released`,
+    /// `superseded` or `withdrawn`.
+    pub status: Option<String>,
     /// `due`: only joints marked for review after a catalogue change.
     #[param(inline)]
     pub review: Option<ReviewFilter>,
@@ -101,7 +104,7 @@ fn view(joint: JointView, status: StatusCode) -> HttpResponse {
         (status = 200, description = "A page of joints", body = JointList),
         (status = 400, description = "Malformed query"),
         (status = 401, description = "Token required or not accepted"),
-        (status = 422, description = "Bad limit, cursor or tag"),
+        (status = 422, description = "Bad limit, cursor, tag or status"),
         (status = 503, description = "Database unavailable"),
     )
 )]
@@ -116,6 +119,7 @@ async fn list_joints(
         .app
         .joints(&JointQuery {
             tag: q.tag,
+            status: q.status,
             review_due: q.review.is_some(),
             limit: q.limit,
             after: q.after,

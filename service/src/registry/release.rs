@@ -46,6 +46,22 @@ impl ReleaseStatus {
         Self::ALL.into_iter().find(|st| st.as_str() == s)
     }
 
+    /// The status `given` names, or the problem naming `field` with the
+    /// nearest status.
+    pub fn named(field: &str, given: &str) -> Result<ReleaseStatus, ChangeProblem> {
+        Self::parse(given).ok_or_else(|| {
+            let known = Self::ALL.map(Self::as_str);
+            ChangeProblem::new(
+                field,
+                format!(
+                    "'{given}' is not a release status; use one of {}",
+                    known.join(", ")
+                ),
+            )
+            .with_suggestions(crate::catalogue::error::suggest(given, known.into_iter()))
+        })
+    }
+
     /// Whether a release may go from `self` to `to`.
     pub fn may_become(self, to: ReleaseStatus) -> bool {
         use ReleaseStatus::*;
