@@ -10,9 +10,9 @@ use super::bolt::{bolt, in_clamp_length, BoltInput, BoltStandard};
 use super::embedding::{embedding, Loading, Surfaces};
 use super::load_factor::load_factor;
 use super::working::{working_state, Loads, ThreadRolling, WorkingInput};
-use crate::engine::angle::{resilience, JointInput, JointType};
+use crate::engine::angle::{resilience, JointType};
 use crate::engine::checks::{Severity, SLIP_SAFETY};
-use crate::engine::tightening::fixtures::{bearing, m12_10_9_input, metric, mm, mpa};
+use crate::engine::tightening::fixtures::{bearing, m12_10_9_input, metric, mm, mpa, steel_joint};
 use crate::engine::window::maximum_window;
 
 fn kn(v: f64) -> Force {
@@ -42,17 +42,7 @@ fn embedding_turns_the_audit_margin_into_a_shortfall() {
         "nut",
     )
     .unwrap();
-    let j = JointInput {
-        clamp_length: Some(mm(15.0)),
-        joint_type: JointType::ThroughBolted,
-        clamped_modulus: Some(mpa(205_000.0)),
-        nut_modulus: None,
-        bolt_modulus: None,
-        outer_diameter: Some(mm(30.0)),
-        socket_head: clamped.socket_head,
-        shank_sections: clamped.shank_sections,
-        snug_torque: None,
-    };
+    let j = steel_joint(15.0, clamped.shank_sections, clamped.socket_head);
     let r = resilience(&t, &b, &j, mm(15.0), mm(30.0)).unwrap();
     let lf = load_factor(r.bolt, r.clamped_parts, None).unwrap();
     let surfaces = Surfaces::of_stack(JointType::ThroughBolted, 2).unwrap();

@@ -107,3 +107,25 @@ pub fn m12_10_9_input<'a>(
         prevailing_torque: crate::engine::window::no_prevailing_torque(),
     }
 }
+
+/// The through-bolted steel joint of the joint-model regressions: plates
+/// of E = 205 000 N/mm² (VDI 2230 Part 1 steel value, recalled from
+/// memory), outer diameter D_A 30 mm, clamp length `clamp_mm`, the bolt's
+/// shank sections inside it.
+pub fn steel_joint(
+    clamp_mm: f64,
+    shank_sections: Vec<crate::engine::angle::ShankSection>,
+    socket_head: bool,
+) -> crate::engine::angle::JointInput {
+    crate::engine::angle::JointInput {
+        clamp_length: Some(mm(clamp_mm)),
+        joint_type: crate::engine::angle::JointType::ThroughBolted,
+        clamped_modulus: Some(mpa(205_000.0)),
+        nut_modulus: None,
+        bolt_modulus: None,
+        outer_diameter: Some(mm(30.0)),
+        socket_head,
+        shank_sections,
+        snug_torque: None,
+    }
+}

@@ -3,9 +3,11 @@ use uom::si::length::{inch, millimeter};
 
 use super::{bolt, in_clamp_length, standard_thread_length, BoltInput, BoltStandard};
 use crate::engine::angle::ShankSection;
-use crate::engine::angle::{angle_window, AngleOutcome, AngleWindow, JointInput, JointType};
+use crate::engine::angle::{angle_window, AngleOutcome, AngleWindow};
 use crate::engine::quantity::Utilisation;
-use crate::engine::tightening::fixtures::{bearing, m12_10_9_input, metric, mm, mpa, unified};
+use crate::engine::tightening::fixtures::{
+    bearing, m12_10_9_input, metric, mm, mpa, steel_joint, unified,
+};
 use crate::engine::tightening::permissible_preload;
 use crate::engine::window::maximum_window;
 
@@ -170,21 +172,15 @@ fn audit_window(shank_aware: bool) -> (AngleWindow, f64) {
     };
     let clamped =
         in_clamp_length(&bolt(&t, &standard).unwrap(), mm(40.0), mm(10.0), "nut").unwrap();
-    let j = JointInput {
-        clamp_length: Some(mm(40.0)),
-        joint_type: JointType::ThroughBolted,
-        clamped_modulus: Some(mpa(205_000.0)),
-        nut_modulus: None,
-        bolt_modulus: None,
-        outer_diameter: Some(mm(30.0)),
-        socket_head: clamped.socket_head,
-        shank_sections: if shank_aware {
+    let j = steel_joint(
+        40.0,
+        if shank_aware {
             clamped.shank_sections
         } else {
             Vec::new()
         },
-        snug_torque: None,
-    };
+        clamped.socket_head,
+    );
     let AngleOutcome::Computed(a) = angle_window(&i, &b, &j, &w).unwrap() else {
         panic!("angle not computed");
     };

@@ -2,8 +2,8 @@ use uom::si::force::kilonewton;
 use uom::si::length::micrometer;
 
 use super::*;
-use crate::engine::angle::{resilience, JointInput};
-use crate::engine::tightening::fixtures::{bearing, metric, mm, mpa};
+use crate::engine::angle::resilience;
+use crate::engine::tightening::fixtures::{bearing, metric, mm, steel_joint};
 
 fn um(v: f64) -> Length {
     Length::new::<micrometer>(v)
@@ -84,17 +84,7 @@ fn surfaces_of_a_stack() {
 fn audit_m12_clamp_length_15_loses_about_4_8_kn() {
     let t = metric(12.0, 1.75);
     let b = bearing(16.63, 13.5);
-    let j = JointInput {
-        clamp_length: Some(mm(15.0)),
-        joint_type: JointType::ThroughBolted,
-        clamped_modulus: Some(mpa(205_000.0)),
-        nut_modulus: None,
-        bolt_modulus: None,
-        outer_diameter: Some(mm(30.0)),
-        socket_head: false,
-        shank_sections: Vec::new(),
-        snug_torque: None,
-    };
+    let j = steel_joint(15.0, Vec::new(), false);
     let r = resilience(&t, &b, &j, mm(15.0), mm(30.0)).unwrap();
     let s = Surfaces::of_stack(JointType::ThroughBolted, 2).unwrap();
     let e = embedding(um(16.0), Loading::Axial, s, r.bolt, r.clamped_parts).unwrap();
