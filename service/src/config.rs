@@ -36,6 +36,16 @@ pub struct Config {
         action = clap::ArgAction::Set
     )]
     pub anonymous_reads: bool,
+    /// The four-eyes rule for joint releases: a release starts as a draft
+    /// and becomes active only when a second person with the role
+    /// `approver` approves it. Off: a release is active at once.
+    #[arg(
+        long,
+        env = "TIGHTSPEC_FOUR_EYES",
+        default_value_t = false,
+        action = clap::ArgAction::Set
+    )]
+    pub four_eyes: bool,
     /// Largest accepted request body in bytes (larger bodies get 413).
     #[arg(long, env = "TIGHTSPEC_MAX_BODY_BYTES", default_value_t = DEFAULT_MAX_BODY_BYTES)]
     pub max_body_bytes: usize,
@@ -142,6 +152,7 @@ impl Config {
             listen: "127.0.0.1:0".to_string(),
             database_url: None,
             anonymous_reads: true,
+            four_eyes: false,
             max_body_bytes: DEFAULT_MAX_BODY_BYTES,
             shutdown_timeout_secs: 5,
             workers: 2,

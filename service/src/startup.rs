@@ -129,7 +129,9 @@ impl Application {
     /// the in-memory catalogue current, binds `config.listen` and prepares
     /// the server.
     pub async fn build(config: Config) -> Result<Self, StartupError> {
-        let context = crate::app::App::open(config.database_url.as_deref()).await?;
+        let context = crate::app::App::open(config.database_url.as_deref())
+            .await?
+            .with_four_eyes(config.four_eyes);
         let metrics = Metrics::new()?;
         let openapi_json: Arc<str> = openapi::document_json()?.into();
         let settings = HttpSettings {

@@ -26,9 +26,17 @@ impl Drop for Instance {
 }
 
 pub async fn start(database_url: &str, anonymous_reads: bool) -> Instance {
+    start_with(database_url, |c| c.anonymous_reads = anonymous_reads).await
+}
+
+/// A service instance on `database_url` with settings changed by `set`.
+pub async fn start_with(
+    database_url: &str,
+    set: impl FnOnce(&mut tightspec::config::Config),
+) -> Instance {
     let mut config = tightspec::config::Config::local();
     config.database_url = Some(database_url.to_string());
-    config.anonymous_reads = anonymous_reads;
+    set(&mut config);
     let app = tightspec::startup::Application::build(config)
         .await
         .unwrap_or_else(|e| panic!("service did not start on {database_url}: {e}"));

@@ -20,7 +20,7 @@ on_both_backends!(every_acknowledged_write_survives_kill_9);
 
 /// The running binary; killed and reaped when dropped (also when a test
 /// fails half-way).
-struct Server(Child);
+pub struct Server(pub Child);
 
 impl Drop for Server {
     fn drop(&mut self) {
@@ -30,7 +30,7 @@ impl Drop for Server {
 }
 
 /// The binary serving `db` on a free port; waits (bounded) until it answers.
-async fn serve(db: &TestDb) -> (Server, String) {
+pub async fn serve(db: &TestDb) -> (Server, String) {
     let port = std::net::TcpListener::bind("127.0.0.1:0")
         .and_then(|l| l.local_addr())
         .map(|a| a.port())

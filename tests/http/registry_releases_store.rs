@@ -63,7 +63,7 @@ async fn release(
 ) -> Result<Release, RegistryStoreError> {
     let new = new_release(joint, "editor-a", reason);
     store
-        .write_release(&new, first, &released_event(joint))
+        .write_release(&new, first, |_| Some(released_event(joint)))
         .await
 }
 
@@ -90,7 +90,10 @@ async fn a_release_is_frozen_with_its_event_and_outbox_row(db: &TestDb) {
 
     let new = new_release("K4-RA-017", "editor-a", "first release");
     let ev = released_event("K4-RA-017");
-    let first = store.write_release(&new, K::Released, &ev).await.unwrap();
+    let first = store
+        .write_release(&new, K::Released, |_| Some(ev.clone()))
+        .await
+        .unwrap();
     assert_eq!((first.number, first.status), (1, S::Released));
     assert_eq!(
         (first.spec.as_str(), first.setpoints.as_str()),
@@ -268,7 +271,7 @@ async fn concurrent_releases_get_distinct_numbers(db: &TestDb) {
             tokio::spawn(async move {
                 let new = new_release("K4-RA-017", "editor", &format!("release {n}"));
                 store
-                    .write_release(&new, K::Released, &released_event("K4-RA-017"))
+                    .write_release(&new, K::Released, |_| Some(released_event("K4-RA-017")))
                     .await
             })
         })
@@ -296,11 +299,14 @@ async fn a_release_whose_outbox_row_fails_leaves_nothing(db: &TestDb) {
     let store = with_joints(db, &["K4-RA-017"]).await;
     let ev = released_event("K4-RA-017");
     let new = new_release("K4-RA-017", "editor-a", "first");
-    store.write_release(&new, K::Released, &ev).await.unwrap();
+    store
+        .write_release(&new, K::Released, |_| Some(ev.clone()))
+        .await
+        .unwrap();
     // the outbox refuses a second row with the same event id: the release,
     // its first event and the superseding of release 1 are rolled back with it
     let err = store
-        .write_release(&new, K::Released, &ev)
+        .write_release(&new, K::Released, |_| Some(ev.clone()))
         .await
         .unwrap_err();
     assert!(

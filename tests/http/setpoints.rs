@@ -76,10 +76,51 @@ async fn rounding_never_leaves_the_window() {
                         "{url}: {v} not a step of {res}"
                     );
                 }
-                assert_eq!(sp["spec_hash"], spec["spec_hash"]);
+                // the tool's unit and resolution are in the setpoints' hash
+                assert_ne!(sp["spec_hash"], spec["spec_hash"]);
             }
         }
     }
+}
+
+/// Regression: the hash covers the tool's unit and resolutions, so one spec
+/// given as N·m and as lbf·ft (or at two resolutions) is two hashes, and the
+/// same query is one; answers carry the service and method versions.
+#[tokio::test]
+async fn the_setpoint_hash_covers_unit_and_resolution() {
+    let app = spawn().await;
+    let mut hashes = Vec::new();
+    for tool in [
+        "torque_unit=N.m&resolution=0.1",
+        "torque_unit=lbf.ft&resolution=0.1",
+        "torque_unit=lbf.ft&resolution=1",
+    ] {
+        let (st, sp) = json(app.get(&format!("/v1/setpoints?{Q}&{tool}")).await).await;
+        assert_eq!(st, 200, "{tool}: {sp}");
+        assert_eq!(sp["service_version"], env!("CARGO_PKG_VERSION"));
+        assert_eq!(sp["method_version"], tightspec::engine::METHOD_VERSION);
+        hashes.push(sp["spec_hash"].as_str().unwrap().to_string());
+    }
+    for (i, a) in hashes.iter().enumerate() {
+        for b in &hashes[i + 1..] {
+            assert_ne!(a, b);
+        }
+    }
+    let (_, again) = json(
+        app.get(&format!("/v1/setpoints?{Q}&torque_unit=N.m&resolution=0.1"))
+            .await,
+    )
+    .await;
+    assert_eq!(again["spec_hash"], hashes[0].as_str());
+    // a torque-controlled answer has no angle window: its angle step changes nothing
+    let (_, angle) = json(
+        app.get(&format!(
+            "/v1/setpoints?{Q}&torque_unit=N.m&resolution=0.1&angle_resolution=2"
+        ))
+        .await,
+    )
+    .await;
+    assert_eq!(angle["spec_hash"], hashes[0].as_str());
 }
 
 #[tokio::test]

@@ -14,6 +14,8 @@ use crate::store::Store;
 pub struct App {
     store: Store,
     live: Arc<Live>,
+    /// The four-eyes rule for joint releases (see `app::releases`).
+    four_eyes: bool,
 }
 
 impl App {
@@ -28,7 +30,24 @@ impl App {
             revision = live.revision(),
             "catalogue loaded"
         );
-        Ok(Self { store, live })
+        Ok(Self {
+            store,
+            live,
+            four_eyes: false,
+        })
+    }
+
+    /// The same context with the four-eyes rule on or off: on, a release
+    /// starts as a draft that a second person with the role `approver`
+    /// must approve; off, a release is active at once.
+    pub fn with_four_eyes(mut self, on: bool) -> Self {
+        self.four_eyes = on;
+        self
+    }
+
+    /// Whether the four-eyes rule is on.
+    pub fn four_eyes(&self) -> bool {
+        self.four_eyes
     }
 
     /// Starts the task that keeps the live catalogue in step with the

@@ -94,9 +94,14 @@ pub enum AppError {
         detail: String,
         current: Box<super::joints::JointView>,
     },
-    /// A uniqueness rule refused the change.
+    /// A uniqueness rule or the current state refused the change.
     #[error("{field}: {reason}")]
     Conflict { field: String, reason: String },
+    /// The caller's role allows the action in general, but a rule forbids
+    /// it to this caller (the four-eyes rule: no one approves their own
+    /// release).
+    #[error("{detail}")]
+    Forbidden { detail: String },
     /// The database cannot be reached; retry later.
     #[error("the catalogue database is unavailable: {reason}")]
     Unavailable { reason: String },

@@ -21,6 +21,9 @@
 //! - `joints` — the joint registry's definitions: define, read, list (by
 //!   tag, due review, pages of ids) and change from an expected version;
 //!   [`joints::JointView`] as both adapters render it.
+//! - `releases` — joint releases: release (compute and freeze the spec
+//!   and setpoints), approve (four-eyes rule), withdraw, list, read, and
+//!   the frozen answer the line fetches by joint id.
 //! - `tokens` — API tokens: create, list, revoke, find by secret.
 
 pub mod catalogue;
@@ -31,6 +34,7 @@ pub mod joints;
 pub mod quantity;
 pub mod reading;
 pub mod reference;
+pub mod releases;
 pub mod spec;
 pub mod tokens;
 

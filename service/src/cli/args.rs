@@ -39,6 +39,13 @@ pub enum Command {
         #[command(subcommand)]
         command: super::catalogue::CatalogueCommand,
     },
+    /// The joint registry: list, show, release, approve, withdraw.
+    Joint {
+        #[command(flatten)]
+        db: DatabaseArgs,
+        #[command(flatten)]
+        joint: super::joint::JointArgs,
+    },
     /// Friction tests: evaluate a torque–tension series.
     #[command(subcommand)]
     Friction(super::friction::FrictionCommand),

@@ -4,6 +4,7 @@
 mod args;
 pub mod catalogue;
 pub mod friction;
+pub mod joint;
 pub mod openapi;
 pub mod spec;
 pub mod token;
@@ -41,6 +42,12 @@ pub async fn run(command: Command) -> ExitCode {
         Command::Catalogue { db, command } => {
             let mut out = std::io::stdout();
             catalogue::run(&command, db.database_url.as_deref(), &mut out)
+                .await
+                .map_err(|e| e.to_string())
+        }
+        Command::Joint { db, joint } => {
+            let mut out = std::io::stdout();
+            joint::run(&joint, db.database_url.as_deref(), &mut out)
                 .await
                 .map_err(|e| e.to_string())
         }

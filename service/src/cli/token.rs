@@ -18,7 +18,8 @@ pub enum TokenCommand {
         /// Name recorded as the author of every change made with the token.
         #[arg(long)]
         name: String,
-        /// reader (reads), editor (catalogue changes) or admin (tokens).
+        /// reader (reads), editor (catalogue and joint changes, releases),
+        /// approver (also approves others' releases) or admin (tokens).
         #[arg(long, value_parser = parse_role)]
         role: Role,
         /// Expiry: a duration from now (`90d`, `12h`, `30m`, `2w`) or an
@@ -36,7 +37,8 @@ pub enum TokenCommand {
 }
 
 pub fn parse_role(s: &str) -> Result<Role, String> {
-    Role::parse(s).ok_or_else(|| format!("unknown role '{s}': use reader, editor or admin"))
+    Role::parse(s)
+        .ok_or_else(|| format!("unknown role '{s}': use reader, editor, approver or admin"))
 }
 
 /// Reads `--expires`: a duration (`90d`, `12h`, `30m`, `2w`) or an RFC 3339

@@ -30,3 +30,11 @@ pub mod tightening;
 pub mod window;
 
 pub use error::EngineError;
+
+/// The version of the engine's method: the VDI 2230 Part 1:2015 model as
+/// this engine implements it, with its tables and rules. Raised by one
+/// whenever a change to the engine can change a computed answer for the
+/// same request and catalogue; every spec and setpoint answer carries it
+/// and its `spec_hash` covers it, so an answer computed by another method
+/// version never shares a hash with this one.
+pub const METHOD_VERSION: &str = "1";

@@ -1,5 +1,5 @@
 //! Bearer-token authentication and roles. Handlers ask for what they need
-//! by taking one of the extractors [`Reader`], [`Editor`] or [`Admin`];
+//! by taking one of the extractors [`Reader`], [`Editor`], [`Approver`] or [`Admin`];
 //! the [`Authenticator`] (held in `AppState`) checks the token through the
 //! application (`App::find_token`): 401 for a missing, unknown, revoked or expired token, 403 for
 //! a role that may not do it. Reads may be allowed anonymously by
@@ -209,6 +209,11 @@ role_extractor!(
     Role::Editor
 );
 role_extractor!(
+    /// A caller allowed to approve a release (the four-eyes rule).
+    Approver,
+    Role::Approver
+);
+role_extractor!(
     /// A caller allowed to manage tokens.
     Admin,
     Role::Admin
@@ -227,7 +232,7 @@ impl utoipa::Modify for BearerScheme {
                 HttpBuilder::new()
                     .scheme(HttpAuthScheme::Bearer)
                     .description(Some(
-                        "API token (tightspec token create); roles reader < editor < admin",
+                        "API token (tightspec token create); roles reader < editor < approver < admin",
                     ))
                     .build(),
             ),

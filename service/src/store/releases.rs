@@ -110,6 +110,8 @@ enum Which {
     Number(i64),
     /// Those whose current status is this one, newest first.
     Status(ReleaseStatus),
+    /// Every one, newest first.
+    All,
 }
 
 async fn releases_in(tx: &mut Tx, id: &JointId, which: Which) -> Result<Vec<Release>, StoreError> {
@@ -128,6 +130,13 @@ async fn releases_in(tx: &mut Tx, id: &JointId, which: Which) -> Result<Vec<Rele
             dispatch!(Tx, tx, |c| sqlx::query_as(&sql)
                 .bind(id.as_str())
                 .bind(status.as_str())
+                .fetch_all(&mut **c)
+                .await?)
+        }
+        Which::All => {
+            let sql = format!("{SELECT} ORDER BY r.number DESC");
+            dispatch!(Tx, tx, |c| sqlx::query_as(&sql)
+                .bind(id.as_str())
                 .fetch_all(&mut **c)
                 .await?)
         }
@@ -200,14 +209,14 @@ async fn one_in(tx: &mut Tx, id: &JointId, number: i64) -> Result<Release, Store
 
 impl Store {
     /// Writes a release with the next number, its first event (`requested`:
-    /// a draft; `released`: active at once) and `event` in the outbox, in
-    /// one transaction.
+    /// a draft; `released`: active at once) and the outbox event `event`
+    /// makes of the written release (if any), in one transaction.
     #[tracing::instrument(skip(self, new, event), level = "debug", fields(id = %new.joint_id))]
     pub async fn write_release(
         &self,
         new: &NewRelease,
         first: ReleaseEventKind,
-        event: &OutboxEvent,
+        event: impl FnOnce(&Release) -> Option<OutboxEvent>,
     ) -> Result<Release, RegistryStoreError> {
         new.check()?;
         let status = first.apply(None, "status")?;
@@ -252,8 +261,10 @@ impl Store {
         if status == ReleaseStatus::Released {
             activate(&mut tx, id, number, &new.requested_by, now).await?;
         }
-        outbox::insert_in(&mut tx, event).await?;
         let release = one_in(&mut tx, id, number).await?;
+        if let Some(event) = event(&release) {
+            outbox::insert_in(&mut tx, &event).await?;
+        }
         tx.commit().await?;
         Ok(release)
     }
@@ -325,6 +336,20 @@ impl Store {
         let active = releases_in(&mut tx, id, Which::Status(ReleaseStatus::Released)).await?;
         tx.commit().await?;
         Ok(active.into_iter().next())
+    }
+
+    /// Every release of the joint, newest first (an unknown joint is
+    /// `NotFound` naming `id`).
+    #[tracing::instrument(skip(self), level = "debug")]
+    pub async fn releases(&self, id: &JointId) -> Result<Vec<Release>, StoreError> {
+        let mut tx = Tx::read(self).await?;
+        if joints::joint_in(&mut tx, id).await?.is_none() {
+            tx.commit().await?;
+            return Err(joints::not_found(id));
+        }
+        let all = releases_in(&mut tx, id, Which::All).await?;
+        tx.commit().await?;
+        Ok(all)
     }
 
     /// The status events of release `number`, oldest first.

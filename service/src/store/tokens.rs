@@ -31,8 +31,11 @@ use crate::catalogue::CatalogueError;
 pub enum Role {
     /// Read the catalogue and specifications.
     Reader,
-    /// Change the catalogue.
+    /// Change the catalogue, define joints and request releases.
     Editor,
+    /// Everything an editor may, and approve a joint's release requested by
+    /// someone else (the four-eyes rule).
+    Approver,
     /// Manage tokens.
     Admin,
 }
@@ -42,6 +45,7 @@ impl Role {
         match self {
             Role::Reader => "reader",
             Role::Editor => "editor",
+            Role::Approver => "approver",
             Role::Admin => "admin",
         }
     }
@@ -50,6 +54,7 @@ impl Role {
         match s.trim().to_ascii_lowercase().as_str() {
             "reader" => Some(Role::Reader),
             "editor" => Some(Role::Editor),
+            "approver" => Some(Role::Approver),
             "admin" => Some(Role::Admin),
             _ => None,
         }
@@ -290,6 +295,10 @@ mod tests {
         assert!(Role::Editor.allows(Role::Reader));
         assert!(!Role::Reader.allows(Role::Editor));
         assert!(!Role::Editor.allows(Role::Admin));
+        assert!(Role::Approver.allows(Role::Editor));
+        assert!(!Role::Editor.allows(Role::Approver));
+        assert!(Role::Admin.allows(Role::Approver));
+        assert_eq!(Role::parse("approver"), Some(Role::Approver));
         assert_eq!(Role::parse("Editor"), Some(Role::Editor));
         assert_eq!(Role::parse("root"), None);
     }

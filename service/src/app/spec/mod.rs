@@ -28,7 +28,13 @@ pub mod snapshot;
 pub mod tool;
 pub mod view;
 
+pub use crate::engine::METHOD_VERSION;
 pub use request::{SetpointQuery, SpecQuery, SpecRequest};
+pub use resolve::answer_hash;
+
+/// The service's version (the crate's, from its manifest): every spec and
+/// setpoint answer carries it and its `spec_hash` covers it.
+pub const SERVICE_VERSION: &str = env!("CARGO_PKG_VERSION");
 pub use resolve::{resolve, Resolved};
 
 use crate::app::AppError;

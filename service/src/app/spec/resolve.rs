@@ -30,7 +30,7 @@ mod bolt;
 mod normalised;
 mod parts;
 
-pub use normalised::content_hash;
+pub use normalised::{answer_hash, content_hash};
 use normalised::{friction_words, origin, Normalised, NormalisedBolt};
 use parts::{keep, Problems, Quantities};
 

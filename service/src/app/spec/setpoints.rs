@@ -111,6 +111,15 @@ pub fn setpoints(
         .cloned()
         .collect();
     let accepted_checks = gate(&found, &tool.accept)?;
+    // The angle resolution changes the answer only where there is an angle window.
+    let angle_step = angle
+        .as_ref()
+        .map(|a| a.resolution.to_string())
+        .unwrap_or_default();
+    let presentation = format!(
+        "setpoints|torque_unit={sym}|resolution={res}|angle_resolution={angle_step}|accepted={}",
+        accepted_checks.join(",")
+    );
     let checks = checks_out(&found);
     // The elastic-model caution goes with an angle window in the answer.
     let cautions = if angle.is_some() {
@@ -130,7 +139,9 @@ pub fn setpoints(
         angle,
         catalogue_revision: resolved.revision,
         catalogue_may_be_stale: stale,
-        spec_hash: resolved.content_hash.clone(),
+        spec_hash: super::answer_hash(&resolved.content_hash, &presentation),
+        service_version: super::SERVICE_VERSION,
+        method_version: super::METHOD_VERSION,
         has_errors: error_count(&checks) > 0,
         checks,
         accepted_checks,

@@ -66,8 +66,15 @@ pub struct SpecResponse {
     pub catalogue_may_be_stale: bool,
     /// `si` or `us`.
     pub units: Units,
-    /// SHA-256 (hex) of the normalised request and the catalogue revision.
+    /// SHA-256 (hex) of every input that changes this answer: the
+    /// normalised request, the catalogue revision, the unit system, the
+    /// engine method version and the service version.
     pub spec_hash: String,
+    /// The service's version that computed this answer.
+    pub service_version: &'static str,
+    /// The engine method version that computed this answer (raised when a
+    /// change to the engine can change an answer).
+    pub method_version: &'static str,
 }
 
 /// The response's unit system applied to `app::quantity` conversions.
@@ -334,6 +341,14 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
         catalogue_revision: resolved.revision,
         catalogue_may_be_stale: stale,
         units: resolved.units,
-        spec_hash: resolved.content_hash.clone(),
+        spec_hash: super::answer_hash(
+            &resolved.content_hash,
+            match resolved.units {
+                Units::Si => "units=si",
+                Units::Us => "units=us",
+            },
+        ),
+        service_version: super::SERVICE_VERSION,
+        method_version: super::METHOD_VERSION,
     }
 }

@@ -57,6 +57,7 @@ impl From<AppError> for ApiError {
                 detail,
                 errors: vec![FieldError::new(field, reason)],
             },
+            AppError::Forbidden { detail } => ApiError::Forbidden { detail },
             AppError::Unavailable { reason } => {
                 tracing::warn!(%reason, "catalogue database unavailable");
                 ApiError::Unavailable {

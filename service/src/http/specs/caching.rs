@@ -3,7 +3,8 @@
 //! - The content hash (`app::spec::resolve::content_hash`) identifies a spec: SHA-256 (hex) of the normalised
 //!   request (every input after defaults, names in their normal spelling,
 //!   numbers in SI) followed by the catalogue revision it was answered from.
-//!   The same hash appears in setpoint responses as `spec_hash`.
+//!   An answer's `spec_hash` (`app::spec::answer_hash`) adds its
+//!   presentation and the method and service versions.
 //! - The ETag adds the presentation (unit system, torque unit, resolution) to
 //!   the content hash, so two representations of one spec differ:
 //!   `"<first 32 hex digits of SHA-256(content hash | presentation)>"`.

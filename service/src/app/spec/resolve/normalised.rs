@@ -1,7 +1,10 @@
 //! The identity of a spec: the request after defaults, in normal spellings
 //! and SI numbers, serialised in a fixed field order and hashed with the
-//! catalogue revision (SHA-256, lower-case hex). The same hash is the spec's
-//! `spec_hash` and the base of its ETag.
+//! catalogue revision (SHA-256, lower-case hex): the content hash, the base
+//! of a look-up's ETag. An answer's `spec_hash` ([`answer_hash`]) adds what
+//! else changes the answer: its presentation (unit system; a tool's torque
+//! unit, resolutions and accepted checks), the engine method version and
+//! the service version.
 
 use serde::Serialize;
 use sha2::{Digest, Sha256};
@@ -97,6 +100,22 @@ pub fn content_hash(normalised: &[u8], revision: i64) -> String {
     hex::encode(h.finalize())
 }
 
+/// The `spec_hash` of an answer: SHA-256 (lower-case hex) of the content
+/// hash, the answer's presentation, the engine method version and the
+/// service version. Two answers that differ in any input share no hash
+/// (102.2 N·m and 75 lbf·ft of one spec are two hashes).
+pub fn answer_hash(content_hash: &str, presentation: &str) -> String {
+    let mut h = Sha256::new();
+    h.update(content_hash.as_bytes());
+    h.update(b"|presentation=");
+    h.update(presentation.as_bytes());
+    h.update(b"|method_version=");
+    h.update(crate::engine::METHOD_VERSION.as_bytes());
+    h.update(b"|service_version=");
+    h.update(env!("CARGO_PKG_VERSION").as_bytes());
+    hex::encode(h.finalize())
+}
+
 /// The friction source in words, for the engine's `friction_source`.
 pub(super) fn friction_words(f: &ResolvedFriction, revision: i64) -> String {
     let words = |o: &FrictionOrigin| match o {
@@ -123,7 +142,17 @@ pub(super) fn friction_words(f: &ResolvedFriction, revision: i64) -> String {
 
 #[cfg(test)]
 mod tests {
-    use super::content_hash;
+    use super::{answer_hash, content_hash};
+
+    #[test]
+    fn an_answer_hash_depends_on_its_presentation() {
+        let c = content_hash(b"{\"thread\":\"M10\"}", 1);
+        let a = answer_hash(&c, "units=si");
+        assert_eq!(a.len(), 64);
+        assert_ne!(a, c);
+        assert_ne!(a, answer_hash(&c, "units=us"));
+        assert_eq!(a, answer_hash(&c, "units=si"));
+    }
 
     #[test]
     fn hash_depends_on_request_and_revision() {

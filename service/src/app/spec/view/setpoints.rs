@@ -44,9 +44,15 @@ pub struct SetpointResponse {
     pub catalogue_revision: i64,
     /// True when the database is unreachable and the catalogue may be stale.
     pub catalogue_may_be_stale: bool,
-    /// SHA-256 (hex) of the normalised request and catalogue revision; the
-    /// same as `spec_hash` of the full spec.
+    /// SHA-256 (hex) of every input that changes this answer: the
+    /// normalised request, the catalogue revision, the torque unit, both
+    /// resolutions, the accepted checks, the engine method version and the
+    /// service version (so it differs from the full spec's `spec_hash`).
     pub spec_hash: String,
+    /// The service's version that computed this answer.
+    pub service_version: &'static str,
+    /// The engine method version that computed this answer.
+    pub method_version: &'static str,
     /// Every check of the spec, then the checks of the window at the
     /// tool's resolution (`setpoint_window_under_two_steps`,
     /// `setpoint_window_zero_width`).
