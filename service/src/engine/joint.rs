@@ -15,6 +15,8 @@ pub mod bolt;
 pub mod controlled;
 pub mod embedding;
 pub mod load_factor;
+pub mod model;
+pub mod stack;
 pub mod working;
 
 #[cfg(test)]

@@ -193,6 +193,7 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
         required_clamp_load: q.required_clamp_load,
         window_mode: mode,
         flags,
+        joint_model: Default::default(),
     };
     refused(
         plausible::problems(&input)
