@@ -79,10 +79,8 @@ const LOADS: [&str; 8] = [
 fn the_loads_object_has_the_flat_fields() {
     use crate::app::spec::request::LoadsInput;
     let mut names = Names::new();
-    if let RefOr::T(schema) = LoadsInput::schema() {
-        if let Schema::Object(o) = &schema {
-            names.extend(o.properties.keys().cloned());
-        }
+    if let RefOr::T(Schema::Object(o)) = LoadsInput::schema() {
+        names.extend(o.properties.keys().cloned());
     }
     let flat: Names = LOADS.iter().map(|s| s.to_string()).collect();
     assert_eq!(names, flat);
