@@ -2,8 +2,10 @@
 //! every assumption out. A spec is auditable from its own output.
 //!
 //! `compute` runs: validation (`validate`) → torque window (forward, or inverse for a
-//! required clamp load) → clamp-load verdict → torque-angle → figures the
-//! trade reads (torque split, nut factor, total friction) → checks.
+//! required clamp load, after the embedding loss of the joint model
+//! (`joint`)) → clamp-load verdict → working state under loads →
+//! torque-angle → figures the trade reads (torque split, nut factor, total
+//! friction) → checks.
 
 use uom::si::f64::{Force, Length, Pressure, Torque};
 use uom::si::force::newton;
@@ -32,6 +34,7 @@ use super::EngineError;
 
 mod joint;
 mod validate;
+pub use validate::is_stainless_grade;
 use validate::{validate_bearing, validate_strength, validate_thread};
 
 /// How the window is chosen.
@@ -152,15 +155,6 @@ pub struct Spec {
     pub checks: Vec<Check>,
     /// The cautions that apply to this spec.
     pub cautions: CautionSet,
-}
-
-/// True for ISO 3506 austenitic grades (A1–A5, e.g. `A2-70`).
-pub fn is_stainless_grade(id: &str) -> bool {
-    let b = id.as_bytes();
-    b.len() >= 3
-        && b[0].eq_ignore_ascii_case(&b'a')
-        && (b'1'..=b'5').contains(&b[1])
-        && b[2] == b'-'
 }
 
 fn figures(w: &WindowInput, target: Torque, mu_th: f64, mu_b: f64) -> FrictionFigures {
