@@ -93,6 +93,7 @@ fn full_spec(n: &Names) -> Result<tightspec::engine::spec::Spec, EngineError> {
             electroplated: true,
             ..SpecFlags::default()
         },
+        joint_model: Default::default(),
     };
     compute(&input)
 }

@@ -208,6 +208,23 @@ impl Quantity {
         }
     }
 
+    /// A surface roughness (µm or µin).
+    pub fn roughness(l: Length, units: Units) -> Self {
+        match units {
+            Units::Si => Self::new(l.get::<length::micrometer>(), "µm"),
+            Units::Us => Self::new(l.get::<length::millimeter>() * 1e6 / MM_PER_IN, "µin"),
+        }
+    }
+
+    /// A resilience δ (elastic length change per force), from m/N: mm/N or in/lbf.
+    pub fn resilience(metre_per_newton: f64, units: Units) -> Self {
+        let mm_per_n = metre_per_newton * 1000.0;
+        match units {
+            Units::Si => Self::new(mm_per_n, "mm/N"),
+            Units::Us => Self::new(mm_per_n * N_PER_LBF / MM_PER_IN, "in/lbf"),
+        }
+    }
+
     pub fn area(a: Area, units: Units) -> Self {
         match units {
             Units::Si => Self::new(a.get::<area::square_millimeter>(), "mm²"),

@@ -214,11 +214,18 @@ pub fn table(s: &SpecResponse) -> String {
     if let Some(c) = &s.clamp_load {
         let _ = writeln!(
             o,
-            "Clamp load  required {}, lowest preload {}: {}",
+            "Clamp load  required {}, lowest clamp load {}{}: {}",
             force(&c.required),
             force(&c.achieved_min),
+            c.embedding_loss
+                .as_ref()
+                .map(|l| format!(" (after embedding loss {})", force(l)))
+                .unwrap_or_default(),
             if c.met { "met" } else { "NOT met" }
         );
+    }
+    if let Some(j) = &s.joint {
+        joint_table::lines(j, &mut o);
     }
     if !s.checks.is_empty() {
         let _ = writeln!(o, "\nChecks");
@@ -238,6 +245,7 @@ pub fn table(s: &SpecResponse) -> String {
     o
 }
 
+mod joint_table;
 #[cfg(test)]
 mod parameters;
 #[cfg(test)]

@@ -241,7 +241,7 @@ pub fn angle_window(
 }
 
 mod resilience;
-pub use resilience::{resilience, Resilience};
+pub use resilience::{deformation_cone, resilience, Resilience};
 
 #[cfg(test)]
 mod tests;

@@ -216,10 +216,18 @@ fn clamp_load(i: &CheckInput, out: &mut Vec<Check>) {
             code: "clamp_load_not_reached",
             severity: Severity::Error,
             message: format!(
-                "At the low end of the window (lowest torque, highest friction) the preload is \
-                 only {:.1} kN, below the required clamp load of {:.1} kN. Narrow the friction \
-                 range, use a tool with less scatter, or a larger or stronger bolt.",
+                "At the low end of the window (lowest torque, highest friction) the clamp load \
+                 is only {:.1} kN{}, below the required clamp load of {:.1} kN. Narrow the \
+                 friction range, use a tool with less scatter, or a larger or stronger bolt.",
                 v.achieved_min.value / 1e3,
+                if v.embedding_loss.value > 0.0 {
+                    format!(
+                        " after the embedding loss of {:.1} kN (VDI 2230 Part 1)",
+                        v.embedding_loss.value / 1e3
+                    )
+                } else {
+                    String::new()
+                },
                 v.required.value / 1e3
             ),
         });

@@ -2,18 +2,21 @@
 //! every assumption out. A spec is auditable from its own output.
 //!
 //! `compute` runs: validation (`validate`) → torque window (forward, or inverse for a
-//! required clamp load) → clamp-load verdict → torque-angle → figures the
-//! trade reads (torque split, nut factor, total friction) → checks.
+//! required clamp load, after the embedding loss of the joint model
+//! (`joint`)) → clamp-load verdict → working state under loads →
+//! torque-angle → figures the trade reads (torque split, nut factor, total
+//! friction) → checks.
 
 use uom::si::f64::{Force, Length, Pressure, Torque};
 use uom::si::force::newton;
 use uom::si::torque::newton_meter;
 
-use super::angle::{angle_window, steel_bolt_modulus, AngleOutcome, JointInput, JointType};
+use super::angle::{angle_window, AngleOutcome, JointInput};
 use super::bearing::BearingSurface;
 use super::cautions::CautionSet;
 use super::checks::{self, Check, CheckInput, TappedHole};
 use super::grade::Strength;
+use super::joint::model::{self, Assembled, JointModel, JointModelInput};
 use super::material::ClampedMaterial;
 use super::method::{MethodInfo, TighteningMethod};
 use super::plausible;
@@ -29,7 +32,9 @@ use super::window::{
 };
 use super::EngineError;
 
+mod joint;
 mod validate;
+pub use validate::is_stainless_grade;
 use validate::{validate_bearing, validate_strength, validate_thread};
 
 /// How the window is chosen.
@@ -88,6 +93,8 @@ pub struct SpecInput {
     pub required_clamp_load: Option<Force>,
     pub window_mode: WindowMode,
     pub flags: SpecFlags,
+    /// Clamped stack, roughness, load introduction, operating loads.
+    pub joint_model: JointModelInput,
 }
 
 /// Whether a value was given or defaulted.
@@ -140,20 +147,14 @@ pub struct Spec {
     pub clamp_load: Option<ClampLoadVerdict>,
     pub joint: Option<JointInput>,
     pub angle: AngleOutcome,
+    /// Resilience, load factor, embedding and working state, where the
+    /// joint is described.
+    pub joint_model: Option<JointModel>,
     pub at_min_friction: FrictionFigures,
     pub at_max_friction: FrictionFigures,
     pub checks: Vec<Check>,
     /// The cautions that apply to this spec.
     pub cautions: CautionSet,
-}
-
-/// True for ISO 3506 austenitic grades (A1–A5, e.g. `A2-70`).
-pub fn is_stainless_grade(id: &str) -> bool {
-    let b = id.as_bytes();
-    b.len() >= 3
-        && b[0].eq_ignore_ascii_case(&b'a')
-        && (b'1'..=b'5').contains(&b[1])
-        && b[2] == b'-'
 }
 
 fn figures(w: &WindowInput, target: Torque, mu_th: f64, mu_b: f64) -> FrictionFigures {
@@ -202,6 +203,9 @@ fn all_finite(s: &Spec) -> bool {
     }
     if let Some(c) = &s.clamp_load {
         ok &= fin(&[c.achieved_min.value, c.margin.value, c.margin_ratio]);
+    }
+    if let Some(m) = &s.joint_model {
+        ok &= model::all_finite(m);
     }
     if let AngleOutcome::Computed(a) = &s.angle {
         ok &= fin(&[
@@ -271,9 +275,14 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         utilisation: nu,
         prevailing_torque: prevailing,
     };
+    let joint = joint::prepare(input)?;
+    let mut joint_model =
+        model::assembly(thread, &input.bearing, joint.as_ref(), &input.joint_model)?;
+    let loss = model::embedding_loss(joint_model.as_ref());
     let window = match (input.window_mode, input.required_clamp_load) {
         (WindowMode::MaximumPreload, _) => maximum_window(&w_in)?,
-        (WindowMode::MinimumClampLoad, Some(req)) => clamp_load_window(&w_in, req)?
+        // The lowest window whose clamp load after embedding still suffices.
+        (WindowMode::MinimumClampLoad, Some(req)) => clamp_load_window(&w_in, req + loss)?
             .map_err(|none| EngineError::invalid("required_clamp_load", none.explanation()))?,
         (WindowMode::MinimumClampLoad, None) => {
             return Err(EngineError::invalid(
@@ -284,22 +293,19 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
     };
     let clamp_load = input
         .required_clamp_load
-        .map(|req| clamp_load_verdict(&window, req));
+        .map(|req| clamp_load_verdict(&window, req).after_embedding(loss));
+    if let Some(m) = joint_model.as_mut() {
+        let assembled = Assembled {
+            thread,
+            strength: &input.strength,
+            bearing: &input.bearing,
+            window: &window,
+            thread_friction: input.thread_friction,
+            clamped_material: input.clamped_material.as_ref(),
+        };
+        model::working(m, input.joint_model.loads.as_ref(), &assembled)?;
+    }
 
-    let joint = input.joint.clone().map(|mut j| {
-        // Defaults made visible in the output (inputs after defaults).
-        if j.clamped_modulus.is_none() {
-            j.clamped_modulus = input.clamped_material.as_ref().map(|m| m.elastic_modulus);
-        }
-        j.bolt_modulus = j.bolt_modulus.or(Some(steel_bolt_modulus()));
-        if j.nut_modulus.is_none() {
-            j.nut_modulus = match j.joint_type {
-                JointType::ThroughBolted => Some(steel_bolt_modulus()),
-                JointType::TappedHole => j.clamped_modulus,
-            };
-        }
-        j
-    });
     let angle = match &joint {
         Some(j) => angle_window(&w_in, &input.bearing, j, &window)?,
         None => AngleOutcome::NotComputed {
@@ -313,7 +319,7 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
     let at_min_friction = figures(&w_in, window.target, th.min(), b.min());
     let at_max_friction = figures(&w_in, window.target, th.max(), b.max());
 
-    let checks = checks::run(&CheckInput {
+    let mut checks = checks::run(&CheckInput {
         thread,
         strength: &input.strength,
         bearing: &input.bearing,
@@ -341,6 +347,9 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         },
     });
 
+    if let Some(w) = joint_model.as_ref().and_then(|m| m.working.as_ref()) {
+        checks.extend(w.checks.iter().cloned());
+    }
     let angle_given = matches!(angle, AngleOutcome::Computed(_));
     let into_plastic_range = method.method == TighteningMethod::YieldControlled
         || checks
@@ -372,6 +381,7 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         clamp_load,
         joint,
         angle,
+        joint_model,
         at_min_friction,
         at_max_friction,
         checks,

@@ -78,8 +78,11 @@ pub struct TorqueWindow {
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct ClampLoadVerdict {
     pub required: Force,
-    /// Lowest preload the window gives (lower torque, maximum friction).
+    /// Lowest clamp load the window gives: the preload at the lower torque
+    /// and maximum friction, less the embedding loss F_Z.
     pub achieved_min: Force,
+    /// F_Z taken off the lowest preload (zero where the joint model is absent).
+    pub embedding_loss: Force,
     /// achieved_min − required (negative when not met).
     pub margin: Force,
     /// margin / required.
@@ -206,9 +209,29 @@ pub fn clamp_load_verdict(window: &TorqueWindow, required: Force) -> ClampLoadVe
     ClampLoadVerdict {
         required,
         achieved_min: window.preload_min,
+        embedding_loss: window.preload_min * 0.0,
         margin,
         margin_ratio: margin.value / required.value,
         met: margin.value >= 0.0,
+    }
+}
+
+impl ClampLoadVerdict {
+    /// The verdict with the embedding loss F_Z taken off the lowest preload:
+    /// F_M,min − F_Z against the required clamp load (VDI 2230 Part 1:2003
+    /// §5.4.2, recalled from memory: the preload lost to embedding is not
+    /// available as clamp load).
+    pub fn after_embedding(self, loss: Force) -> Self {
+        let achieved_min = self.achieved_min - loss;
+        let margin = achieved_min - self.required;
+        Self {
+            achieved_min,
+            embedding_loss: self.embedding_loss + loss,
+            margin,
+            margin_ratio: margin.value / self.required.value,
+            met: margin.value >= 0.0,
+            ..self
+        }
     }
 }
 

@@ -322,6 +322,7 @@ fn figures(
         required_clamp_load: None,
         window_mode: WindowMode::MaximumPreload,
         flags: *flags,
+        joint_model: Default::default(),
     };
     let w = spec::compute(&input)?.window;
     Ok(SpecFigures {

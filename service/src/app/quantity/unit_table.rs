@@ -31,6 +31,9 @@ pub(super) fn lookup(text: &str) -> Option<Unit> {
         "m" => Unit::Length(1000.0),
         "in" | "inch" | "inches" | "\"" => Unit::Length(MM_PER_IN),
         "ft" => Unit::Length(12.0 * MM_PER_IN),
+        // Micrometre (micro sign or Greek mu) and microinch, for roughness.
+        "µm" | "μm" | "um" => Unit::Length(0.001),
+        "µin" | "μin" | "uin" => Unit::Length(MM_PER_IN * 1e-6),
         "mm2" | "sqmm" => Unit::Area(1.0),
         "in2" | "sqin" => Unit::Area(MM_PER_IN * MM_PER_IN),
         "N" => Unit::Force(1.0),

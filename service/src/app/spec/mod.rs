@@ -44,6 +44,7 @@ use crate::engine::spec::{compute, Spec};
 /// Resolves and computes one request against a snapshot.
 pub fn compute_one(req: &SpecRequest, snapshot: &Snapshot) -> Result<(Resolved, Spec), AppError> {
     let resolved = resolve(req, snapshot)?;
-    let spec = compute(&resolved.input).map_err(|e| AppError::field(resolve::from_engine(e)))?;
+    let spec =
+        compute(&resolved.input).map_err(|e| AppError::field(resolve::from_engine_for(req, e)))?;
     Ok((resolved, spec))
 }

@@ -207,6 +207,32 @@ pub struct SpecRequest {
     /// threaded up to the head.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub bolt: Option<BoltRequest>,
+    /// The clamped stack from under the head, 1 to 16 layers (a washer is a
+    /// layer): each layer's thickness and material. Not with `clamp_length`
+    /// or `clamped_material` (the one-plate shorthand); `joint_outer_diameter`
+    /// is the stack's outer diameter D_A.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    #[schema(min_items = 1, max_items = 16)]
+    pub clamped_parts: Option<Vec<ClampedPartInput>>,
+    /// Surface roughness Rz of the joint's faces (below 160 µm), for the
+    /// embedding by the classes of VDI 2230 Part 1 Table 5; default 16 µm
+    /// (class 10 to below 40 µm, machined faces; common practice).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub roughness_rz: Option<Quantity>,
+    /// Operating loads per bolt; with them the answer's `joint` block has
+    /// the working state and its checks.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub loads: Option<LoadsInput>,
+    /// Load-introduction factor n (greater than 0, at most 1; 1: under head
+    /// and nut); default 0.5 (common practice where the geometry is not
+    /// described, VDI 2230 Part 1 §5.2.2).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub load_introduction: Option<f64>,
+    /// `rolled-before-heat-treatment` (default, the usual case) or
+    /// `rolled-after-heat-treatment`: which fatigue limit applies (VDI 2230
+    /// Part 1 §5.5.4).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub thread_rolling: Option<String>,
     /// Snug torque before the angle is counted.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub snug_torque: Option<Quantity>,
@@ -223,7 +249,10 @@ pub struct SpecRequest {
     pub catalogue_revision: Option<i64>,
 }
 
+mod flat;
+mod joint;
 mod query;
+pub use joint::{clamped_parts_from_query, ClampedPartInput, LoadsInput};
 pub use query::{quantity_from_query, SetpointQuery, SpecQuery};
 
 #[cfg(test)]

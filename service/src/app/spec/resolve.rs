@@ -27,6 +27,7 @@ use super::friction::{resolve_friction, ResolvedFriction};
 use super::request::SpecRequest;
 
 mod bolt;
+mod joint_model;
 mod normalised;
 mod parts;
 
@@ -76,6 +77,16 @@ pub fn from_engine(e: EngineError) -> FieldProblem {
     problem
 }
 
+/// An engine error of `req` named by its request field; with a stack the
+/// clamp length is the stack's (`clamped_parts`).
+pub fn from_engine_for(req: &SpecRequest, e: EngineError) -> FieldProblem {
+    let mut problem = from_engine(e);
+    if req.clamped_parts.is_some() && problem.field == "clamp_length" {
+        problem.field = "clamped_parts".to_string();
+    }
+    problem
+}
+
 fn refused(p: Problems) -> Result<(), AppError> {
     if p.is_empty() {
         Ok(())
@@ -97,6 +108,7 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
     let (joint_type, material) = parts::joint_names(req, &mut p);
     let friction = resolve_friction(req, snapshot, &mut p);
     let described = bolt::described(req, thread.as_ref(), bearing_parts.head, &mut p);
+    let model = joint_model::read(req, &mut p);
     refused(p)?;
 
     // Every `None` below is an input the request left out (problems would
@@ -108,9 +120,32 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
     };
 
     let mut joint = parts::joint(req, &q, joint_type, bearing_parts.head);
+    // A stack's clamp length is its thickness; its head-side layer carries
+    // the bearing's surface pressure.
+    let stack_length = model.clamp_length();
+    if let (Some(lk), Some(j)) = (stack_length, joint.as_mut()) {
+        j.clamp_length = Some(lk);
+    }
+    let shorthand_material = material.clone();
+    let material = material.or_else(|| model.materials.first().cloned());
     let mut p: Problems = Vec::new();
-    let tapped_hole =
-        parts::tapped_hole(q.engagement, material.as_ref(), &strength, &thread, &mut p);
+    let tapped_hole = parts::tapped_hole(
+        q.engagement,
+        shorthand_material.as_ref(),
+        &strength,
+        &thread,
+        &mut p,
+    );
+    if stack_length.is_some() && q.engagement.is_some() {
+        // The stack's layers are clamped plates; the tapped part below them
+        // is not one of them, and its material is not described here.
+        p.retain(|x| x.field != "clamped_material");
+        p.push(FieldProblem::invalid(
+            "engagement_length",
+            "with clamped_parts the stripping check has no tapped-part material (the layers \
+             are the clamped plates); give the joint as clamp_length and clamped_material",
+        ));
+    }
     // The described bolt's shank inside the clamp length goes into δ_S.
     let mut bolt_described = false;
     if let (Some(b), Some(j)) = (&described, joint.as_mut()) {
@@ -150,6 +185,7 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
         utilisation: req.utilisation,
         prevailing_torque_nm: q.prevailing_torque.map(|t| t.get::<newton_meter>()),
         clamp_length_mm: q.clamp_length.map(|l| l.get::<millimeter>()),
+        joint_model: joint_model::NormalisedJointModel::of(&model),
         clamped_material: material.as_ref().map(|m| m.id.as_str()),
         joint_outer_diameter_mm: q.joint_outer.map(|l| l.get::<millimeter>()),
         joint_type: joint.as_ref().map(|j| j.joint_type.id()),
@@ -193,11 +229,12 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
         required_clamp_load: q.required_clamp_load,
         window_mode: mode,
         flags,
+        joint_model: model.input,
     };
     refused(
         plausible::problems(&input)
             .into_iter()
-            .map(from_engine)
+            .map(|e| from_engine_for(req, e))
             .collect(),
     )?;
     Ok(Resolved {

@@ -24,9 +24,11 @@ use crate::app::quantity::Quantity;
 use crate::app::quantity::Units;
 
 mod checks;
+mod joint;
 mod parts;
 mod setpoints;
 pub use checks::{checks_out, error_count, CheckOut};
+pub use joint::{joint_out, EmbeddingOut, JointOut, SafetyOut};
 pub use parts::*;
 pub use setpoints::{SetpointAngle, SetpointResponse};
 
@@ -57,6 +59,11 @@ pub struct SpecResponse {
     pub figures: FiguresPair,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub clamped_material: Option<String>,
+    /// The joint model (VDI 2230 Part 1): resiliences, load factor,
+    /// embedding and, with `loads`, the working state; absent where the
+    /// joint (clamp length or stack, material, outer diameter) is not given.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub joint: Option<JointOut>,
     pub checks: Vec<CheckOut>,
     #[schema(value_type = Vec<String>)]
     pub cautions: Cautions,
@@ -233,6 +240,15 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
                 .to_string()
         });
     }
+    if spec.joint_model.is_some() {
+        assumptions.push(
+            "joint: δ_S and δ_P by the VDI 2230 Part 1 substitute body (cone or sleeve by the \
+             outer diameter, each clamped layer with its own modulus); embedding f_Z from \
+             VDI 2230 Part 1 Table 5 by roughness class, and its preload loss F_Z is taken \
+             off the clamp load (values recalled from memory; confirm by joint tests)"
+                .to_string(),
+        );
+    }
     if spec.scatter_source == ValueSource::Default {
         assumptions.push(format!(
             "tool scatter ±{:.0} % from the method default: {}",
@@ -266,6 +282,7 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
         clamp_load: spec.clamp_load.as_ref().map(|c| ClampLoadOut {
             required: o.force(c.required),
             achieved_min: o.force(c.achieved_min),
+            embedding_loss: (c.embedding_loss.value > 0.0).then(|| o.force(c.embedding_loss)),
             margin: o.force(c.margin),
             met: c.met,
         }),
@@ -335,6 +352,10 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
             at_max_friction: figures(o, &spec.at_max_friction),
         },
         clamped_material: spec.clamped_material.as_ref().map(|m| m.id.clone()),
+        joint: spec
+            .joint_model
+            .as_ref()
+            .map(|m| joint_out(m, resolved.units)),
         checks: checks_out(&spec.checks),
         cautions: Cautions::of(spec.cautions),
         assumptions,

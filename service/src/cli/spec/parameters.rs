@@ -4,7 +4,9 @@
 //! `tightspec spec` (clap's argument ids, minus the command's own) and the
 //! committed OpenAPI document (`bolt` standing for `bolt_standard`,
 //! `bolt_length` and `bolt_thread_length`; its shank sections are body
-//! only); the setpoint query is the spec query plus
+//! only; `loads` for its `loads_*` parameters; `clamped_parts` is one
+//! parameter in both, an array of objects in the body and
+//! `THICKNESS:MATERIAL,…` in the query); the setpoint query is the spec query plus
 //! its four tool fields, in the code and in the document; and a batch item
 //! is the spec body plus `answer` and the same four tool fields.
 
@@ -55,8 +57,33 @@ fn flat(property: &str) -> Vec<String> {
             "bolt_length".into(),
             "bolt_thread_length".into(),
         ],
+        "loads" => LOADS.iter().map(|field| format!("loads_{field}")).collect(),
         other => vec![other.to_string()],
     }
+}
+
+/// The fields of the body's `loads` object, `loads_<field>` in the query.
+const LOADS: [&str; 8] = [
+    "axial",
+    "axial_min",
+    "transverse",
+    "torsion",
+    "torsion_radius",
+    "interfaces",
+    "interface_friction",
+    "sealing_clamp_load",
+];
+
+/// The `loads` object's fields are the ones `flat` expands it to.
+#[test]
+fn the_loads_object_has_the_flat_fields() {
+    use crate::app::spec::request::LoadsInput;
+    let mut names = Names::new();
+    if let RefOr::T(Schema::Object(o)) = LoadsInput::schema() {
+        names.extend(o.properties.keys().cloned());
+    }
+    let flat: Names = LOADS.iter().map(|s| s.to_string()).collect();
+    assert_eq!(names, flat);
 }
 
 fn properties(schema: &Schema, out: &mut Names) {

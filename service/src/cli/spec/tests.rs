@@ -56,3 +56,41 @@ async fn problems_are_listed_with_suggestions() {
         "{e}"
     );
 }
+
+/// The joint block in the table and in `--json`, from the flat flags.
+#[tokio::test]
+async fn the_joint_block_in_the_table_and_the_json() {
+    let a = args(&[
+        "--thread-friction",
+        "0.12",
+        "--bearing-friction",
+        "0.12",
+        "--clamped-parts",
+        "3mm:steel-s235,20mm:aluminium-6082",
+        "--joint-outer-diameter",
+        "30mm",
+        "--loads-axial",
+        "6kN",
+        "--loads-axial-min",
+        "2kN",
+    ]);
+    let text = run(&a).await.unwrap();
+    for line in [
+        "Joint       δ_S",
+        "Embedding   f_Z",
+        "Working     F_SA",
+        "Safety      yield",
+    ] {
+        assert!(text.contains(line), "{line}: {text}");
+    }
+    assert!(text.contains("(default)"), "{text}");
+    let mut j = a.clone();
+    j.json = true;
+    let json: serde_json::Value = serde_json::from_str(&run(&j).await.unwrap()).unwrap();
+    assert_eq!(json["joint"]["bolt_resilience"]["unit"], "mm/N");
+    assert!(json["joint"]["safety"]["fatigue"].as_f64().is_some());
+    assert_eq!(
+        json["joint"]["defaults"],
+        serde_json::json!(["load_introduction", "roughness_rz", "thread_rolling"])
+    );
+}

@@ -131,7 +131,7 @@ pub fn resilience(
     let nut = lm / (em * an);
     let bolt = head + shank + free_thread + engaged_thread + nut;
 
-    let (w, tan_phi) = cone(joint.joint_type, lk, dw, da);
+    let (w, tan_phi) = deformation_cone(joint.joint_type, lk, dw, da);
     if !(tan_phi.is_finite() && tan_phi > 0.0) {
         return Err(EngineError::invalid(
             "joint.clamp_length",
@@ -167,7 +167,7 @@ pub fn resilience(
 }
 
 /// (w, tan φ) of the deformation cone, VDI 2230 Part 1 (recalled from memory).
-fn cone(joint: JointType, lk: f64, dw: f64, da: f64) -> (f64, f64) {
+pub fn deformation_cone(joint: JointType, lk: f64, dw: f64, da: f64) -> (f64, f64) {
     let beta = lk / dw;
     let y = (da / dw).max(1.0);
     match joint {

@@ -51,6 +51,7 @@ fn input(designation: &str, class: &str) -> SpecInput {
         required_clamp_load: None,
         window_mode: WindowMode::MaximumPreload,
         flags: SpecFlags::default(),
+        joint_model: Default::default(),
     }
 }
 

@@ -58,6 +58,7 @@ pub(crate) fn m10_input() -> SpecInput {
         required_clamp_load: None,
         window_mode: WindowMode::MaximumPreload,
         flags: SpecFlags::default(),
+        joint_model: Default::default(),
     }
 }
 

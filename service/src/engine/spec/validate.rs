@@ -66,3 +66,12 @@ pub(super) fn validate_bearing(b: &BearingSurface) -> Result<(), EngineError> {
     }
     Ok(())
 }
+
+/// True for ISO 3506 austenitic grades (A1–A5, e.g. `A2-70`).
+pub fn is_stainless_grade(id: &str) -> bool {
+    let b = id.as_bytes();
+    b.len() >= 3
+        && b[0].eq_ignore_ascii_case(&b'a')
+        && (b'1'..=b'5').contains(&b[1])
+        && b[2] == b'-'
+}

@@ -7,7 +7,9 @@ use utoipa::IntoParams;
 
 use crate::engine::bearing::{HeadType, HoleSeries, Washer};
 
-use super::{BearingInput, BoltRequest, FrictionInput, SpecRequest};
+use super::flat::{bolt_from_query, friction_from_query, loads_from_query, FlatLoads};
+use super::joint::clamped_parts_from_query;
+use super::{BearingInput, SpecRequest};
 use crate::app::quantity::Quantity;
 use crate::app::quantity::Units;
 use crate::app::FieldProblem;
@@ -174,6 +176,48 @@ macro_rules! spec_query {
             /// `bolt_standard`).
             #[arg(long)]
             pub bolt_thread_length: Option<String>,
+            /// The clamped stack from under the head as `THICKNESS:MATERIAL`
+            /// pairs separated by commas, e.g. `7.5mm:steel-s355,7.5mm:steel-s355`
+            /// (1 to 16 layers; not with `clamp_length` or `clamped_material`).
+            #[arg(long)]
+            pub clamped_parts: Option<String>,
+            /// Surface roughness Rz with unit, e.g. `16µm` or `16um`; default
+            /// 16 µm (VDI 2230 Part 1 Table 5 class 10 to below 40 µm).
+            #[arg(long)]
+            pub roughness_rz: Option<String>,
+            /// Largest axial working load per bolt with unit, e.g. `8kN`.
+            #[arg(long)]
+            pub loads_axial: Option<String>,
+            /// Smallest axial working load with unit (alternating load; default 0).
+            #[arg(long)]
+            pub loads_axial_min: Option<String>,
+            /// Transverse load per bolt with unit, e.g. `2kN`.
+            #[arg(long)]
+            pub loads_transverse: Option<String>,
+            /// Torsion about the bolt axis with unit, e.g. `50N·m`.
+            #[arg(long)]
+            pub loads_torsion: Option<String>,
+            /// Friction radius of the torsion with unit, e.g. `40mm`.
+            #[arg(long)]
+            pub loads_torsion_radius: Option<String>,
+            /// Interfaces carrying the transverse load (1 to 32; default 1).
+            #[serde(default, deserialize_with = "crate::app::reading::integral")]
+            #[param(minimum = 1, maximum = 32)]
+            #[arg(long)]
+            pub loads_interfaces: Option<i64>,
+            /// Friction at those interfaces (0.02 to 1).
+            #[arg(long)]
+            pub loads_interface_friction: Option<f64>,
+            /// Clamp load a seal needs, with unit, e.g. `5kN`.
+            #[arg(long)]
+            pub loads_sealing_clamp_load: Option<String>,
+            /// Load-introduction factor n in (0, 1]; default 0.5.
+            #[arg(long)]
+            pub load_introduction: Option<f64>,
+            /// `rolled-before-heat-treatment` (default) or
+            /// `rolled-after-heat-treatment`.
+            #[arg(long)]
+            pub thread_rolling: Option<String>,
             /// Snug torque with unit, e.g. `10N·m`.
             #[arg(long)]
             pub snug_torque: Option<String>,
@@ -226,6 +270,25 @@ macro_rules! spec_query {
                 let snug_torque = q("snug_torque", &self.snug_torque);
                 let bolt_length = q("bolt_length", &self.bolt_length);
                 let bolt_thread_length = q("bolt_thread_length", &self.bolt_thread_length);
+                let roughness_rz = q("roughness_rz", &self.roughness_rz);
+                let flat_loads = FlatLoads {
+                    axial: q("loads_axial", &self.loads_axial),
+                    axial_min: q("loads_axial_min", &self.loads_axial_min),
+                    transverse: q("loads_transverse", &self.loads_transverse),
+                    torsion: q("loads_torsion", &self.loads_torsion),
+                    torsion_radius: q("loads_torsion_radius", &self.loads_torsion_radius),
+                    interfaces: self.loads_interfaces,
+                    interface_friction: self.loads_interface_friction,
+                    sealing_clamp_load: q("loads_sealing_clamp_load", &self.loads_sealing_clamp_load),
+                };
+                let clamped_parts = match self.clamped_parts.as_deref().map(clamped_parts_from_query) {
+                    Some(Ok(parts)) => Some(parts),
+                    Some(Err(e)) => {
+                        problems.push(e);
+                        None
+                    }
+                    None => None,
+                };
                 let bolt = bolt_from_query(
                     self.bolt_standard.as_deref(),
                     self.bolt_length.is_some(),
@@ -284,6 +347,11 @@ macro_rules! spec_query {
                     required_clamp_load,
                     window_mode: self.window_mode.clone(),
                     bolt,
+                    clamped_parts,
+                    roughness_rz,
+                    loads: loads_from_query(flat_loads),
+                    load_introduction: self.load_introduction,
+                    thread_rolling: self.thread_rolling.clone(),
                     snug_torque,
                     units: self.units,
                     catalogue_revision: self.catalogue_revision,
@@ -319,67 +387,5 @@ spec_query! {
         /// checks) unless every one is named here.
         #[arg(long)]
         accept_checks: Option<String>,
-    }
-}
-
-/// The bolt from its flat parameters: none of them, or `bolt_length` with
-/// `bolt_standard` or `bolt_thread_length` (checked further in `resolve`).
-fn bolt_from_query(
-    standard: Option<&str>,
-    length_given: bool,
-    length: Option<Quantity>,
-    thread_length: Option<Quantity>,
-    problems: &mut Vec<FieldProblem>,
-) -> Option<BoltRequest> {
-    if standard.is_none() && !length_given && thread_length.is_none() {
-        return None;
-    }
-    if !length_given {
-        problems.push(FieldProblem::malformed(
-            "bolt_length",
-            "bolt_standard and bolt_thread_length need bolt_length",
-        ));
-    }
-    Some(BoltRequest {
-        standard: standard.map(str::to_string),
-        length,
-        thread_length,
-        shank_sections: None,
-    })
-}
-
-/// One value, or both ends of a range; anything else is refused.
-fn friction_from_query(
-    field: &str,
-    single: Option<f64>,
-    min: Option<f64>,
-    max: Option<f64>,
-    problems: &mut Vec<FieldProblem>,
-) -> Option<FrictionInput> {
-    match (single, min, max) {
-        (None, None, None) => None,
-        (Some(v), None, None) => Some(FrictionInput::Single(v)),
-        (None, Some(min), Some(max)) => Some(FrictionInput::Range { min, max }),
-        (Some(_), _, _) => {
-            problems.push(FieldProblem::malformed(
-                field,
-                format!("give either {field} or {field}_min and {field}_max, not both"),
-            ));
-            None
-        }
-        (None, Some(_), None) => {
-            problems.push(FieldProblem::malformed(
-                format!("{field}_max"),
-                format!("{field}_min needs {field}_max"),
-            ));
-            None
-        }
-        (None, None, Some(_)) => {
-            problems.push(FieldProblem::malformed(
-                format!("{field}_min"),
-                format!("{field}_max needs {field}_min"),
-            ));
-            None
-        }
     }
 }

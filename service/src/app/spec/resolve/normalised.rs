@@ -35,6 +35,10 @@ pub(super) struct Normalised<'a> {
     pub utilisation: Option<f64>,
     pub prevailing_torque_nm: Option<f64>,
     pub clamp_length_mm: Option<f64>,
+    /// Left out when none of the joint model's fields is given (older
+    /// hashes unchanged).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub joint_model: Option<super::joint_model::NormalisedJointModel>,
     pub clamped_material: Option<&'a str>,
     pub joint_outer_diameter_mm: Option<f64>,
     pub joint_type: Option<&'static str>,

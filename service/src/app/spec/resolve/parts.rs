@@ -192,6 +192,7 @@ pub(super) fn joint(
     head: Option<HeadType>,
 ) -> Option<JointInput> {
     let given = q.clamp_length.is_some()
+        || req.clamped_parts.is_some()
         || q.joint_outer.is_some()
         || joint_type.is_some()
         || q.snug_torque.is_some();

@@ -269,3 +269,68 @@ mod no_panic {
         }
     }
 }
+
+/// Every joint-model input is part of the spec's identity; a request
+/// without any keeps the hash it had before they existed.
+#[test]
+fn the_hash_covers_every_joint_model_input() {
+    use crate::app::spec::request::{ClampedPartInput, LoadsInput};
+    let snap = Snapshot::seed();
+    fn kn(value: f64) -> Quantity {
+        Quantity {
+            value,
+            unit: "kN".into(),
+        }
+    }
+    let joint = SpecRequest {
+        joint_outer_diameter: Some(mm(30.0)),
+        clamped_parts: Some(vec![ClampedPartInput {
+            thickness: mm(15.0),
+            material: "steel-s355".into(),
+        }]),
+        ..base()
+    };
+    let hash = |r: &SpecRequest| resolve(r, &snap).unwrap().content_hash;
+    let h0 = hash(&joint);
+    let changes: [fn(&mut SpecRequest); 6] = [
+        |r| {
+            r.clamped_parts = Some(vec![ClampedPartInput {
+                thickness: mm(15.0),
+                material: "aluminium-6082".into(),
+            }])
+        },
+        |r| {
+            r.roughness_rz = Some(Quantity {
+                value: 16.0,
+                unit: "µm".into(),
+            })
+        },
+        |r| r.load_introduction = Some(0.5),
+        |r| r.thread_rolling = Some("rolled-after-heat-treatment".into()),
+        |r| {
+            r.loads = Some(LoadsInput {
+                axial: Some(kn(5.0)),
+                ..LoadsInput::default()
+            })
+        },
+        |r| {
+            r.loads = Some(LoadsInput {
+                sealing_clamp_load: Some(kn(5.0)),
+                ..LoadsInput::default()
+            })
+        },
+    ];
+    let mut seen = vec![h0.clone()];
+    for change in changes {
+        let mut r = joint.clone();
+        change(&mut r);
+        let h = hash(&r);
+        assert!(!seen.contains(&h), "{r:?}");
+        seen.push(h);
+    }
+    // The stack's clamp length reaches the engine's joint.
+    let r = resolve(&joint, &snap).unwrap();
+    let lk = r.input.joint.as_ref().and_then(|j| j.clamp_length).unwrap();
+    assert!((lk.value - 0.015).abs() < 1e-12);
+    assert_eq!(r.input.joint_model.layers.len(), 1);
+}

@@ -193,8 +193,12 @@ pub struct FiguresPair {
 #[derive(Debug, Clone, Serialize, ToSchema)]
 pub struct ClampLoadOut {
     pub required: Quantity,
-    /// Preload at the low end of the window.
+    /// Clamp load at the low end of the window: the preload there, less the
+    /// embedding loss where the joint is described.
     pub achieved_min: Quantity,
+    /// F_Z taken off (VDI 2230 Part 1); absent without the joint model.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub embedding_loss: Option<Quantity>,
     pub margin: Quantity,
     pub met: bool,
 }
