@@ -29,6 +29,7 @@ mod friction_tests_notes;
 mod friction_tests_store;
 mod hydrogen;
 mod implausible;
+mod joint_materials;
 mod joints;
 mod kill9;
 mod limits;

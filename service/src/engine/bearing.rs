@@ -26,6 +26,9 @@
 mod table;
 #[cfg(test)]
 mod tests;
+mod washer;
+
+pub use washer::{washer_bearing, WasherBearing, PLAIN_WASHER_P_G_MPA};
 
 use std::str::FromStr;
 

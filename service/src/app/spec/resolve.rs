@@ -27,6 +27,7 @@ use super::friction::{resolve_friction, ResolvedFriction};
 use super::request::SpecRequest;
 
 mod bolt;
+mod mating;
 mod normalised;
 mod parts;
 
@@ -95,6 +96,8 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
     let mode = keep(parts::window_mode(req.window_mode.as_deref()), &mut p);
     let q = Quantities::read(req, &mut p);
     let (joint_type, material) = parts::joint_names(req, &mut p);
+    let joint_type = mating::joint_type(req, joint_type, &mut p);
+    let tapped_material = mating::tapped_material(req, &mut p);
     let friction = resolve_friction(req, snapshot, &mut p);
     let described = bolt::described(req, thread.as_ref(), bearing_parts.head, &mut p);
     refused(p)?;
@@ -109,8 +112,25 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
 
     let mut joint = parts::joint(req, &q, joint_type, bearing_parts.head);
     let mut p: Problems = Vec::new();
-    let tapped_hole =
-        parts::tapped_hole(q.engagement, material.as_ref(), &strength, &thread, &mut p);
+    let mating = mating::mating(
+        req,
+        mating::MatingInput {
+            thread: &thread,
+            strength: &strength,
+            joint_type,
+            clamped: material.as_ref(),
+            tapped: tapped_material,
+            engagement: q.engagement,
+            permissible_torque: q.permissible_torque,
+            washer: bearing_parts.washer,
+            hole: bearing_parts.hole,
+        },
+        &mut p,
+    );
+    if let (Some(j), Some(t)) = (joint.as_mut(), &mating.parts.tapped_part) {
+        // The thread's other side is the tapped part, not the clamped one.
+        j.nut_modulus = Some(t.elastic_modulus);
+    }
     // The described bolt's shank inside the clamp length goes into δ_S.
     let mut bolt_described = false;
     if let (Some(b), Some(j)) = (&described, joint.as_mut()) {
@@ -158,6 +178,9 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
         required_clamp_load_n: q.required_clamp_load.map(|f| f.get::<newton>()),
         window_mode: parts::window_mode_id(mode),
         bolt: described.as_ref().map(NormalisedBolt::from),
+        tapped_part_material: mating.parts.tapped_part.as_ref().map(|m| m.id.as_str()),
+        nut_property_class: mating.parts.nut.as_ref().map(|n| n.id),
+        permissible_torque_nm: q.permissible_torque.map(|t| t.get::<newton_meter>()),
     };
     let bytes = serde_json::to_vec(&normalised).map_err(|e| {
         AppError::field(FieldProblem::malformed(
@@ -189,7 +212,8 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
         prevailing_torque: q.prevailing_torque,
         clamped_material: material,
         joint,
-        tapped_hole,
+        tapped_hole: mating.tapped_hole,
+        parts: mating.parts,
         required_clamp_load: q.required_clamp_load,
         window_mode: mode,
         flags,
