@@ -318,6 +318,42 @@ async fn warnings_and_lists(app: TestApp) {
     ] {
         assert!(ids.contains(&id), "{id}");
     }
+    let grades = app.get_json("/v1/property-classes").await;
+    let ids: Vec<&str> = grades
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|g| g["id"].as_str().unwrap())
+        .collect();
+    for id in [
+        "astm-a193-b7",
+        "astm-a193-b7m",
+        "astm-a320-l7",
+        "astm-f3125-a325",
+        "astm-f3125-a490",
+        "astm-a449",
+        "sae-j429-1",
+        "sae-j429-8.2",
+        "A1-50",
+        "A3-70",
+        "A5-80",
+        "A2-100",
+        "A4-100",
+        "A5-100",
+    ] {
+        assert!(ids.contains(&id), "{id}");
+    }
+    // A grade's size range is enforced: A325 starts at 1/2 in.
+    let p = app
+        .get(
+            "/v1/tightening-specs?thread=3/8-16%20UNC&property_class=A325&thread_friction=0.12\
+             &bearing_friction=0.12",
+        )
+        .await;
+    assert_eq!(
+        error_fields(&expect_problem(p, 422).await),
+        ["property_class"]
+    );
     let nuts = app.get_json("/v1/nut-classes").await;
     let ids: Vec<&str> = nuts["nut_classes"]
         .as_array()
