@@ -354,6 +354,12 @@ async fn warnings_and_lists(app: TestApp) {
         error_fields(&expect_problem(p, 422).await),
         ["property_class"]
     );
+    let types = app.get_json("/v1/bearing-types").await;
+    let heads = types["head_types"].to_string();
+    assert!(
+        heads.contains("pan-head") && heads.contains("button-head"),
+        "{heads}"
+    );
     let nuts = app.get_json("/v1/nut-classes").await;
     let ids: Vec<&str> = nuts["nut_classes"]
         .as_array()
