@@ -188,13 +188,8 @@ fn pan_and_button_heads_bear_on_their_head_diameter() {
     let e = bearing_surface(&m20, HeadType::PanHead, Washer::None, HoleSeries::Medium).unwrap_err();
     assert_eq!(e.field(), "head");
     let unc = parse_designation("1/4-20").unwrap();
-    let e = bearing_surface(
-        &unc,
-        HeadType::ButtonHead,
-        Washer::None,
-        HoleSeries::Medium,
-    )
-    .unwrap_err();
+    let e =
+        bearing_surface(&unc, HeadType::ButtonHead, Washer::None, HoleSeries::Medium).unwrap_err();
     assert_eq!(e.field(), "head");
     assert_eq!("pan-head".parse::<HeadType>().unwrap(), HeadType::PanHead);
 }
