@@ -87,6 +87,7 @@ fn full_spec(n: &Names) -> Result<tightspec::engine::spec::Spec, EngineError> {
         clamped_material: Some(find_material("steel")?),
         joint,
         tapped_hole: None,
+        parts: Default::default(),
         required_clamp_load: None,
         window_mode: WindowMode::MaximumPreload,
         flags: SpecFlags {

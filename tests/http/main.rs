@@ -30,6 +30,7 @@ mod friction_tests_store;
 mod hydrogen;
 mod implausible;
 mod joint_cli;
+mod joint_materials;
 mod joint_model;
 mod joint_releases;
 mod joints;

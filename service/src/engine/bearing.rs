@@ -23,9 +23,13 @@
 //!   hole does not bound this face, because the washer bridges it.
 //! - A size with no table row is Invalid and asks for `bearing` diameters.
 
+mod small_heads;
 mod table;
 #[cfg(test)]
 mod tests;
+mod washer;
+
+pub use washer::{washer_bearing, WasherBearing, PLAIN_WASHER_P_G_MPA};
 
 use std::str::FromStr;
 
@@ -107,6 +111,10 @@ named_enum!(
         HexagonFlange => "hexagon-flange", "hexagon flange bolt (ISO 4162; metric only)";
         /// ISO 4032 (metric only).
         HexagonNut => "hexagon-nut", "hexagon nut turned, bolt held (ISO 4032; metric only)";
+        /// ISO 7045 / ISO 14583 (metric only, M2–M10).
+        PanHead => "pan-head", "pan head screw (ISO 7045 / ISO 14583; metric only, M2–M10; d_k as bearing face)";
+        /// ISO 7380-1 (metric only, M3–M16).
+        ButtonHead => "button-head", "hexagon socket button head screw (ISO 7380-1; metric only, M3–M16; d_k as bearing face)";
     }
 );
 
@@ -256,9 +264,10 @@ fn head_diameter(thread: &ThreadGeometry, head: HeadType) -> Result<(f64, String
                 "ASME B18.3 socket head cap screw",
                 "head diameter A max taken as bearing face (upper estimate), recalled from memory",
             ),
-            HeadType::HexagonFlange | HeadType::HexagonNut => {
-                return Err(missing(head.description()))
-            }
+            HeadType::HexagonFlange
+            | HeadType::HexagonNut
+            | HeadType::PanHead
+            | HeadType::ButtonHead => return Err(missing(head.description())),
         };
         let (_, dw) = table::row(tab, d, |r| r.0).ok_or_else(|| missing(what))?;
         return Ok((dw, format!("d_w {dw} in: {what}, {basis}")));
@@ -302,6 +311,7 @@ fn head_diameter(thread: &ThreadGeometry, head: HeadType) -> Result<(f64, String
                 format!("d_w {dw} mm: ISO 4162 d_w,min, recalled from memory"),
             ))
         }
+        HeadType::PanHead | HeadType::ButtonHead => small_heads::diameter(thread, head),
         HeadType::HeavyHexHead => Err(EngineError::invalid(
             "head",
             format!(

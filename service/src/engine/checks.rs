@@ -7,20 +7,29 @@
 
 use std::f64::consts::PI;
 
-use uom::si::f64::{Length, Pressure};
+use uom::si::f64::Pressure;
 
 use super::angle::AngleWindow;
 use super::bearing::BearingSurface;
 use super::grade::Strength;
+use super::material::ClampedMaterial;
 use super::method::TighteningMethod;
+use super::plausible::codes as plausible_codes;
 use super::quantity::FrictionRange;
 use super::thread::ThreadGeometry;
 use super::window::{ClampLoadVerdict, TorqueWindow};
 
 mod held;
+mod parts;
 pub use held::{
     tool_angle_window, tool_window, ANGLE_WINDOW_UNDER_TWO_STEPS, ANGLE_WINDOW_ZERO_WIDTH,
     WINDOW_UNDER_TWO_STEPS, WINDOW_ZERO_WIDTH,
+};
+pub use parts::{
+    MatingParts, TappedHole, DEFAULT_TAPPED_ENGAGEMENT_PER_D, MATERIAL_OUTSIDE_METHOD,
+    NUT_PROOF_LOAD_EXCEEDED, NUT_WEAKER_THAN_BOLT, PERMISSIBLE_TORQUE_EXCEEDED,
+    SURFACE_PRESSURE_EXCEEDED, SURFACE_PRESSURE_NOT_CHECKED, THREAD_ENGAGEMENT_TOO_SHORT,
+    THREAD_STRIPPING_NOT_CHECKED, WASHER_SURFACE_PRESSURE_EXCEEDED,
 };
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
@@ -38,16 +47,6 @@ pub struct Check {
     pub code: &'static str,
     pub severity: Severity,
     pub message: String,
-}
-
-/// A tapped hole whose thread engagement should be checked.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub struct TappedHole {
-    /// Length of thread engagement in the tapped part.
-    pub engagement_length: Length,
-    /// Recommended minimum engagement as a multiple of d for this internal
-    /// thread material and bolt grade (from `material`).
-    pub min_engagement_factor: f64,
 }
 
 /// Everything the checks look at.
@@ -81,6 +80,10 @@ pub struct CheckInput<'a> {
     /// The bolt's shank was described (`bolt`), so the angle window and its
     /// yield angle are those of the real bolt, not of a fully threaded one.
     pub bolt_described: bool,
+    /// Nut, tapped part, washer and test values.
+    pub parts: &'a MatingParts,
+    /// A part (clamped or tapped) outside the method, where there is one.
+    pub outside_method: Option<&'a ClampedMaterial>,
 }
 
 /// Strength from which electroplated fasteners are at risk of hydrogen
@@ -106,10 +109,20 @@ pub const SEALING_CLAMP_LOAD: &str = "sealing_clamp_load";
 /// Code of the working-state check on the surface pressure in service.
 pub const WORKING_SURFACE_PRESSURE: &str = "working_surface_pressure";
 /// Every code a check can have (the names `accept_checks` may use).
-pub const CODES: [&str; 23] = [
-    "surface_pressure_exceeded",
-    "surface_pressure_not_checked",
-    "thread_engagement_too_short",
+pub const CODES: [&str; 33] = [
+    SURFACE_PRESSURE_EXCEEDED,
+    SURFACE_PRESSURE_NOT_CHECKED,
+    WASHER_SURFACE_PRESSURE_EXCEEDED,
+    THREAD_ENGAGEMENT_TOO_SHORT,
+    THREAD_STRIPPING_NOT_CHECKED,
+    NUT_WEAKER_THAN_BOLT,
+    NUT_PROOF_LOAD_EXCEEDED,
+    MATERIAL_OUTSIDE_METHOD,
+    PERMISSIBLE_TORQUE_EXCEEDED,
+    plausible_codes::UTILISATION_OUTSIDE_BAND,
+    plausible_codes::CLAMP_LENGTH_OUTSIDE_MODEL,
+    plausible_codes::PREVAILING_TORQUE_LARGE_SHARE,
+    plausible_codes::TOOL_SCATTER_VERY_LARGE,
     "clamp_load_not_reached",
     "friction_outside_measured_range",
     "hydrogen_embrittlement_risk",
@@ -144,8 +157,10 @@ const CLASS_12_9_RM_MPA: f64 = 1200.0;
 /// Run every check; findings in a fixed order.
 pub fn run(input: &CheckInput) -> Vec<Check> {
     let mut out = Vec::with_capacity(4);
-    surface_pressure(input, &mut out);
-    engagement(input, &mut out);
+    parts::surface_pressure(input, &mut out);
+    parts::engagement(input, &mut out);
+    parts::nut(input, &mut out);
+    parts::outside_method(input, &mut out);
     clamp_load(input, &mut out);
     friction_range(input, &mut out);
     hydrogen(input, &mut out);
@@ -162,51 +177,6 @@ pub fn surface_pressure_value(bearing: &BearingSurface, window: &TorqueWindow) -
     let (dw, dh) = (bearing.outer_diameter.value, bearing.inner_diameter.value);
     let ap = PI / 4.0 * (dw * dw - dh * dh);
     Pressure::new::<uom::si::pressure::pascal>(window.preload_max.value / ap)
-}
-
-fn surface_pressure(i: &CheckInput, out: &mut Vec<Check>) {
-    let p = surface_pressure_value(i.bearing, i.window).value / 1e6;
-    match i.permissible_surface_pressure {
-        Some(pg) if p > pg.value / 1e6 => out.push(Check {
-            code: "surface_pressure_exceeded",
-            severity: Severity::Error,
-            message: format!(
-                "The head or nut presses {p:.0} MPa on the clamped part, more than the {:.0} MPa \
-                 it can take: it will sink in and the joint loses preload. Use a hardened \
-                 washer, a flange head or a lower preload.",
-                pg.value / 1e6
-            ),
-        }),
-        Some(_) => {}
-        None => out.push(Check {
-            code: "surface_pressure_not_checked",
-            severity: Severity::Info,
-            message: format!(
-                "Surface pressure under the head or nut is {p:.0} MPa; no permissible value is \
-                 known for the clamped material, so it was not checked."
-            ),
-        }),
-    }
-}
-
-fn engagement(i: &CheckInput, out: &mut Vec<Check>) {
-    let Some(t) = i.tapped_hole else { return };
-    let d = i.thread.nominal_diameter.value;
-    let needed = t.min_engagement_factor * d;
-    if t.engagement_length.value < needed {
-        out.push(Check {
-            code: "thread_engagement_too_short",
-            severity: Severity::Error,
-            message: format!(
-                "The thread engages {:.1} mm in the tapped part, but this material needs at \
-                 least {:.1} mm ({:.2}·d): the internal thread may strip before the bolt \
-                 reaches its load. Use a longer screw, a thread insert or a stronger part.",
-                t.engagement_length.value * 1e3,
-                needed * 1e3,
-                t.min_engagement_factor
-            ),
-        });
-    }
 }
 
 fn clamp_load(i: &CheckInput, out: &mut Vec<Check>) {

@@ -1,4 +1,5 @@
-//! Strength grades of fasteners: ISO 898-1, ISO 3506-1, SAE J429, ASTM A574.
+//! Strength grades of fasteners: ISO 898-1, ISO 3506-1, SAE J429, ASTM A574,
+//! and the ASTM inch bolting grades A193 B7/B7M, A320 L7, F3125 A325/A490, A449.
 //!
 //! Public surface:
 //! - [`property_classes`] lists every grade with its size ranges;
@@ -69,6 +70,8 @@ pub enum GradeFamily {
     SaeJ429,
     /// ASTM A574 socket head cap screws.
     AstmA574,
+    /// ASTM inch bolting: A193, A320, F3125, A449.
+    AstmBolting,
 }
 
 impl GradeFamily {
@@ -76,7 +79,7 @@ impl GradeFamily {
     pub fn thread_form(self) -> ThreadForm {
         match self {
             Self::Iso898 | Self::Iso3506 => ThreadForm::IsoMetric,
-            Self::SaeJ429 | Self::AstmA574 => ThreadForm::Unified,
+            Self::SaeJ429 | Self::AstmA574 | Self::AstmBolting => ThreadForm::Unified,
         }
     }
 }
@@ -204,10 +207,18 @@ fn normalise<'b>(text: &str, buf: &'b mut [u8; 40]) -> Option<&'b [u8]> {
 /// Matches a normalised key against one grade id.
 fn key_matches(key: &[u8], id: &str) -> bool {
     match id {
-        "sae-j429-2" => sae_matches(key, b'2'),
-        "sae-j429-5" => sae_matches(key, b'5'),
-        "sae-j429-8" => sae_matches(key, b'8'),
+        "sae-j429-2" => sae_matches(key, b"2"),
+        "sae-j429-5" => sae_matches(key, b"5"),
+        "sae-j429-8" => sae_matches(key, b"8"),
         "astm-a574" => matches!(key, b"astma574" | b"a574" | b"astma574shcs"),
+        "sae-j429-1" => sae_matches(key, b"1"),
+        "sae-j429-8.2" => sae_matches(key, b"82"),
+        "astm-a193-b7" => matches!(key, b"astma193b7" | b"a193b7" | b"b7" | b"a193gradeb7"),
+        "astm-a193-b7m" => matches!(key, b"astma193b7m" | b"a193b7m" | b"b7m" | b"a193gradeb7m"),
+        "astm-a320-l7" => matches!(key, b"astma320l7" | b"a320l7" | b"l7" | b"a320gradel7"),
+        "astm-f3125-a325" => matches!(key, b"astmf3125a325" | b"f3125a325" | b"a325" | b"astma325"),
+        "astm-f3125-a490" => matches!(key, b"astmf3125a490" | b"f3125a490" | b"a490" | b"astma490"),
+        "astm-a449" => matches!(key, b"astma449" | b"a449"),
         _ => {
             let compact = id.bytes().filter(u8::is_ascii_alphanumeric);
             key.len() == compact.clone().count()
@@ -220,7 +231,7 @@ fn key_matches(key: &[u8], id: &str) -> bool {
 }
 
 /// `sae j429 grade 5`, `sae-j429-5`, `j429-5`, `grade 5`, `gr5`, `sae grade 5`.
-fn sae_matches(key: &[u8], grade: u8) -> bool {
+fn sae_matches(key: &[u8], grade: &[u8]) -> bool {
     let mut rest = key;
     let mut had_prefix = false;
     for prefix in [&b"sae"[..], b"j429"] {
@@ -237,7 +248,7 @@ fn sae_matches(key: &[u8], grade: u8) -> bool {
             break;
         }
     }
-    (had_prefix || had_grade_word) && rest == [grade]
+    (had_prefix || had_grade_word) && rest == grade
 }
 
 /// Looks a grade up by any of its usual spellings.

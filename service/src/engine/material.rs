@@ -23,12 +23,38 @@ use super::thread::{ThreadGeometry, ThreadSeries};
 use super::EngineError;
 use table::{EngagementRow, RawMaterial, MATERIALS};
 
+/// What kind of material a row is: only metals are inside the method.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum MaterialKind {
+    /// Steel, cast iron, light alloys: the parts VDI 2230 Part 1 is written for.
+    Metal,
+    /// A plastic part: creeps and relaxes under preload, outside VDI 2230.
+    Plastic,
+    /// A threaded insert: a second thread whose strength its maker states,
+    /// outside VDI 2230.
+    ThreadedInsert,
+}
+
+impl MaterialKind {
+    /// The id the API uses.
+    pub fn id(self) -> &'static str {
+        match self {
+            Self::Metal => "metal",
+            Self::Plastic => "plastic",
+            Self::ThreadedInsert => "threaded_insert",
+        }
+    }
+}
+
 /// A clamped-part (or nut / tapped-part) material.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ClampedMaterial {
     /// Identifier as the API spells it, e.g. `steel-s235`.
     pub id: String,
     pub name: String,
+    /// Metal (inside the method), plastic or threaded insert (outside it).
+    pub kind: MaterialKind,
     /// Modulus of elasticity E.
     pub elastic_modulus: Pressure,
     /// Limiting surface pressure p_G under head or nut, where tabulated.
@@ -50,6 +76,7 @@ fn build(m: &RawMaterial) -> ClampedMaterial {
     ClampedMaterial {
         id: m.id.into(),
         name: m.name.into(),
+        kind: m.kind,
         elastic_modulus: mpa(m.e),
         permissible_surface_pressure: m.p_g.map(mpa),
         tensile_strength_min: m.rm.map(mpa),
@@ -121,6 +148,11 @@ pub struct EngagementFactor {
     pub source: String,
 }
 
+/// Nominal tensile strength of property class 8.8, the column the scaling of
+/// a missing stronger column starts from (ISO 898-1:2013: class 8.8 means
+/// Rm,nom 800 MPa).
+const RM_8_8_MPA: f64 = 800.0;
+
 const SUPPLIER: &str = "supplier sheet of recommended minimum engagement lengths for cut internal threads, based on trials M6–M16, as reproduced in two suppliers' technical tables; column mapping read from a flattened copy";
 
 /// Factor for (8.8 coarse, 8.8 fine, 10.9 coarse, 10.9 fine, 12.9 coarse).
@@ -153,6 +185,9 @@ fn rule_of_thumb(row: EngagementRow) -> f64 {
 /// 8.8 column, up to 1040 MPa the 10.9 column, above that 12.9 (12.9 fine
 /// reads the larger of 12.9 coarse and 10.9 fine). Materials outside the
 /// table read the nearest conservative row and are flagged not tabulated.
+/// Where the sheet has no legible value for a stronger bolt (aluminium:
+/// 10.9 and 12.9), the 8.8 value is scaled by Rm,bolt / 800 MPa.
+/// Plastics and threaded inserts have no rule (Invalid, `tapped_part.material`).
 /// The result is never below the common-practice rule (steel 1·d, cast iron
 /// 1.25·d, aluminium 2·d). Invalid (field `clamped_material`) for a
 /// material id the engine does not know and that has no Rm.
@@ -161,6 +196,17 @@ pub fn min_engagement_factor(
     strength: &Strength,
     thread: &ThreadGeometry,
 ) -> Result<EngagementFactor, EngineError> {
+    if material.kind != MaterialKind::Metal {
+        return Err(EngineError::invalid(
+            "tapped_part.material",
+            format!(
+                "no thread-engagement rule for '{}': {} threads are outside VDI 2230; the \
+                 engagement must be proven by a joint test",
+                material.id,
+                material.kind.id().replace('_', " ")
+            ),
+        ));
+    }
     let (row, listed) = match raw(&material.id) {
         Some((_, m)) => (m.row, m.row_is_listed),
         None => match material.tensile_strength_min.map(|p| p.get::<megapascal>()) {
@@ -203,11 +249,17 @@ pub fn min_engagement_factor(
     let (factor, tabulated, how) = match value {
         Some(f) => (f.max(thumb), listed, format!("{SUPPLIER}; column {column}")),
         None => {
-            let lower = if fine { v[1] } else { v[0] }.unwrap_or(thumb);
+            // The sheet has no legible value for a stronger bolt in this
+            // material: scale its 8.8 value by the bolt's breaking load.
+            let base = if fine { v[1] } else { v[0] }.unwrap_or(thumb);
+            let scaled = base * (rm / RM_8_8_MPA).max(1.0);
             (
-                lower.max(thumb),
+                scaled.max(thumb),
                 false,
-                format!("{SUPPLIER}; no legible value for column {column}: the 8.8 value is shown as a lower bound only"),
+                format!(
+                    "{SUPPLIER}; no legible value for column {column}: the 8.8 value {base}·d scaled by Rm,bolt/800 MPa = {:.3} to {scaled:.2}·d (the internal thread's stripping force grows in proportion to the engaged length, so the length for the bolt to break before the thread strips — the design rule of VDI 2230 Part 1:2015 §5.5.5, section recalled from memory — grows with the bolt's breaking load Rm·A_s)",
+                    rm / RM_8_8_MPA
+                ),
             )
         }
     };

@@ -16,8 +16,15 @@ use uom::si::force::newton;
 use uom::si::length::millimeter;
 use uom::si::torque::newton_meter;
 
+use super::material::MaterialKind;
 use super::spec::SpecInput;
 use super::EngineError;
+
+mod warnings;
+pub use warnings::{
+    codes, warnings, CLAMP_LENGTH_MODEL_PER_D, PREVAILING_SHARE_MAX, SCATTER_WARN_ABOVE,
+    UTILISATION_BAND, UTILISATION_MIN,
+};
 
 /// Inner bearing diameter d_h from 0.8·d (a bearing face that reaches into
 /// the thread run-out) to 4·d (common practice).
@@ -135,6 +142,19 @@ pub fn problems(input: &SpecInput) -> Vec<EngineError> {
             ));
         }
     }
+    if let Some(nu) = input.utilisation {
+        if nu.is_finite() && nu < UTILISATION_MIN {
+            out.push(outside(
+                "utilisation",
+                "utilisation",
+                nu,
+                "",
+                UTILISATION_MIN,
+                1.0,
+            ));
+        }
+    }
+    outside_method(input, &mut out);
     if let Some(f) = input.required_clamp_load {
         let v = f.get::<newton>();
         let hi = REQUIRED_CLAMP_LOAD_MAX_PER_FY * yield_load;
@@ -150,6 +170,45 @@ pub fn problems(input: &SpecInput) -> Vec<EngineError> {
         }
     }
     out
+}
+
+/// Plastics and threaded inserts are outside VDI 2230: refused unless both
+/// frictions and a permissible torque from a joint test are given.
+fn outside_method(input: &SpecInput, out: &mut Vec<EngineError>) {
+    let Some((field, m)) = outside_method_material(input) else {
+        return;
+    };
+    let why = format!(
+        "{field} '{}' is a {} part, outside VDI 2230 (metal parts): no torque is computed \
+         from tables for it",
+        m.id,
+        m.kind.id().replace('_', " ")
+    );
+    if input.parts.permissible_torque.is_none() {
+        out.push(EngineError::invalid(
+            "permissible_torque",
+            format!("{why}; give permissible_torque, the highest torque a joint test allowed"),
+        ));
+    }
+    if !input.parts.friction_given {
+        out.push(EngineError::invalid(
+            "thread_friction",
+            format!("{why}; give thread_friction and bearing_friction measured on the part"),
+        ));
+    }
+}
+
+/// The first part outside the method: the clamped part's material, then the
+/// tapped part's.
+pub fn outside_method_material(
+    input: &SpecInput,
+) -> Option<(&'static str, &super::material::ClampedMaterial)> {
+    [
+        ("clamped_material", input.clamped_material.as_ref()),
+        ("tapped_part.material", input.parts.tapped_part.as_ref()),
+    ]
+    .into_iter()
+    .find_map(|(f, m)| m.filter(|m| m.kind != MaterialKind::Metal).map(|m| (f, m)))
 }
 
 #[cfg(test)]

@@ -14,7 +14,7 @@ use uom::si::torque::newton_meter;
 use super::angle::{angle_window, AngleOutcome, JointInput};
 use super::bearing::BearingSurface;
 use super::cautions::CautionSet;
-use super::checks::{self, Check, CheckInput, TappedHole};
+use super::checks::{self, Check, CheckInput, MatingParts, TappedHole};
 use super::grade::Strength;
 use super::joint::model::{self, Assembled, JointModel, JointModelInput};
 use super::material::ClampedMaterial;
@@ -90,6 +90,8 @@ pub struct SpecInput {
     pub joint: Option<JointInput>,
     /// Tapped hole thread engagement, for the stripping check.
     pub tapped_hole: Option<TappedHole>,
+    /// Nut, tapped part, washer and values from a joint test.
+    pub parts: MatingParts,
     pub required_clamp_load: Option<Force>,
     pub window_mode: WindowMode,
     pub flags: SpecFlags,
@@ -345,7 +347,11 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
             AngleOutcome::Computed(a) => Some(a),
             AngleOutcome::NotComputed { .. } => None,
         },
+        parts: &input.parts,
+        outside_method: plausible::outside_method_material(input).map(|(_, m)| m),
     });
+    let mut checks = checks;
+    checks.extend(plausible::warnings(input, &window, scatter.value()));
 
     if let Some(w) = joint_model.as_ref().and_then(|m| m.working.as_ref()) {
         checks.extend(w.checks.iter().cloned());
@@ -391,5 +397,7 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
 
 #[cfg(test)]
 mod end_to_end;
+#[cfg(test)]
+mod partners;
 #[cfg(test)]
 pub(crate) mod tests;

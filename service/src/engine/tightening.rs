@@ -105,6 +105,41 @@ pub fn permissible_preload(
     Force::new::<newton>(f)
 }
 
+/// F_M,zul with a locking element's prevailing torque M_p. The prevailing
+/// torque is reacted in the thread, so it twists the bolt like the thread
+/// torque: τ = (F·d2/2·(tan φ + tan ρ') + M_p)/W_p with the same W_p =
+/// π·d0³/12 that the VDI formula's factor 3/2 implies (VDI 2230 Part
+/// 1:2015 eq. R13/5.5/48, recalled from memory), and
+/// (F/A0)² + 3τ² = (ν·Rp)² is solved for F. With M_p = 0 this is
+/// [`permissible_preload`]; zero when M_p alone would yield the bolt.
+pub fn permissible_preload_with_prevailing(
+    thread: &ThreadGeometry,
+    yield_min: Pressure,
+    nu: Utilisation,
+    mu_th: f64,
+    prevailing: Torque,
+) -> Force {
+    let mp = prevailing.value;
+    if mp <= 0.0 {
+        return permissible_preload(thread, yield_min, nu, mu_th);
+    }
+    let a0 = thread.stress_area.value;
+    let d0 = stress_diameter(thread);
+    let k = 12.0 / (PI * d0 * d0 * d0);
+    let c = thread.pitch_diameter.value / 2.0 * (lead(thread) + flank_friction(thread, mu_th));
+    let limit = nu.value() * yield_min.value;
+    let a = 1.0 / (a0 * a0) + 3.0 * k * k * c * c;
+    let b = 6.0 * k * k * c * mp;
+    let c0 = 3.0 * k * k * mp * mp - limit * limit;
+    let disc = b * b - 4.0 * a * c0;
+    let f = if c0 >= 0.0 || disc < 0.0 {
+        0.0
+    } else {
+        (-b + disc.sqrt()) / (2.0 * a)
+    };
+    Force::new::<newton>(f.max(0.0))
+}
+
 /// Combined (von Mises) stress in the thread during tightening at preload F,
 /// by the same VDI 2230 model as [`permissible_preload`].
 pub fn combined_stress(thread: &ThreadGeometry, preload: Force, mu_th: f64) -> Pressure {

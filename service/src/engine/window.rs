@@ -3,7 +3,8 @@
 //!
 //! Forward (maximum utilisation, VDI 2230 Part 1 practice):
 //! - upper torque M_A,max: the torque that, at minimum friction, just reaches
-//!   F_M,zul(μ_th,min) (VDI 2230 Part 1);
+//!   F_M,zul(μ_th,min) (VDI 2230 Part 1), a prevailing torque's twist
+//!   included (`tightening::permissible_preload_with_prevailing`);
 //! - target = upper/(1 + s); lower = target·(1 − s);
 //! - preload max = preload at upper torque and minimum friction;
 //!   preload min = preload at lower torque and maximum friction;
@@ -27,7 +28,9 @@ use uom::si::torque::newton_meter;
 
 use super::quantity::{FrictionRange, Scatter, Utilisation};
 use super::thread::ThreadGeometry;
-use super::tightening::{permissible_preload, preload_at_torque, torque_per_preload};
+use super::tightening::{
+    permissible_preload_with_prevailing as permissible, preload_at_torque, torque_per_preload,
+};
 use super::EngineError;
 
 /// Everything the window needs, each value already validated.
@@ -135,9 +138,14 @@ fn upper_limit(input: &WindowInput) -> (f64, Governing, Force) {
         input.prevailing_torque.value,
     );
     let (th, b) = (input.thread_friction, input.bearing_friction);
-    let f_lo = permissible_preload(t, input.yield_strength, input.utilisation, th.min());
+    let (rp, nu, p) = (
+        input.yield_strength,
+        input.utilisation,
+        input.prevailing_torque,
+    );
+    let f_lo = permissible(t, rp, nu, th.min(), p);
     let m_lo = f_lo.value * torque_per_preload(t, dkm, th.min(), b.min()).value + mp;
-    let f_hi = permissible_preload(t, input.yield_strength, input.utilisation, th.max());
+    let f_hi = permissible(t, rp, nu, th.max(), p);
     let m_hi = f_hi.value * torque_per_preload(t, dkm, th.max(), b.min()).value + mp;
     if m_hi < m_lo {
         (m_hi, Governing::MaximumThreadFriction, f_lo)

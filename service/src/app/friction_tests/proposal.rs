@@ -319,6 +319,7 @@ fn figures(
         clamped_material: None,
         joint: None,
         tapped_hole: None,
+        parts: Default::default(),
         required_clamp_load: None,
         window_mode: WindowMode::MaximumPreload,
         flags: *flags,

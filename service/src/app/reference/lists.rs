@@ -70,6 +70,9 @@ pub struct Material {
     /// The value of `clamped_material` in spec requests.
     pub id: String,
     pub name: String,
+    /// `metal`; or `plastic` / `threaded_insert`: outside VDI 2230, a spec
+    /// needs `permissible_torque` and both frictions from a joint test.
+    pub kind: String,
     pub elastic_modulus: Quantity,
     /// Limiting surface pressure p_G under head or nut, where tabulated.
     #[serde(skip_serializing_if = "Option::is_none")]
@@ -83,6 +86,7 @@ fn wire_material(m: &ClampedMaterial, units: Units) -> Material {
     Material {
         id: m.id.clone(),
         name: m.name.clone(),
+        kind: m.kind.id().into(),
         elastic_modulus: Quantity::stress(m.elastic_modulus, units),
         permissible_surface_pressure: m
             .permissible_surface_pressure

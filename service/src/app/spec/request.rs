@@ -130,6 +130,27 @@ pub struct BoltRequest {
     pub shank_sections: Option<Vec<ShankSectionInput>>,
 }
 
+/// The tapped part of a tapped-hole joint.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
+#[serde(deny_unknown_fields)]
+pub struct TappedPartRequest {
+    /// Material id (see `/v1/materials`), e.g. `aluminium-alsi9cu3`; plastics
+    /// and threaded inserts need `permissible_torque` and both frictions.
+    #[schema(example = "aluminium-alsi9cu3")]
+    pub material: String,
+}
+
+/// The nut of a through-bolted joint.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
+#[serde(deny_unknown_fields)]
+pub struct NutRequest {
+    /// Nut property class (see `/v1/property-classes`, `nut_classes`):
+    /// ISO 898-2 `iso-898-2-5|8|10|12` (also `8`, `class 10`), SAE J995
+    /// `sae-j995-2|5|8`, ASTM A563 `astm-a563-a|c|dh`.
+    #[schema(example = "iso-898-2-10")]
+    pub property_class: String,
+}
+
 /// One tightening-spec request: the POST body of `/v1/tightening-specs`
 /// and one item of a batch.
 #[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize, ToSchema)]
@@ -183,7 +204,8 @@ pub struct SpecRequest {
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub clamp_length: Option<Quantity>,
     /// Clamped-part material id (see `/v1/materials`): its modulus for the
-    /// angle, its limiting surface pressure and strength for the checks.
+    /// angle, its limiting surface pressure for the checks, and the tapped
+    /// part's material when `tapped_part` is not given.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub clamped_material: Option<String>,
     /// Outer diameter D_A of the clamped parts (default: wide joint).
@@ -236,6 +258,19 @@ pub struct SpecRequest {
     /// Snug torque before the angle is counted.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub snug_torque: Option<Quantity>,
+    /// The tapped part of a tapped-hole joint (`{"material"}`); default its
+    /// material is `clamped_material`. Makes the joint a tapped-hole joint.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub tapped_part: Option<TappedPartRequest>,
+    /// The nut of a through-bolted joint (`{"property_class"}`): its class
+    /// is checked against the bolt and its proof load against the preload.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub nut: Option<NutRequest>,
+    /// Permissible tightening torque from a joint test; required (with
+    /// `thread_friction` and `bearing_friction`) for plastic parts and
+    /// threaded inserts, which are outside VDI 2230.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub permissible_torque: Option<Quantity>,
     /// Units of the response: `si` (default) or `us`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub units: Option<Units>,

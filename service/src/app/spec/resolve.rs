@@ -28,6 +28,7 @@ use super::request::SpecRequest;
 
 mod bolt;
 mod joint_model;
+mod mating;
 mod normalised;
 mod parts;
 
@@ -106,6 +107,8 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
     let mode = keep(parts::window_mode(req.window_mode.as_deref()), &mut p);
     let q = Quantities::read(req, &mut p);
     let (joint_type, material) = parts::joint_names(req, &mut p);
+    let joint_type = mating::joint_type(req, joint_type, &mut p);
+    let tapped_material = mating::tapped_material(req, &mut p);
     let friction = resolve_friction(req, snapshot, &mut p);
     let described = bolt::described(req, thread.as_ref(), bearing_parts.head, &mut p);
     let model = joint_model::read(req, &mut p);
@@ -129,22 +132,36 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
     let shorthand_material = material.clone();
     let material = material.or_else(|| model.materials.first().cloned());
     let mut p: Problems = Vec::new();
-    let tapped_hole = parts::tapped_hole(
-        q.engagement,
-        shorthand_material.as_ref(),
-        &strength,
-        &thread,
+    let mating = mating::mating(
+        req,
+        mating::MatingInput {
+            thread: &thread,
+            strength: &strength,
+            joint_type,
+            // The shorthand plate's material stands for the tapped part when
+            // no tapped_part is named; a stack's layers never do.
+            clamped: shorthand_material.as_ref(),
+            tapped: tapped_material,
+            engagement: q.engagement,
+            permissible_torque: q.permissible_torque,
+            washer: bearing_parts.washer,
+            hole: bearing_parts.hole,
+        },
         &mut p,
     );
-    if stack_length.is_some() && q.engagement.is_some() {
+    if stack_length.is_some() && q.engagement.is_some() && mating.parts.tapped_part.is_none() {
         // The stack's layers are clamped plates; the tapped part below them
-        // is not one of them, and its material is not described here.
+        // is not one of them.
         p.retain(|x| x.field != "clamped_material");
         p.push(FieldProblem::invalid(
-            "engagement_length",
-            "with clamped_parts the stripping check has no tapped-part material (the layers \
-             are the clamped plates); give the joint as clamp_length and clamped_material",
+            "tapped_part.material",
+            "needed with clamped_parts and engagement_length: the stripping check depends on \
+             the tapped part's material, and the stack's layers are the clamped plates",
         ));
+    }
+    if let (Some(j), Some(t)) = (joint.as_mut(), &mating.parts.tapped_part) {
+        // The thread's other side is the tapped part, not the clamped one.
+        j.nut_modulus = Some(t.elastic_modulus);
     }
     // The described bolt's shank inside the clamp length goes into δ_S.
     let mut bolt_described = false;
@@ -194,6 +211,9 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
         required_clamp_load_n: q.required_clamp_load.map(|f| f.get::<newton>()),
         window_mode: parts::window_mode_id(mode),
         bolt: described.as_ref().map(NormalisedBolt::from),
+        tapped_part_material: mating.parts.tapped_part.as_ref().map(|m| m.id.as_str()),
+        nut_property_class: mating.parts.nut.as_ref().map(|n| n.id),
+        permissible_torque_nm: q.permissible_torque.map(|t| t.get::<newton_meter>()),
     };
     let bytes = serde_json::to_vec(&normalised).map_err(|e| {
         AppError::field(FieldProblem::malformed(
@@ -225,7 +245,8 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
         prevailing_torque: q.prevailing_torque,
         clamped_material: material,
         joint,
-        tapped_hole,
+        tapped_hole: mating.tapped_hole,
+        parts: mating.parts,
         required_clamp_load: q.required_clamp_load,
         window_mode: mode,
         flags,
@@ -249,3 +270,4 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
 
 #[cfg(test)]
 mod tests;
+

@@ -249,6 +249,7 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
                 .to_string(),
         );
     }
+    assumptions.extend(partner_assumptions(&resolved.input));
     if spec.scatter_source == ValueSource::Default {
         assumptions.push(format!(
             "tool scatter ±{:.0} % from the method default: {}",
@@ -372,4 +373,47 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
         service_version: super::SERVICE_VERSION,
         method_version: super::METHOD_VERSION,
     }
+}
+
+/// What the answer assumed about the nut, the tapped part, the washer and a
+/// prevailing torque, in words.
+fn partner_assumptions(input: &crate::engine::spec::SpecInput) -> Vec<String> {
+    let mut out = Vec::new();
+    let parts = &input.parts;
+    if let Some(n) = &parts.nut {
+        out.push(format!(
+            "nut: {} ({}), of the standard's own height; made for {}",
+            n.name, n.standard, n.mates
+        ));
+    }
+    if let Some(t) = &input.tapped_hole {
+        out.push(format!(
+            "tapped hole: thread engagement {:.1} mm ({}) against at least {:.2}·d for the \
+             tapped part's material",
+            t.engagement_length.value * 1e3,
+            if t.engagement_given {
+                "given".to_string()
+            } else {
+                format!(
+                    "not given: {}·d assumed, common practice",
+                    crate::engine::checks::DEFAULT_TAPPED_ENGAGEMENT_PER_D
+                )
+            },
+            t.min_engagement_factor
+        ));
+    }
+    if let Some(w) = &parts.washer {
+        out.push(format!(
+            "washer: the head presses on the washer, the washer on the part: {}",
+            w.source
+        ));
+    }
+    if input.prevailing_torque.is_some_and(|t| t.value > 0.0) {
+        out.push(
+            "prevailing torque: reacted in the thread, it twists the bolt like the thread \
+             torque and lowers F_M,zul (added to the torsion of VDI 2230 Part 1 eq. R13/5.5/48)"
+                .to_string(),
+        );
+    }
+    out
 }

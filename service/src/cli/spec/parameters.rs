@@ -4,8 +4,9 @@
 //! `tightspec spec` (clap's argument ids, minus the command's own) and the
 //! committed OpenAPI document (`bolt` standing for `bolt_standard`,
 //! `bolt_length` and `bolt_thread_length`; its shank sections are body
-//! only; `loads` for its `loads_*` parameters; `clamped_parts` is one
-//! parameter in both, an array of objects in the body and
+//! only; `loads` for its `loads_*` parameters; `tapped_part` for
+//! `tapped_part_material`, `nut` for `nut_property_class`; `clamped_parts` is
+//! one parameter in both, an array of objects in the body and
 //! `THICKNESS:MATERIAL,…` in the query); the setpoint query is the spec query plus
 //! its four tool fields, in the code and in the document; and a batch item
 //! is the spec body plus `answer` and the same four tool fields.
@@ -58,6 +59,8 @@ fn flat(property: &str) -> Vec<String> {
             "bolt_thread_length".into(),
         ],
         "loads" => LOADS.iter().map(|field| format!("loads_{field}")).collect(),
+        "tapped_part" => vec!["tapped_part_material".into()],
+        "nut" => vec!["nut_property_class".into()],
         other => vec![other.to_string()],
     }
 }
@@ -216,5 +219,7 @@ fn a_body_property_stands_for_its_flat_parameters() {
         flat("bolt"),
         ["bolt_standard", "bolt_length", "bolt_thread_length"]
     );
+    assert_eq!(flat("tapped_part"), ["tapped_part_material"]);
+    assert_eq!(flat("nut"), ["nut_property_class"]);
     assert_eq!(flat("thread"), ["thread"]);
 }

@@ -170,3 +170,26 @@ fn every_tabulated_thread_either_resolves_or_refuses_cleanly() {
         }
     }
 }
+
+#[test]
+fn pan_and_button_heads_bear_on_their_head_diameter() {
+    // ISO 7045 pan head M5 d_k 9.5 mm; ISO 7380-1 button head M8 d_k 14 mm
+    // (recalled from memory); ISO 273 medium holes 5.5 and 9 mm.
+    let m5 = parse_designation("M5").unwrap();
+    let pan = bearing_surface(&m5, HeadType::PanHead, Washer::None, HoleSeries::Medium).unwrap();
+    assert!((pan.outer_diameter.get::<millimeter>() - 9.5).abs() < 1e-9);
+    assert!(pan.source.contains("recalled from memory"));
+    let m8 = parse_designation("M8").unwrap();
+    let button =
+        bearing_surface(&m8, HeadType::ButtonHead, Washer::None, HoleSeries::Medium).unwrap();
+    assert!((button.outer_diameter.get::<millimeter>() - 14.0).abs() < 1e-9);
+    // Outside the tables, and on inch threads: refused naming `head`.
+    let m20 = parse_designation("M20").unwrap();
+    let e = bearing_surface(&m20, HeadType::PanHead, Washer::None, HoleSeries::Medium).unwrap_err();
+    assert_eq!(e.field(), "head");
+    let unc = parse_designation("1/4-20").unwrap();
+    let e =
+        bearing_surface(&unc, HeadType::ButtonHead, Washer::None, HoleSeries::Medium).unwrap_err();
+    assert_eq!(e.field(), "head");
+    assert_eq!("pan-head".parse::<HeadType>().unwrap(), HeadType::PanHead);
+}

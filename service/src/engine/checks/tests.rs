@@ -14,6 +14,7 @@ struct Case {
     bearing: BearingSurface,
     window: TorqueWindow,
     friction: FrictionRange,
+    parts: MatingParts,
 }
 
 fn case() -> Case {
@@ -37,6 +38,7 @@ fn case() -> Case {
         bearing,
         window,
         friction,
+        parts: MatingParts::default(),
     }
 }
 
@@ -61,6 +63,8 @@ fn input(c: &Case) -> CheckInput<'_> {
         stainless: false,
         angle: None,
         bolt_described: false,
+        parts: &c.parts,
+        outside_method: None,
     }
 }
 
@@ -98,6 +102,7 @@ fn each_flagged_condition_has_its_code() {
     i.tapped_hole = Some(TappedHole {
         engagement_length: mm(12.0),
         min_engagement_factor: 2.0,
+        engagement_given: true,
     });
     let verdict = clamp_load_verdict(&c.window, Force::new::<kilonewton>(60.0));
     i.clamp_load = Some(&verdict);
@@ -144,7 +149,9 @@ fn every_code_written_in_the_checks_is_listed() {
         assert!(CODES.contains(&code), "{code} missing from CODES");
         found += 1;
     }
-    assert!(found >= 9, "{found}");
+    // The partners' and plausibility checks name their codes by constants
+    // that CODES itself lists.
+    assert!(found >= 8, "{found}");
     let mut sorted = CODES.to_vec();
     sorted.sort_unstable();
     sorted.dedup();

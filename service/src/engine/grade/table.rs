@@ -74,6 +74,19 @@ const GRADE2_NOTE: &str = "Grade 2 values for 1/4 to 3/4 in apply to bolts 6 in 
 // offset. Size coverage #0 to 4 in (recalled from memory).
 const A574: &str = "ASTM A574, alloy steel socket head cap screws";
 
+// Inch bolting standards, values recalled from memory (ksi given as psi).
+// A193 and A320 state tensile and yield strength but no proof load: the
+// yield strength stands in for the proof stress.
+const J429_MEM: &str = "SAE J429, mechanical requirements for inch bolts, screws and studs (values recalled from memory)";
+const A193: &str = "ASTM A193, alloy steel bolting for high-temperature or high-pressure service (values recalled from memory)";
+const A320: &str =
+    "ASTM A320, alloy steel bolting for low-temperature service (values recalled from memory)";
+const F3125: &str = "ASTM F3125, high-strength structural bolts (values recalled from memory)";
+const A449: &str =
+    "ASTM A449, quenched and tempered steel bolts and studs (values recalled from memory)";
+const NO_PROOF_NOTE: &str =
+    "the standard specifies no proof load; the proof stress shown is the minimum yield strength";
+
 pub(crate) static GRADES: &[RawGrade] = &[
     RawGrade {
         id: "4.6",
@@ -171,6 +184,98 @@ pub(crate) static GRADES: &[RawGrade] = &[
     stainless("A4-50", "austenitic A4, class 50", S50),
     stainless("A4-70", "austenitic A4, class 70", S70),
     stainless("A4-80", "austenitic A4, class 80", S80),
+    stainless("A1-50", "austenitic A1 (free-machining), class 50", S50),
+    stainless("A1-70", "austenitic A1 (free-machining), class 70", S70),
+    stainless("A1-80", "austenitic A1 (free-machining), class 80", S80),
+    stainless("A3-50", "austenitic A3 (stabilised), class 50", S50),
+    stainless("A3-70", "austenitic A3 (stabilised), class 70", S70),
+    stainless("A3-80", "austenitic A3 (stabilised), class 80", S80),
+    stainless("A5-50", "austenitic A5 (stabilised, Mo), class 50", S50),
+    stainless("A5-70", "austenitic A5 (stabilised, Mo), class 70", S70),
+    stainless("A5-80", "austenitic A5 (stabilised, Mo), class 80", S80),
+    stainless100("A2-100", "austenitic A2, class 100"),
+    stainless100("A4-100", "austenitic A4, class 100"),
+    stainless100("A5-100", "austenitic A5 (stabilised, Mo), class 100"),
+    RawGrade {
+        id: "sae-j429-1",
+        name: "SAE J429 Grade 1",
+        standard: J429_MEM,
+        family: GradeFamily::SaeJ429,
+        yield_basis: YieldBasis::InchYield,
+        ranges: &[r(0.25, true, 1.5, "1/4 to 1-1/2 in", 60_000.0, 36_000.0, 33_000.0)],
+        notes: &[],
+    },
+    RawGrade {
+        id: "sae-j429-8.2",
+        name: "SAE J429 Grade 8.2",
+        standard: J429_MEM,
+        family: GradeFamily::SaeJ429,
+        yield_basis: YieldBasis::InchYield,
+        ranges: &[r(0.25, true, 1.0, "1/4 to 1 in", 150_000.0, 130_000.0, 120_000.0)],
+        notes: &["Grade 8.2 is a low-carbon boron martensite steel; SAE J429 covers it to 1 in (recalled from memory)"],
+    },
+    RawGrade {
+        id: "astm-a193-b7",
+        name: "ASTM A193 Grade B7 stud or bolt",
+        standard: A193,
+        family: GradeFamily::AstmBolting,
+        yield_basis: YieldBasis::ProofStrength02,
+        ranges: &[
+            r(0.25, true, 2.5, "1/4 to 2-1/2 in", 125_000.0, 105_000.0, 105_000.0),
+            r(2.5, false, 4.0, "over 2-1/2 to 4 in", 115_000.0, 95_000.0, 95_000.0),
+            r(4.0, false, 7.0, "over 4 to 7 in", 100_000.0, 75_000.0, 75_000.0),
+        ],
+        notes: &[NO_PROOF_NOTE],
+    },
+    RawGrade {
+        id: "astm-a193-b7m",
+        name: "ASTM A193 Grade B7M stud or bolt (hardness limited)",
+        standard: A193,
+        family: GradeFamily::AstmBolting,
+        yield_basis: YieldBasis::ProofStrength02,
+        ranges: &[r(0.25, true, 4.0, "1/4 to 4 in", 100_000.0, 80_000.0, 80_000.0)],
+        notes: &[NO_PROOF_NOTE, "B7M: hardness limited to 235 HB for sour service (recalled from memory)"],
+    },
+    RawGrade {
+        id: "astm-a320-l7",
+        name: "ASTM A320 Grade L7 stud or bolt (low temperature)",
+        standard: A320,
+        family: GradeFamily::AstmBolting,
+        yield_basis: YieldBasis::ProofStrength02,
+        ranges: &[r(0.25, true, 2.5, "1/4 to 2-1/2 in", 125_000.0, 105_000.0, 105_000.0)],
+        notes: &[NO_PROOF_NOTE, "L7: impact tested at low temperature (ASTM A320)"],
+    },
+    RawGrade {
+        id: "astm-f3125-a325",
+        name: "ASTM F3125 Grade A325 structural bolt",
+        standard: F3125,
+        family: GradeFamily::AstmBolting,
+        yield_basis: YieldBasis::InchYield,
+        ranges: &[r(0.5, true, 1.5, "1/2 to 1-1/2 in", 120_000.0, 92_000.0, 85_000.0)],
+        notes: &[],
+    },
+    RawGrade {
+        id: "astm-f3125-a490",
+        name: "ASTM F3125 Grade A490 structural bolt",
+        standard: F3125,
+        family: GradeFamily::AstmBolting,
+        yield_basis: YieldBasis::InchYield,
+        ranges: &[r(0.5, true, 1.5, "1/2 to 1-1/2 in", 150_000.0, 130_000.0, 120_000.0)],
+        notes: &["A490 must not be hot-dip galvanized (ASTM F3125, recalled from memory)"],
+    },
+    RawGrade {
+        id: "astm-a449",
+        name: "ASTM A449 bolt or stud",
+        standard: A449,
+        family: GradeFamily::AstmBolting,
+        yield_basis: YieldBasis::InchYield,
+        ranges: &[
+            r(0.25, true, 1.0, "1/4 to 1 in", 120_000.0, 92_000.0, 85_000.0),
+            r(1.0, false, 1.5, "over 1 to 1-1/2 in", 105_000.0, 81_000.0, 74_000.0),
+            r(1.5, false, 3.0, "over 1-1/2 to 3 in", 90_000.0, 58_000.0, 55_000.0),
+        ],
+        notes: &[],
+    },
     RawGrade {
         id: "sae-j429-2",
         name: "SAE J429 Grade 2",
@@ -253,6 +358,22 @@ pub(crate) static GRADES: &[RawGrade] = &[
 const S50: &[RawRange] = &[r(1.6, true, 39.0, "M1.6 to M39", 500.0, 210.0, 210.0)];
 const S70: &[RawRange] = &[r(1.6, true, 24.0, "M1.6 to M24", 700.0, 450.0, 450.0)];
 const S80: &[RawRange] = &[r(1.6, true, 24.0, "M1.6 to M24", 800.0, 600.0, 600.0)];
+
+// ISO 3506-1:2020 adds property class 100 (Rm 1000 MPa, Rp0.2 800 MPa) for
+// austenitic grades, to M24 (values and size limit recalled from memory).
+const S100: &[RawRange] = &[r(1.6, true, 24.0, "M1.6 to M24", 1000.0, 800.0, 800.0)];
+
+const fn stainless100(id: &'static str, name: &'static str) -> RawGrade {
+    RawGrade {
+        id,
+        name,
+        standard: "ISO 3506-1:2020, austenitic stainless steel bolts, property class 100 (values recalled from memory)",
+        family: GradeFamily::Iso3506,
+        yield_basis: YieldBasis::ProofStrength02,
+        ranges: S100,
+        notes: &[STAINLESS_NOTE],
+    }
+}
 
 const fn stainless(id: &'static str, name: &'static str, ranges: &'static [RawRange]) -> RawGrade {
     RawGrade {

@@ -273,3 +273,46 @@ proptest::proptest! {
         let _ = find_property_class(&s);
     }
 }
+
+#[test]
+fn the_added_grades_are_found_by_their_usual_names_and_keep_their_sizes() {
+    // Values recalled from memory (see grade/table.rs): A193 B7 125 ksi to
+    // 2-1/2 in; A325 and A490 from 1/2 in; J429 Grade 8.2 to 1 in; ISO
+    // 3506-1:2020 class 100 Rm 1000 MPa to M24.
+    for (name, id) in [
+        ("B7", "astm-a193-b7"),
+        ("ASTM A193 B7M", "astm-a193-b7m"),
+        ("A320 L7", "astm-a320-l7"),
+        ("A325", "astm-f3125-a325"),
+        ("ASTM F3125 A490", "astm-f3125-a490"),
+        ("A449", "astm-a449"),
+        ("SAE J429 Grade 1", "sae-j429-1"),
+        ("grade 8.2", "sae-j429-8.2"),
+        ("A4-100", "A4-100"),
+        ("a5-70", "A5-70"),
+        ("A1-50", "A1-50"),
+        ("A3-80", "A3-80"),
+    ] {
+        assert_eq!(find_property_class(name).unwrap().id, id, "{name}");
+    }
+    let ksi = |g: &str, t: &str| {
+        strength_for(g, &parse_designation(t).unwrap())
+            .map(|s| s.tensile_strength_min.get::<psi>() / 1000.0)
+    };
+    assert!((ksi("B7", "1-8").unwrap() - 125.0).abs() < 1e-9);
+    assert!((ksi("A490", "3/4-10").unwrap() - 150.0).abs() < 1e-9);
+    assert_eq!(ksi("A325", "3/8-16").unwrap_err().field(), "property_class");
+    assert_eq!(
+        ksi("grade 8.2", "1-1/4-7").unwrap_err().field(),
+        "property_class"
+    );
+    assert_eq!(ksi("B7", "M12").unwrap_err().field(), "property_class");
+    let m30 = parse_designation("M30").unwrap();
+    assert_eq!(
+        strength_for("A4-100", &m30).unwrap_err().field(),
+        "property_class"
+    );
+    let m20 = parse_designation("M20").unwrap();
+    let s = strength_for("A4-100", &m20).unwrap();
+    assert!((s.tensile_strength_min.get::<megapascal>() - 1000.0).abs() < 1e-9);
+}

@@ -49,6 +49,7 @@ fn each_out_of_range_input_is_named() {
     input.tapped_hole = Some(TappedHole {
         engagement_length: mm(500.0),
         min_engagement_factor: 1.0,
+        engagement_given: true,
     });
     assert_eq!(fields(&input), ["joint.engagement_length"]);
 

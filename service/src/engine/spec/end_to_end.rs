@@ -48,6 +48,7 @@ fn input(designation: &str, class: &str) -> SpecInput {
             snug_torque: None,
         }),
         tapped_hole: None,
+        parts: Default::default(),
         required_clamp_load: None,
         window_mode: WindowMode::MaximumPreload,
         flags: SpecFlags::default(),
@@ -95,6 +96,7 @@ fn short_engagement_in_aluminium_is_flagged() {
     i.tapped_hole = Some(TappedHole {
         engagement_length: mm(8.0),
         min_engagement_factor: factor.factor,
+        engagement_given: true,
     });
     let spec = compute(&i).unwrap();
     let codes: Vec<_> = spec.checks.iter().map(|c| c.code).collect();

@@ -13,6 +13,7 @@ fn steel() -> ClampedMaterial {
     ClampedMaterial {
         id: "test-steel".into(),
         name: "steel (test fixture)".into(),
+        kind: crate::engine::material::MaterialKind::Metal,
         // E = 205 000 N/mm² (usual VDI 2230 value, recalled from memory);
         // p_G of S355J0 760 MPa (VDI 2230:2003, as reproduced in a supplier's technical tables).
         elastic_modulus: mpa(205_000.0),
@@ -55,6 +56,7 @@ pub(crate) fn m10_input() -> SpecInput {
         clamped_material: Some(steel()),
         joint: Some(joint()),
         tapped_hole: None,
+        parts: Default::default(),
         required_clamp_load: None,
         window_mode: WindowMode::MaximumPreload,
         flags: SpecFlags::default(),

@@ -6,6 +6,7 @@ use uom::si::torque::newton_meter;
 use super::*;
 use crate::engine::tightening::combined_stress;
 use crate::engine::tightening::fixtures::*;
+use crate::engine::tightening::permissible_preload;
 use crate::engine::tightening::tightening_torque;
 
 fn input<'a>(t: &'a ThreadGeometry, th: (f64, f64), b: (f64, f64), s: f64) -> WindowInput<'a> {

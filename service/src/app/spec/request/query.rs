@@ -10,52 +10,13 @@ use crate::engine::bearing::{HeadType, HoleSeries, Washer};
 use super::flat::{bolt_from_query, friction_from_query, loads_from_query, FlatLoads};
 use super::joint::clamped_parts_from_query;
 use super::{BearingInput, SpecRequest};
+use super::{NutRequest, TappedPartRequest};
 use crate::app::quantity::Quantity;
 use crate::app::quantity::Units;
 use crate::app::FieldProblem;
 
-/// Reads a query value such as `40mm`, `40 mm`, `1.5in`, `2N·m` into a
-/// quantity. A bare number is refused: the unit must be stated.
-pub fn quantity_from_query(field: &str, text: &str) -> Result<Quantity, FieldProblem> {
-    let t = text.trim();
-    let split = t
-        .char_indices()
-        .find(|&(i, c)| {
-            !(c.is_ascii_digit()
-                || c == '.'
-                || ((c == '-' || c == '+') && (i == 0 || t[..i].ends_with(['e', 'E'])))
-                || ((c == 'e' || c == 'E')
-                    && i > 0
-                    && t[i + 1..]
-                        .starts_with(|d: char| d.is_ascii_digit() || d == '-' || d == '+')))
-        })
-        .map(|(i, _)| i)
-        .unwrap_or(t.len());
-    let (number, unit) = t.split_at(split);
-    let unit = unit.trim();
-    let value: f64 = number.parse().map_err(|_| {
-        FieldProblem::malformed(
-            field,
-            format!("'{text}' is not a number followed by a unit"),
-        )
-    })?;
-    if !value.is_finite() {
-        return Err(FieldProblem::malformed(
-            field,
-            format!("'{text}': the number is too large to represent"),
-        ));
-    }
-    if unit.is_empty() {
-        return Err(FieldProblem::malformed(
-            field,
-            format!("'{text}' has no unit; write it with one, e.g. 40mm, 1.5in, 20kN, 2N·m"),
-        ));
-    }
-    Ok(Quantity {
-        value,
-        unit: unit.to_string().into(),
-    })
-}
+mod value;
+pub use value::quantity_from_query;
 
 /// Help text listing every value of a `--head`, `--washer` or `--hole`
 /// flag (the same lists `/v1/bearing-types` serves).
@@ -221,6 +182,18 @@ macro_rules! spec_query {
             /// Snug torque with unit, e.g. `10N·m`.
             #[arg(long)]
             pub snug_torque: Option<String>,
+            /// Material id of the tapped part of a tapped-hole joint
+            /// (default: `clamped_material`), e.g. `aluminium-6082`.
+            #[arg(long)]
+            pub tapped_part_material: Option<String>,
+            /// Property class of the nut (ISO 898-2 `8`, `10`, ...; SAE J995,
+            /// ASTM A563), e.g. `iso-898-2-10`.
+            #[arg(long)]
+            pub nut_property_class: Option<String>,
+            /// Permissible tightening torque from a joint test with unit,
+            /// e.g. `1.2N·m`; required for plastics and threaded inserts.
+            #[arg(long)]
+            pub permissible_torque: Option<String>,
             /// Units of the response: `si` (default) or `us`.
             #[arg(long, value_enum)]
             pub units: Option<Units>,
@@ -268,6 +241,7 @@ macro_rules! spec_query {
                 let engagement_length = q("engagement_length", &self.engagement_length);
                 let required_clamp_load = q("required_clamp_load", &self.required_clamp_load);
                 let snug_torque = q("snug_torque", &self.snug_torque);
+                let permissible_torque = q("permissible_torque", &self.permissible_torque);
                 let bolt_length = q("bolt_length", &self.bolt_length);
                 let bolt_thread_length = q("bolt_thread_length", &self.bolt_thread_length);
                 let roughness_rz = q("roughness_rz", &self.roughness_rz);
@@ -353,6 +327,14 @@ macro_rules! spec_query {
                     load_introduction: self.load_introduction,
                     thread_rolling: self.thread_rolling.clone(),
                     snug_torque,
+                    tapped_part: self.tapped_part_material.clone().map(|material| {
+                        TappedPartRequest { material }
+                    }),
+                    nut: self
+                        .nut_property_class
+                        .clone()
+                        .map(|property_class| NutRequest { property_class }),
+                    permissible_torque,
                     units: self.units,
                     catalogue_revision: self.catalogue_revision,
                 })

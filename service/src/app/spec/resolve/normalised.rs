@@ -50,6 +50,14 @@ pub(super) struct Normalised<'a> {
     /// `bolt` is what it was before `bolt` existed.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub bolt: Option<NormalisedBolt>,
+    /// The tapped part's material, the nut class and the permissible torque
+    /// from a test; each left out when not given (earlier hashes unchanged).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub tapped_part_material: Option<&'a str>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub nut_property_class: Option<&'static str>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub permissible_torque_nm: Option<f64>,
 }
 
 /// The described bolt after validation: lengths in mm, the shank sections

@@ -13,9 +13,8 @@ use crate::engine::angle::{JointInput, JointType};
 use crate::engine::bearing::{
     bearing_surface, explicit_bearing, BearingSurface, HeadType, HoleSeries, Washer,
 };
-use crate::engine::checks::TappedHole;
 use crate::engine::grade::{find_property_class, strength_for, Strength};
-use crate::engine::material::{find_material, min_engagement_factor, ClampedMaterial};
+use crate::engine::material::{find_material, ClampedMaterial};
 use crate::engine::method::TighteningMethod;
 use crate::engine::spec::WindowMode;
 use crate::engine::thread::{parse_designation, ThreadGeometry};
@@ -144,6 +143,7 @@ pub(super) struct Quantities {
     pub joint_outer: Option<Length>,
     pub engagement: Option<Length>,
     pub required_clamp_load: Option<Force>,
+    pub permissible_torque: Option<Torque>,
 }
 
 impl Quantities {
@@ -157,6 +157,7 @@ impl Quantities {
         Self {
             prevailing_torque: torque("prevailing_torque", &req.prevailing_torque, p),
             snug_torque: torque("snug_torque", &req.snug_torque, p),
+            permissible_torque: torque("permissible_torque", &req.permissible_torque, p),
             clamp_length: length("clamp_length", &req.clamp_length, p),
             joint_outer: length("joint_outer_diameter", &req.joint_outer_diameter, p),
             engagement: length("engagement_length", &req.engagement_length, p),
@@ -207,33 +208,4 @@ pub(super) fn joint(
         shank_sections: Vec::new(),
         snug_torque: q.snug_torque,
     })
-}
-
-/// The tapped hole to check, when an engagement length is given (it needs
-/// the tapped part's material).
-pub(super) fn tapped_hole(
-    engagement: Option<Length>,
-    material: Option<&ClampedMaterial>,
-    strength: &Strength,
-    thread: &ThreadGeometry,
-    p: &mut Problems,
-) -> Option<TappedHole> {
-    match (engagement, material) {
-        (Some(len), Some(m)) => {
-            let factor = engine(min_engagement_factor(m, strength, thread), p);
-            factor.map(|f| TappedHole {
-                engagement_length: len,
-                min_engagement_factor: f.factor,
-            })
-        }
-        (Some(_), None) => {
-            p.push(FieldProblem::invalid(
-                "clamped_material",
-                "needed with engagement_length: the minimum engagement depends on the \
-                 tapped part's material",
-            ));
-            None
-        }
-        _ => None,
-    }
 }
