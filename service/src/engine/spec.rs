@@ -14,6 +14,7 @@ use super::bearing::BearingSurface;
 use super::cautions::CautionSet;
 use super::checks::{self, Check, CheckInput, TappedHole};
 use super::grade::Strength;
+use super::joint::controlled::ControlledPreload;
 use super::material::ClampedMaterial;
 use super::method::{MethodInfo, TighteningMethod};
 use super::plausible;
@@ -29,6 +30,7 @@ use super::window::{
 };
 use super::EngineError;
 
+mod controlled;
 mod validate;
 use validate::{validate_bearing, validate_strength, validate_thread};
 
@@ -140,6 +142,9 @@ pub struct Spec {
     pub clamp_load: Option<ClampLoadVerdict>,
     pub joint: Option<JointInput>,
     pub angle: AngleOutcome,
+    /// Yield- or angle-controlled tightening: the preload model the window
+    /// comes from (α_A, R_p0.2max assumed); `None` for torque control.
+    pub controlled: Option<ControlledPreload>,
     pub at_min_friction: FrictionFigures,
     pub at_max_friction: FrictionFigures,
     pub checks: Vec<Check>,
@@ -272,6 +277,7 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         prevailing_torque: prevailing,
     };
     let window = match (input.window_mode, input.required_clamp_load) {
+        _ if !method.torque_controlled => maximum_window(&w_in)?,
         (WindowMode::MaximumPreload, _) => maximum_window(&w_in)?,
         (WindowMode::MinimumClampLoad, Some(req)) => clamp_load_window(&w_in, req)?
             .map_err(|none| EngineError::invalid("required_clamp_load", none.explanation()))?,
@@ -282,9 +288,6 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
             ))
         }
     };
-    let clamp_load = input
-        .required_clamp_load
-        .map(|req| clamp_load_verdict(&window, req));
 
     let joint = input.joint.clone().map(|mut j| {
         // Defaults made visible in the output (inputs after defaults).
@@ -300,14 +303,25 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         }
         j
     });
-    let angle = match &joint {
-        Some(j) => angle_window(&w_in, &input.bearing, j, &window)?,
-        None => AngleOutcome::NotComputed {
-            reason: "no joint given (clamp length, clamped material, outer diameter): the angle \
-                     depends on the joint's resilience and is never guessed"
-                .into(),
-        },
-    };
+    let (window, angle, controlled) =
+        match controlled::controlled(input, &w_in, &window, joint.as_ref())? {
+            Some(c) => (c.window, c.angle, Some(c.preload)),
+            None => {
+                let angle = match &joint {
+                    Some(j) => angle_window(&w_in, &input.bearing, j, &window)?,
+                    None => AngleOutcome::NotComputed {
+                        reason: "no joint given (clamp length, clamped material, outer \
+                                 diameter): the angle depends on the joint's resilience and \
+                                 is never guessed"
+                            .into(),
+                    },
+                };
+                (window, angle, None)
+            }
+        };
+    let clamp_load = input
+        .required_clamp_load
+        .map(|req| clamp_load_verdict(&window, req));
 
     let (th, b) = (input.thread_friction, input.bearing_friction);
     let at_min_friction = figures(&w_in, window.target, th.min(), b.min());
@@ -372,6 +386,7 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         clamp_load,
         joint,
         angle,
+        controlled,
         at_min_friction,
         at_max_friction,
         checks,
