@@ -1,8 +1,11 @@
 //! Engine benchmarks (issue 6): one complete spec, a torque-angle spec,
 //! designation parsing, a batch of 10,000 specs and the evaluation of a
-//! 100-specimen friction test series.
+//! 100-specimen friction test series; (issue 12) the full working-state
+//! path: a described bolt, torque-angle tightening by the angle model,
+//! load factor, embedding and the working state under operating loads.
 //!
-//! Targets (issue 6): one spec ≤ 2 µs median, parsing ≤ 200 ns. Run with
+//! Targets (issue 6): one spec ≤ 2 µs median, parsing ≤ 200 ns; (issue 12)
+//! the full working-state spec ≤ 5 µs. Run with
 //! `cargo bench --bench engine`; criterion prints the median as the middle
 //! figure of `time: [low median high]`.
 //!
@@ -11,9 +14,10 @@
 use std::hint::black_box;
 
 use criterion::{criterion_group, criterion_main, Criterion, Throughput};
-use uom::si::f64::{Force, Length};
+use uom::si::f64::{Force, Length, Torque};
 use uom::si::force::kilonewton;
-use uom::si::length::millimeter;
+use uom::si::length::{micrometer, millimeter};
+use uom::si::torque::newton_meter;
 
 use tightspec::engine::angle::{AngleOutcome, JointInput, JointType};
 use tightspec::engine::bearing::{bearing_surface, HeadType, HoleSeries, Washer};
@@ -21,10 +25,16 @@ use tightspec::engine::calibration::{
     evaluate_series, JointGeometry, Measurement, SeriesInput, SpecimenRecord,
 };
 use tightspec::engine::grade::strength_for;
+use tightspec::engine::joint::bolt::{bolt, in_clamp_length, BoltInput, BoltStandard};
+use tightspec::engine::joint::embedding::{embedding, Loading, Surfaces};
+use tightspec::engine::joint::load_factor::load_factor;
+use tightspec::engine::joint::working::{
+    working_state, Loads, ThreadRolling, WorkingInput, WorkingState,
+};
 use tightspec::engine::material::find_material;
 use tightspec::engine::method::TighteningMethod;
 use tightspec::engine::quantity::FrictionRange;
-use tightspec::engine::spec::{compute, SpecFlags, SpecInput, WindowMode};
+use tightspec::engine::spec::{compute, Spec, SpecFlags, SpecInput, WindowMode};
 use tightspec::engine::thread::parse_designation;
 use tightspec::engine::EngineError;
 
@@ -138,6 +148,113 @@ fn bench_spec(c: &mut Criterion) {
     g.finish();
 }
 
+/// Kestrel K4 mower deck spindle (demo) as a described joint: ISO 4014
+/// M12×60 10.9 clamping 40 mm of steel (D_A 30 mm), torque-angle, then the
+/// working state under 12 kN axial (0 to 12 kN), 2 kN transverse over one
+/// interface at μ_T 0.15, Rz 16 µm. The engine's own functions in the order
+/// a request meets them: look-ups, bolt and its shank in the clamp length,
+/// `compute` (angle-controlled preload, checks), Φ, F_Z, working state.
+fn working_state_spec() -> Result<(Spec, WorkingState), EngineError> {
+    let thread = parse_designation("M12")?;
+    let strength = strength_for("10.9", &thread)?;
+    let bearing = bearing_surface(
+        &thread,
+        HeadType::HexagonHead,
+        Washer::None,
+        HoleSeries::Medium,
+    )?;
+    let lk = mm(40.0);
+    let described = bolt(
+        &thread,
+        &BoltInput::Standard {
+            standard: BoltStandard::Iso4014,
+            length: mm(60.0),
+        },
+    )?;
+    let clamped = in_clamp_length(&described, lk, thread.nominal_diameter * 0.8, "nut")?;
+    let joint = JointInput {
+        clamp_length: Some(lk),
+        joint_type: JointType::ThroughBolted,
+        clamped_modulus: None,
+        nut_modulus: None,
+        bolt_modulus: None,
+        outer_diameter: Some(mm(30.0)),
+        socket_head: clamped.socket_head,
+        shank_sections: clamped.shank_sections,
+        snug_torque: None,
+    };
+    let material = find_material("steel")?;
+    let p_g = material.permissible_surface_pressure;
+    let input = SpecInput {
+        thread,
+        strength,
+        bearing,
+        thread_friction: FrictionRange::new(0.10, 0.14, "thread_friction")?,
+        bearing_friction: FrictionRange::new(0.10, 0.14, "bearing_friction")?,
+        friction_source: "given in the request".to_string(),
+        method: TighteningMethod::TorqueAngle,
+        scatter: None,
+        utilisation: None,
+        prevailing_torque: None,
+        clamped_material: Some(material),
+        joint: Some(joint),
+        tapped_hole: None,
+        required_clamp_load: None,
+        window_mode: WindowMode::MaximumPreload,
+        flags: SpecFlags {
+            bolt_described: true,
+            ..SpecFlags::default()
+        },
+    };
+    let spec = compute(&input)?;
+    let AngleOutcome::Computed(a) = &spec.angle else {
+        return Err(EngineError::invalid("joint", "no angle window"));
+    };
+    let r = a.resilience;
+    let phi = load_factor(r.bolt, r.clamped_parts, None)?;
+    let surfaces = Surfaces::of_stack(JointType::ThroughBolted, 1)?;
+    let fz = embedding(
+        Length::new::<micrometer>(16.0),
+        Loading::Transverse,
+        surfaces,
+        r.bolt,
+        r.clamped_parts,
+    )?;
+    let loads = Loads {
+        axial_max: Force::new::<kilonewton>(12.0),
+        axial_min: Force::new::<kilonewton>(0.0),
+        transverse: Force::new::<kilonewton>(2.0),
+        torsion: Torque::new::<newton_meter>(0.0),
+        torsion_radius: None,
+        interfaces: 1,
+        interface_friction: Some(0.15),
+        sealing_clamp_load: None,
+    };
+    let working = working_state(&WorkingInput {
+        thread: &spec.thread,
+        yield_strength: spec.strength.yield_strength_min,
+        preload_min: spec.window.preload_min,
+        preload_max: spec.window.preload_max,
+        thread_friction_min: spec.thread_friction.min(),
+        load_factor: phi.load_factor,
+        embedding_loss: fz.preload_loss,
+        bearing: &spec.bearing,
+        permissible_surface_pressure: p_g,
+        rolling: ThreadRolling::BeforeHeatTreatment,
+        loads: &loads,
+    })?;
+    Ok((spec, working))
+}
+
+fn bench_working_state(c: &mut Criterion) {
+    if let Err(e) = working_state_spec() {
+        panic!("working-state bench input refused by the engine: {e}");
+    }
+    c.bench_function("working_state/m12x60_iso4014_10.9_torque_angle", |b| {
+        b.iter(working_state_spec)
+    });
+}
+
 fn bench_parse(c: &mut Criterion) {
     let mut g = c.benchmark_group("parse_designation");
     for text in ["M10", "M12x1.25", "1/2-13 UNC", "#10-24"] {
@@ -248,6 +365,7 @@ fn bench_calibration(c: &mut Criterion) {
 criterion_group!(
     benches,
     bench_spec,
+    bench_working_state,
     bench_parse,
     bench_batch,
     bench_calibration

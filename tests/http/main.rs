@@ -23,6 +23,7 @@ mod catalogue_instances;
 mod catalogue_specs;
 mod catalogue_support;
 mod contract;
+mod controlled_methods;
 mod csv_export;
 mod friction_tests;
 mod friction_tests_notes;

@@ -137,6 +137,13 @@ pub fn table(s: &SpecResponse) -> String {
         q(&s.torque.target, 2),
         q(&s.torque.upper, 2)
     );
+    if s.torque.role == "monitoring" {
+        let _ = writeln!(
+            o,
+            "            a monitoring band, not the setting ({} sets the preload)",
+            s.method.name
+        );
+    }
     let _ = writeln!(
         o,
         "Preload     min {:<16} max {:<17} F_M,zul {}",
@@ -154,10 +161,15 @@ pub fn table(s: &SpecResponse) -> String {
                 .unwrap_or_default();
             let _ = writeln!(
                 o,
-                "Angle       {:.0}° to {:.0}° from snug torque {snug} ({})",
+                "Angle       {:.1}° to {:.1}° from snug torque {snug} ({}){}",
                 min.value,
                 max.value,
-                s.angle.snug_torque_source.unwrap_or("")
+                s.angle.snug_torque_source.unwrap_or(""),
+                s.angle
+                    .at_yield
+                    .as_ref()
+                    .map(|a| format!("; the bolt may yield from {:.1}°", a.value))
+                    .unwrap_or_default()
             );
         }
     } else {

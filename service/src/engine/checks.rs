@@ -310,18 +310,21 @@ fn impact(i: &CheckInput, out: &mut Vec<Check>) {
 fn method_monitoring(i: &CheckInput, out: &mut Vec<Check>) {
     let info = i.method.info();
     if !info.torque_controlled {
+        let how = if i.method == TighteningMethod::TorqueAngle {
+            "the preload is set by the angle from snug; the band is the torque the angle window \
+             ends at over the friction range"
+        } else {
+            "the preload is set by yield-point detection; the band is the torque at which the \
+             bolts reach yield over the friction and yield-strength ranges"
+        };
         out.push(Check {
             code: "torque_window_is_monitoring",
             severity: Severity::Info,
             message: format!(
-                "With {} the torque window is a monitoring band, not the setting; the preload \
-                 is controlled by the {} and the plant's own process values.",
-                info.name,
-                if i.method == TighteningMethod::TorqueAngle {
-                    "angle"
-                } else {
-                    "yield point detection"
-                }
+                "With {} the torque window is a monitoring band, not the setting: {how}. A joint \
+                 whose final torque lies outside the band is suspect; confirm the band with the \
+                 plant's own process values.",
+                info.name
             ),
         });
     }
@@ -329,7 +332,9 @@ fn method_monitoring(i: &CheckInput, out: &mut Vec<Check>) {
 
 fn angle_yield(i: &CheckInput, out: &mut Vec<Check>) {
     let Some(a) = i.angle else { return };
-    if a.angle_max.value < a.angle_at_yield.value {
+    // Reaching the yield angle counts (a torque-angle window aimed at ν = 1
+    // ends there, to rounding).
+    if a.angle_max.value < a.angle_at_yield.value * (1.0 - 1e-9) {
         return;
     }
     let (at_yield, max) = (

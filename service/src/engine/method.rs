@@ -7,7 +7,9 @@
 //! - `table_a8_alpha_a`: the tightening-factor range α_A of VDI 2230 Part 1:2003
 //!   Table A8 (table recalled from memory; see each row), which includes the
 //!   friction scatter of a real joint. It is shown for comparison with the
-//!   window's own α_A. Conversion: ±Δ = (α_A − 1)/(α_A + 1) (VDI 2230 Part 1).
+//!   window's own α_A. For torque-angle `default_scatter` is the scatter of
+//!   the angle; for yield-controlled tightening no tool scatter enters (the
+//!   preload model of `joint::controlled` gives α_A). Conversion: ±Δ = (α_A − 1)/(α_A + 1) (VDI 2230 Part 1).
 
 use std::str::FromStr;
 
@@ -122,9 +124,12 @@ pub const METHODS: [MethodInfo; 7] = [
         method: TighteningMethod::TorqueAngle,
         id: "torque-angle",
         name: "torque-angle (angle-controlled) tightening",
-        default_scatter: 0.09,
-        scatter_source: "VDI 2230 Part 1:2003 Table A8, angle-controlled tightening α_A 1.2 → \
-            ±9 % (lower end; table recalled from memory; VDI 2230:1986 lists ±5 to ±12 %)",
+        default_scatter: 0.05,
+        scatter_source: "common practice: ±5 % scatter of the angle from snug (angle \
+            measurement and snug-point detection of a controlled nutrunner); confirm with the \
+            tool's own capability study. The preload range follows from it, the friction range \
+            at snug and the joint's resilience (VDI 2230 Part 1 elastic model)",
+        // Table A8 angle-controlled tightening: 1.2–1.4 (recalled from memory).
         table_a8_alpha_a: (1.2, 1.4),
         torque_controlled: false,
     },
@@ -132,9 +137,11 @@ pub const METHODS: [MethodInfo; 7] = [
         method: TighteningMethod::YieldControlled,
         id: "yield-controlled",
         name: "yield-point-controlled tightening",
-        default_scatter: 0.09,
-        scatter_source: "VDI 2230 Part 1:2003 Table A8, yield-controlled tightening α_A 1.2 → \
-            ±9 % (lower end; table recalled from memory; VDI 2230:1986 lists ±5 to ±12 %)",
+        default_scatter: 0.0,
+        scatter_source: "no tool scatter enters: the preload range comes from the yield-strength \
+            spread and the thread-friction range at the yield point (VDI 2230 Part 1:2003 \
+            §5.4.3, recalled from memory); a given tool scatter is not used",
+        // Table A8 yield-controlled tightening: 1.2–1.4 (recalled from memory).
         table_a8_alpha_a: (1.2, 1.4),
         torque_controlled: false,
     },

@@ -16,6 +16,7 @@ use super::bearing::BearingSurface;
 use super::cautions::CautionSet;
 use super::checks::{self, Check, CheckInput, MatingParts, TappedHole};
 use super::grade::Strength;
+use super::joint::controlled::ControlledPreload;
 use super::joint::model::{self, Assembled, JointModel, JointModelInput};
 use super::material::ClampedMaterial;
 use super::method::{MethodInfo, TighteningMethod};
@@ -32,6 +33,7 @@ use super::window::{
 };
 use super::EngineError;
 
+mod controlled;
 mod joint;
 mod validate;
 pub use validate::is_stainless_grade;
@@ -152,6 +154,9 @@ pub struct Spec {
     /// Resilience, load factor, embedding and working state, where the
     /// joint is described.
     pub joint_model: Option<JointModel>,
+    /// Yield- or angle-controlled tightening: the preload model the window
+    /// comes from (α_A, R_p0.2max assumed); `None` for torque control.
+    pub controlled: Option<ControlledPreload>,
     pub at_min_friction: FrictionFigures,
     pub at_max_friction: FrictionFigures,
     pub checks: Vec<Check>,
@@ -282,6 +287,7 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         model::assembly(thread, &input.bearing, joint.as_ref(), &input.joint_model)?;
     let loss = model::embedding_loss(joint_model.as_ref());
     let window = match (input.window_mode, input.required_clamp_load) {
+        _ if !method.torque_controlled => maximum_window(&w_in)?,
         (WindowMode::MaximumPreload, _) => maximum_window(&w_in)?,
         // The lowest window whose clamp load after embedding still suffices.
         (WindowMode::MinimumClampLoad, Some(req)) => clamp_load_window(&w_in, req + loss)?
@@ -293,6 +299,22 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
             ))
         }
     };
+    let (window, angle, controlled) =
+        match controlled::controlled(input, &w_in, &window, joint.as_ref())? {
+            Some(c) => (c.window, c.angle, Some(c.preload)),
+            None => {
+                let angle = match &joint {
+                    Some(j) => angle_window(&w_in, &input.bearing, j, &window)?,
+                    None => AngleOutcome::NotComputed {
+                        reason: "no joint given (clamp length, clamped material, outer \
+                                 diameter): the angle depends on the joint's resilience and \
+                                 is never guessed"
+                            .into(),
+                    },
+                };
+                (window, angle, None)
+            }
+        };
     let clamp_load = input
         .required_clamp_load
         .map(|req| clamp_load_verdict(&window, req).after_embedding(loss));
@@ -307,15 +329,6 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         };
         model::working(m, input.joint_model.loads.as_ref(), &assembled)?;
     }
-
-    let angle = match &joint {
-        Some(j) => angle_window(&w_in, &input.bearing, j, &window)?,
-        None => AngleOutcome::NotComputed {
-            reason: "no joint given (clamp length, clamped material, outer diameter): the angle \
-                     depends on the joint's resilience and is never guessed"
-                .into(),
-        },
-    };
 
     let (th, b) = (input.thread_friction, input.bearing_friction);
     let at_min_friction = figures(&w_in, window.target, th.min(), b.min());
@@ -388,6 +401,7 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         joint,
         angle,
         joint_model,
+        controlled,
         at_min_friction,
         at_max_friction,
         checks,

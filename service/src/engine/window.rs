@@ -58,6 +58,12 @@ pub enum Governing {
     MaximumThreadFriction,
     /// The required clamp load set the window (inverse mode).
     RequiredClampLoad,
+    /// Angle-controlled tightening: the band is the torque the angle window
+    /// ends at over the friction range (a monitoring band, not a setting).
+    AngleWindow,
+    /// Yield-controlled tightening: the band is the torque at which the
+    /// bolts reach yield over the friction and yield ranges (monitoring).
+    YieldPoint,
 }
 
 /// The torques to set and the preload they give.

@@ -61,7 +61,7 @@ fn request_field(engine_field: &str) -> &str {
         "joint.type" => "joint_type",
         "joint.outer_diameter" => "joint_outer_diameter",
         "joint.snug_torque" => "snug_torque",
-        "joint.clamp_length" => "clamp_length",
+        "joint.clamp_length" | "joint" => "clamp_length",
         "joint.engagement_length" => "engagement_length",
         "joint.clamped_material" | "clamped_material" => "clamped_material",
         other => other,

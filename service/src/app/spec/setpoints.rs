@@ -1,7 +1,10 @@
 //! Computes the compact answer a tool controller needs ([`super::view::SetpointResponse`]): target, lower and upper
 //! torque in its unit, rounded to its resolution without leaving the window
-//! (see [`super::rounding`]), plus the angle window when the method is
-//! angle- or yield-controlled, the catalogue revision and the spec hash.
+//! (see [`super::rounding`]), plus the snug torque and angle window when
+//! the method is torque-angle, the catalogue revision and the spec hash.
+//! `controls` says what the tool controls (torque, angle, yield point) and
+//! `torque_role` whether the torques are the setting or a band to monitor
+//! (torque-angle and yield-controlled).
 //! It carries every check of the spec (and the checks of the window as the
 //! tool holds it) and every caution that applies; while an error check
 //! applies it is refused unless the request accepts each one
@@ -12,6 +15,7 @@ use crate::app::{AppError, FieldProblem};
 use crate::engine::angle::AngleOutcome;
 use crate::engine::cautions::Caution;
 use crate::engine::checks::{tool_angle_window, tool_window};
+use crate::engine::method::TighteningMethod;
 use crate::engine::spec::Spec;
 
 use super::cautions::Cautions;
@@ -68,7 +72,8 @@ pub fn setpoints(
     let q = |v: f64| Quantity::new(v, sym);
 
     let mut angle_check = None;
-    let angle = if spec.method.torque_controlled {
+    let angle_set = spec.method.method == TighteningMethod::TorqueAngle;
+    let angle = if !angle_set {
         None
     } else {
         match &spec.angle {
@@ -131,6 +136,16 @@ pub fn setpoints(
         thread: spec.thread.designation.clone(),
         property_class: spec.strength.id.clone(),
         tightening_method: spec.method.id,
+        controls: match spec.method.method {
+            TighteningMethod::TorqueAngle => "angle",
+            TighteningMethod::YieldControlled => "yield_point",
+            _ => "torque",
+        },
+        torque_role: if spec.method.torque_controlled {
+            "setting"
+        } else {
+            "monitoring"
+        },
         torque_unit: sym,
         resolution: res,
         target: q(rounded.target),

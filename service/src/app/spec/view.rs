@@ -187,6 +187,42 @@ fn yield_basis(spec: &Spec) -> &'static str {
     }
 }
 
+/// What an angle- or yield-controlled answer rests on, in words.
+fn controlled_assumptions(spec: &Spec, out: &mut Vec<String>) {
+    use crate::engine::method::TighteningMethod as M;
+    let Some(p) = &spec.controlled else { return };
+    let rp_max = p.yield_max.get::<uom::si::pressure::megapascal>();
+    match spec.method.method {
+        M::YieldControlled => {
+            out.push(format!(
+                "preload of yield-controlled tightening: the yield point under tension and \
+                 thread torsion (VDI 2230 Part 1:2003 §5.4.3, recalled from memory), F_M,min at \
+                 the minimum yield strength and highest thread friction, F_M,max at R_p0.2max = \
+                 {rp_max:.0} N/mm² and the lowest thread friction; the torque band is the torque \
+                 at which yield is reached over the friction and yield ranges (monitoring, not a \
+                 setting)"
+            ));
+            if p.yield_max_defaulted {
+                out.push(
+                    "R_p0.2max taken as 1.2 × the minimum yield strength (the property class \
+                     gives no upper yield strength; recalled from memory, common practice)"
+                        .to_string(),
+                );
+            }
+        }
+        _ => out.push(format!(
+            "preload of torque-angle tightening: the snug preload over the friction range plus \
+             ΔF = θ·P/(360°·(δ_S + δ_P)) over the angle window ±{:.0} % (VDI 2230 Part 1 \
+             elastic model, recalled from memory); the window's upper end brings the highest \
+             snug preload to F_M,zul at ν = {} and the highest thread friction; the torque \
+             band is the final torque over the friction range and the angle window \
+             (monitoring, not a setting)",
+            spec.scatter * 100.0,
+            spec.utilisation
+        )),
+    }
+}
+
 /// The response for a computed spec.
 pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecResponse {
     let o = Out(resolved.units);
@@ -257,8 +293,14 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
             m.scatter_source
         ));
     }
+    controlled_assumptions(spec, &mut assumptions);
     SpecResponse {
         torque: TorqueOut {
+            role: if m.torque_controlled {
+                "setting"
+            } else {
+                "monitoring"
+            },
             lower: o.torque(w.lower),
             target: o.torque(w.target),
             upper: o.torque(w.upper),
@@ -279,6 +321,8 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
             Governing::MinimumFriction => "minimum_friction",
             Governing::MaximumThreadFriction => "maximum_thread_friction",
             Governing::RequiredClampLoad => "required_clamp_load",
+            Governing::AngleWindow => "angle_window",
+            Governing::YieldPoint => "yield_point",
         },
         clamp_load: spec.clamp_load.as_ref().map(|c| ClampLoadOut {
             required: o.force(c.required),

@@ -14,10 +14,14 @@
 //! - Angle-controlled, elastic model: from the snug preload (scattering with
 //!   the friction range at the snug torque) the bolt gains
 //!   ΔF = θ·P/(360°·(δ_S + δ_P)) (VDI 2230 Part 1 §5.1 resilience, the nut
-//!   advancing P per turn); the angle scatters by ±s of the tool. The angle
-//!   window may not reach the angle at which the first bolt of the batch
-//!   yields (highest snug preload, R_p0.2min, μ_th,max): such an angle is
-//!   refused, since beyond it the elastic model no longer holds.
+//!   advancing P per turn); the angle scatters by ±s of the tool. The torque
+//!   at the end of tightening is M = M_snug + ΔF·c(μ_th, μ_b) (the snug
+//!   preload times c is M_snug − M_ü, the prevailing torque comes back on
+//!   top), so the monitoring band is M_snug + ΔF_min·c_min to
+//!   M_snug + ΔF_max·c_max. The angle at which the first bolt of the batch
+//!   yields (highest snug preload, R_p0.2min, μ_th,max) is reported beside
+//!   the window; a window reaching it is an error check of the spec
+//!   (`checks::ANGLE_PAST_BOLT_YIELD`), not a refusal here.
 
 use uom::si::angle::degree;
 use uom::si::f64::{Angle, Force, Length, Pressure, Torque};
@@ -99,6 +103,13 @@ pub struct YieldControlled {
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct AngleControlled {
     pub preload: ControlledPreload,
+    /// Preload at the snug torque, at maximum and at minimum friction.
+    pub snug_preload_min: Force,
+    pub snug_preload_max: Force,
+    /// Lowest and highest torque at the end of tightening over the friction
+    /// range and the angle window: the band the tool monitors.
+    pub monitoring_torque_min: Torque,
+    pub monitoring_torque_max: Torque,
     /// Angle from snug at −s and +s of the tool.
     pub angle_min: Angle,
     pub angle_max: Angle,
@@ -174,11 +185,97 @@ pub fn yield_controlled(a: &Assembly) -> Result<YieldControlled, EngineError> {
     })
 }
 
+/// Which end of the angle window a preload is meant for.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum WindowEnd {
+    /// The window's upper end from the highest snug preload reaches it.
+    Upper,
+    /// The window's lower end from the lowest snug preload reaches it.
+    Lower,
+}
+
+/// Snug preloads (lowest, highest) in N, validating the snug torque.
+fn snug_preloads(a: &Assembly, snug_torque: Torque) -> Result<(f64, f64), EngineError> {
+    let snug = positive(snug_torque.value, "joint.snug_torque")?;
+    let (th, b) = (a.thread_friction, a.bearing_friction);
+    let (dkm, mp) = (a.mean_bearing_diameter, a.prevailing_torque);
+    if snug <= mp.value {
+        return Err(EngineError::invalid(
+            "joint.snug_torque",
+            format!(
+                "the snug torque {snug:.2} N·m does not exceed the prevailing torque {:.2} N·m",
+                mp.value
+            ),
+        ));
+    }
+    let t = Torque::new::<newton_meter>(snug);
+    Ok((
+        preload_at_torque(a.thread, t, dkm, th.max(), b.max(), mp).value,
+        preload_at_torque(a.thread, t, dkm, th.min(), b.min(), mp).value,
+    ))
+}
+
+fn checked_resilience(resilience: f64) -> Result<f64, EngineError> {
+    let delta = positive(resilience, "joint")?;
+    if delta > MAX_RESILIENCE {
+        return Err(EngineError::invalid(
+            "joint",
+            format!("joint resilience {delta:e} m/N is outside the model's range"),
+        ));
+    }
+    Ok(delta)
+}
+
+fn checked_scatter(angle_scatter: f64) -> Result<f64, EngineError> {
+    if !(angle_scatter.is_finite() && (0.0..0.5).contains(&angle_scatter)) {
+        return Err(EngineError::invalid(
+            "angle_scatter",
+            format!("angle scatter must be at least 0 and below 0.5 (±50 %), got {angle_scatter}"),
+        ));
+    }
+    Ok(angle_scatter)
+}
+
+/// The target angle θ from `snug_torque` whose window end `end` (θ·(1 ± s))
+/// brings the bolt to `preload`: from the highest snug preload for the
+/// upper end, from the lowest for the lower end. Refused naming
+/// `joint.snug_torque` when the snug torque alone already reaches it.
+pub fn angle_to_reach(
+    a: &Assembly,
+    resilience: f64,
+    snug_torque: Torque,
+    angle_scatter: f64,
+    preload: Force,
+    end: WindowEnd,
+) -> Result<Angle, EngineError> {
+    let delta = checked_resilience(resilience)?;
+    let s = checked_scatter(angle_scatter)?;
+    let (snug_lo, snug_hi) = snug_preloads(a, snug_torque)?;
+    let per_degree = a.thread.pitch.value / (360.0 * delta);
+    let (from, factor) = match end {
+        WindowEnd::Upper => (snug_hi, 1.0 + s),
+        WindowEnd::Lower => (snug_lo, 1.0 - s),
+    };
+    let gain = preload.value - from;
+    if !(gain > 0.0 && gain.is_finite()) {
+        return Err(EngineError::invalid(
+            "joint.snug_torque",
+            format!(
+                "the snug torque already gives up to {:.1} kN (minimum friction), at or above \
+                 the {:.1} kN the angle window should reach; lower the snug torque",
+                snug_hi / 1e3,
+                preload.value / 1e3
+            ),
+        ));
+    }
+    Ok(Angle::new::<degree>(gain / (per_degree * factor)))
+}
+
 /// Angle-controlled tightening by the elastic model: `resilience` is
 /// δ_S + δ_P in m/N (shank-aware δ_S from `joint::bolt` and
 /// `angle::resilience`), `angle` the target angle from `snug_torque`, and
-/// `angle_scatter` the tool's ±s in [0, 0.5). An angle window that reaches
-/// the angle at yield is refused naming `angle`.
+/// `angle_scatter` the tool's ±s in [0, 0.5). The angle at yield is
+/// reported; a window reaching it is the spec's error check, not a refusal.
 pub fn angle_controlled(
     a: &Assembly,
     resilience: f64,
@@ -187,27 +284,12 @@ pub fn angle_controlled(
     angle_scatter: f64,
 ) -> Result<AngleControlled, EngineError> {
     let (rp_max, defaulted) = yield_max(a)?;
-    let delta = positive(resilience, "joint")?;
-    if delta > MAX_RESILIENCE {
-        return Err(EngineError::invalid(
-            "joint",
-            format!("joint resilience {delta:e} m/N is outside the model's range"),
-        ));
-    }
-    let snug = positive(snug_torque.value, "joint.snug_torque")?;
+    let delta = checked_resilience(resilience)?;
     let theta = positive(angle.get::<degree>(), "angle")?;
-    if !(angle_scatter.is_finite() && (0.0..0.5).contains(&angle_scatter)) {
-        return Err(EngineError::invalid(
-            "angle_scatter",
-            format!("angle scatter must be at least 0 and below 0.5 (±50 %), got {angle_scatter}"),
-        ));
-    }
+    let s = checked_scatter(angle_scatter)?;
     let t = a.thread;
     let (th, b) = (a.thread_friction, a.bearing_friction);
-    let (dkm, mp) = (a.mean_bearing_diameter, a.prevailing_torque);
-    let snug_t = Torque::new::<newton_meter>(snug);
-    let snug_lo = preload_at_torque(t, snug_t, dkm, th.max(), b.max(), mp).value;
-    let snug_hi = preload_at_torque(t, snug_t, dkm, th.min(), b.min(), mp).value;
+    let (snug_lo, snug_hi) = snug_preloads(a, snug_torque)?;
     let per_degree = t.pitch.value / (360.0 * delta);
     let yield_first = yield_preload(t, a.yield_min.value, th.max())?;
     if snug_hi >= yield_first {
@@ -217,21 +299,20 @@ pub fn angle_controlled(
         ));
     }
     let at_yield = (yield_first - snug_hi) / per_degree;
-    let (lo, hi) = (theta * (1.0 - angle_scatter), theta * (1.0 + angle_scatter));
-    if hi > at_yield {
-        return Err(EngineError::invalid(
-            "angle",
-            format!(
-                "the angle window reaches {hi:.1}°, beyond the {at_yield:.1}° at which the \
-                 first bolt may yield (highest snug preload, minimum yield strength, maximum \
-                 thread friction); the elastic model does not hold there"
-            ),
-        ));
-    }
-    let f_min = snug_lo + lo * per_degree;
-    let f_max = snug_hi + hi * per_degree;
+    let (lo, hi) = (theta * (1.0 - s), theta * (1.0 + s));
+    let (gain_lo, gain_hi) = (lo * per_degree, hi * per_degree);
+    let f_min = snug_lo + gain_lo;
+    let f_max = snug_hi + gain_hi;
+    let dkm = a.mean_bearing_diameter;
+    let c_min = torque_per_preload(t, dkm, th.min(), b.min()).value;
+    let c_max = torque_per_preload(t, dkm, th.max(), b.max()).value;
+    let snug = snug_torque.value;
     Ok(AngleControlled {
         preload: ControlledPreload::new(f_min, f_max, rp_max, defaulted),
+        snug_preload_min: Force::new::<newton>(snug_lo),
+        snug_preload_max: Force::new::<newton>(snug_hi),
+        monitoring_torque_min: Torque::new::<newton_meter>(snug + gain_lo * c_min),
+        monitoring_torque_max: Torque::new::<newton_meter>(snug + gain_hi * c_max),
         angle_min: Angle::new::<degree>(lo),
         angle_max: Angle::new::<degree>(hi),
         angle_at_yield: Angle::new::<degree>(at_yield),

@@ -210,9 +210,10 @@ pub async fn post_spec(
 
 /// Tool setpoints: torque window in the tool's unit, rounded to its
 /// resolution without ever leaving the window (lower rounds up, upper
-/// rounds down, target to the nearest step inside), the angle window for
-/// angle- and yield-controlled methods, the catalogue revision and the
-/// spec hash, every check and every caution that applies. Same parameters
+/// rounds down, target to the nearest step inside), for torque-angle the
+/// snug torque and angle window, for torque-angle and yield-controlled
+/// tightening the torques as a monitoring band (`controls`, `torque_role`),
+/// the catalogue revision and the spec hash, every check and every caution that applies. Same parameters
 /// as `GET /v1/tightening-specs` plus `torque_unit`, `resolution`,
 /// `angle_resolution` and `accept_checks`. While an error-severity check
 /// applies, the setpoints are refused (422, `/problems/checks-not-accepted`,

@@ -6,22 +6,32 @@ use utoipa::ToSchema;
 
 use crate::app::quantity::Quantity;
 
-/// The torque window to set.
+/// The torque window to set, or (angle- and yield-controlled methods) the
+/// torque band to monitor.
 #[derive(Debug, Clone, Serialize, ToSchema)]
 pub struct TorqueOut {
-    /// Lowest acceptable torque: target·(1 − s).
+    /// `setting` (the tool controls torque) or `monitoring` (torque-angle and
+    /// yield-controlled tightening: the band a good joint's final torque
+    /// lies in, not a value to set).
+    pub role: &'static str,
+    /// Lowest acceptable torque: target·(1 − s); for a monitoring band its
+    /// lower end.
     pub lower: Quantity,
-    /// Torque to set on the tool: upper/(1 + s).
+    /// Torque to set on the tool: upper/(1 + s); for a monitoring band its
+    /// middle.
     pub target: Quantity,
     /// Highest acceptable torque; with single friction values and no tool
-    /// scatter this is VDI 2230's tightening torque M_A.
+    /// scatter this is VDI 2230's tightening torque M_A. For a monitoring
+    /// band its upper end.
     pub upper: Quantity,
     /// Yield-limited torque at minimum friction (equals `upper` unless a
-    /// required clamp load chose a lower window).
+    /// required clamp load chose a lower window); for a monitoring band its
+    /// upper end.
     pub upper_limit: Quantity,
 }
 
-/// The assembly preload the window gives.
+/// The assembly preload the window gives (angle- and yield-controlled
+/// methods: the preload their own model gives).
 #[derive(Debug, Clone, Serialize, ToSchema)]
 pub struct PreloadOut {
     /// At the lower torque and maximum friction.

@@ -28,17 +28,26 @@ pub struct SetpointResponse {
     pub property_class: String,
     /// Tightening method id.
     pub tightening_method: &'static str,
+    /// What the tool controls: `torque`, `angle` (torque-angle: snug
+    /// torque, then the angle window) or `yield_point` (yield-controlled).
+    pub controls: &'static str,
+    /// `setting`: `target`, `lower` and `upper` are the torques to set;
+    /// `monitoring`: they are the band a good joint's final torque lies in
+    /// (torque-angle and yield-controlled), not a value to set.
+    pub torque_role: &'static str,
     /// `N·m`, `lbf·ft` or `lbf·in`.
     pub torque_unit: &'static str,
     /// Torque resolution used, in `torque_unit`.
     pub resolution: f64,
-    /// Target torque: nearest step, kept inside `[lower, upper]`.
+    /// Target torque: nearest step, kept inside `[lower, upper]` (for a
+    /// monitoring band, its middle).
     pub target: Quantity,
     /// Lower torque limit, rounded up.
     pub lower: Quantity,
     /// Upper torque limit, rounded down.
     pub upper: Quantity,
-    /// Present when the method is angle- or yield-controlled.
+    /// Present when the method is torque-angle: the snug torque to set,
+    /// then the angle window from snug.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub angle: Option<SetpointAngle>,
     pub catalogue_revision: i64,
