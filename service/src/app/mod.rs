@@ -21,9 +21,12 @@
 //! - `joints` — the joint registry's definitions: define, read, list (by
 //!   tag, due review, pages of ids) and change from an expected version;
 //!   [`joints::JointView`] as both adapters render it.
+//! - `charts` — the charts as SVG: tightening window, torque–angle, a
+//!   friction test series, a friction entry's history (drawn by `chart`).
 //! - `tokens` — API tokens: create, list, revoke, find by secret.
 
 pub mod catalogue;
+pub mod charts;
 pub mod context;
 pub mod error;
 pub mod friction_tests;
