@@ -4,9 +4,7 @@
 
 use std::fmt::Write;
 
-use super::svg::{
-    esc, num, px, Frame, FONT, LABEL_GAP, LEGEND_COLUMN, LEGEND_ROW, MARGIN_LEFT, PLOT_WIDTH,
-};
+use super::svg::{esc, legend_columns, num, px, Frame, FONT, LABEL_GAP, LEGEND_COLUMN, LEGEND_ROW};
 use super::{Mark, Marker, Pen, Plot, Shape};
 
 pub(super) fn stroke(pen: Pen) -> String {
@@ -168,7 +166,7 @@ pub(super) fn mark_svg(
         }
         Shape::Band { from, to } => {
             let (a, b) = (f.sx(from.min(*to)), f.sx(from.max(*to)));
-            let ty = f.top + 14.0 + 14.0 * (*top_labels as f64);
+            let ty = f.bottom() - 8.0 - 14.0 * (*top_labels as f64);
             *top_labels += 1;
             let _ = writeln!(
                 out,
@@ -282,9 +280,7 @@ pub(super) fn right_margin_labels(
 
 /// A sample of each mark's pen and marker with its label.
 pub(super) fn legend(out: &mut String, plot: &Plot, f: Frame, top: f64) {
-    let columns = ((PLOT_WIDTH - MARGIN_LEFT) / LEGEND_COLUMN)
-        .floor()
-        .max(1.0) as usize;
+    let columns = legend_columns(plot);
     out.push_str("<g class=\"legend\">\n");
     for (i, m) in plot.marks.iter().enumerate() {
         let x = f.left + LEGEND_COLUMN * (i % columns) as f64;

@@ -10,8 +10,8 @@ use super::ticks::{format_number, ticks};
 use super::{Axis, Figure, Mark, Plot, Shape};
 
 /// Outer width of one plot (axes, labels and legend included).
-pub(super) const PLOT_WIDTH: f64 = 760.0;
-pub(super) const MARGIN_LEFT: f64 = 78.0;
+const PLOT_WIDTH: f64 = 760.0;
+const MARGIN_LEFT: f64 = 78.0;
 /// Room for the labels at the ends of lines and reference lines.
 const MARGIN_RIGHT: f64 = 170.0;
 const TITLE_HEIGHT: f64 = 34.0;
@@ -115,12 +115,7 @@ impl Frame {
 pub fn render(figure: &Figure) -> String {
     let count = figure.plots.len().max(1) as f64;
     let width = PLOT_WIDTH * count;
-    let legend_rows = figure
-        .plots
-        .iter()
-        .map(|p| legend_rows(p.marks.len()))
-        .max()
-        .unwrap_or(0) as f64;
+    let legend_rows = figure.plots.iter().map(legend_rows).max().unwrap_or(0) as f64;
     let notes: Vec<String> = figure
         .notes
         .iter()
@@ -190,11 +185,26 @@ fn domain(axis: &Axis) -> (f64, f64) {
     }
 }
 
-fn legend_rows(marks: usize) -> usize {
-    let columns = ((PLOT_WIDTH - MARGIN_LEFT) / LEGEND_COLUMN)
-        .floor()
-        .max(1.0) as usize;
-    marks.div_ceil(columns)
+/// Legend columns of a plot: two while every text fits half the width
+/// (about 6 px a character at 11 px), else one.
+pub(super) fn legend_columns(plot: &Plot) -> usize {
+    let widest = plot
+        .marks
+        .iter()
+        .map(|m| m.legend.chars().count())
+        .max()
+        .unwrap_or(0) as f64;
+    if widest * 6.2 + 40.0 > LEGEND_COLUMN {
+        1
+    } else {
+        ((PLOT_WIDTH - MARGIN_LEFT) / LEGEND_COLUMN)
+            .floor()
+            .max(1.0) as usize
+    }
+}
+
+fn legend_rows(plot: &Plot) -> usize {
+    plot.marks.len().div_ceil(legend_columns(plot))
 }
 
 fn plot_svg(out: &mut String, plot: &Plot, f: Frame, index: usize, legend_top: f64) {

@@ -51,14 +51,17 @@ pub fn figure(spec: &Spec, resolved: &Resolved) -> Result<Figure, AppError> {
         360.0 * (a.resilience.bolt + a.resilience.clamped_parts) / spec.thread.pitch.value;
     let deg = |v: uom::si::f64::Angle| v.get::<uom::si::angle::degree>();
     let (at_yield, lo, hi) = (deg(a.angle_at_yield), deg(a.angle_min), deg(a.angle_max));
-    let end = at_yield.max(hi) * ANGLE_HEADROOM;
+    // The lines stop at the angle at yield: past it the elastic model no
+    // longer holds (and never past the window's end).
+    let stop = at_yield.max(hi);
+    let end = stop * ANGLE_HEADROOM;
     let force_at = |snug: Force, angle: f64| Force::new::<newton>(snug.value + angle / per_newton);
     let yield_force = force_at(a.snug_preload_max, at_yield);
     let line = |snug: Force| {
         vec![
             (0.0, scale.force(snug)),
-            (end / 2.0, scale.force(force_at(snug, end / 2.0))),
-            (end, scale.force(force_at(snug, end))),
+            (stop / 2.0, scale.force(force_at(snug, stop / 2.0))),
+            (stop, scale.force(force_at(snug, stop))),
         ]
     };
     let from_high = line(a.snug_preload_max);
