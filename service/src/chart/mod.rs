@@ -149,6 +149,14 @@ impl Axis {
         }
     }
 
+    /// The same axis with room above its highest value for labels
+    /// (`share` of the span), rounded to its ticks again.
+    pub fn with_headroom(self, share: f64) -> Axis {
+        let span = self.max - self.min;
+        let (min, max, _) = nice_range(self.min, self.max + span * share);
+        Axis { min, max, ..self }
+    }
+
     /// The axis title as printed: `Torque in N·m`.
     pub fn title(&self) -> String {
         if self.unit.is_empty() {

@@ -80,6 +80,14 @@ fn figure() -> Figure {
 fn nice_ranges_use_round_steps() {
     assert_eq!(nice_range(0.0, 47.3), (0.0, 50.0, 10.0));
     assert_eq!(nice_range(0.08, 0.16).2, 0.02);
+    // 0.14/0.02 is a rounding error above 7: the domain starts at 0.14.
+    let (lo, hi, _) = nice_range(0.14, 0.24);
+    assert!(
+        (lo - 0.14).abs() < 1e-12 && (hi - 0.24).abs() < 1e-12,
+        "{lo} {hi}"
+    );
+    let axis = Axis::fit("μ", "", &[0.14, 0.24], false).with_headroom(0.15);
+    assert!(axis.max > 0.24 && (axis.min - 0.14).abs() < 1e-12);
     let (lo, hi, step) = nice_range(5.0, 5.0);
     assert!(lo < 5.0 && hi > 5.0 && step > 0.0);
     assert_eq!(nice_range(f64::NAN, 1.0), (0.0, 1.0, 0.2));

@@ -40,15 +40,16 @@ pub fn nice_range(lo: f64, hi: f64) -> (f64, f64, f64) {
         (lo - pad, hi + pad)
     };
     let step = step_for(hi - lo);
-    let min = (lo / step).floor() * step;
-    let max = (hi / step).ceil() * step;
+    // A value a rounding error off a whole step stays on it (0.14/0.02).
+    let min = (lo / step + 1e-9).floor() * step;
+    let max = (hi / step - 1e-9).ceil() * step;
     (min, max, step)
 }
 
 /// The ticks of a domain at its round step (at most [`MAX_TICKS`]).
 pub fn ticks(min: f64, max: f64) -> (Vec<f64>, f64) {
     let (_, _, step) = nice_range(min, max);
-    let first = (min / step).ceil();
+    let first = (min / step - 1e-9).ceil();
     let mut out = Vec::new();
     for i in 0..MAX_TICKS {
         let v = (first + i as f64) * step;

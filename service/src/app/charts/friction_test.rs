@@ -70,12 +70,12 @@ fn torque_plot(eval: &EvaluationResponse) -> Plot {
         );
     }
     if let Some(q) = &eval.evaluation_clamp_force {
-        let (f, _) = force(q);
+        let (f, unit) = force(q);
         xs.push(f);
         marks.push(
             Mark::new(
                 "evaluation-point",
-                format!("evaluation at {f:.1}"),
+                format!("evaluation at {f:.1} {unit}"),
                 Shape::Upright {
                     x: f,
                     pen: pens::STATISTIC,
@@ -191,7 +191,7 @@ fn spread_plot(eval: &EvaluationResponse) -> Plot {
     Plot {
         heading: "Friction coefficients, mean ± 3σ".into(),
         x,
-        y: Axis::fit("Friction coefficient μ", "", &values, false),
+        y: Axis::fit("Friction coefficient μ", "", &values, false).with_headroom(0.15),
         marks,
     }
 }

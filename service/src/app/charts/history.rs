@@ -116,7 +116,7 @@ pub fn figure(id: &str, all: &[HistoryItem]) -> Figure {
         plots: vec![Plot {
             heading: format!("Friction ranges of entry {id} by catalogue revision"),
             x,
-            y: Axis::fit("Friction coefficient μ", "", &values, false),
+            y: Axis::fit("Friction coefficient μ", "", &values, false).with_headroom(0.15),
             marks,
         }],
         notes,
