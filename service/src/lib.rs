@@ -8,10 +8,12 @@
 //! `http` and `cli` are adapters over `app`. `startup` opens the
 //! application context and serves `http` (`http::routes` holds the route
 //! registrations the OpenAPI document is generated from); `config` holds
-//! the server's settings.
+//! the server's settings; `chart` (a deterministic SVG writer) uses nothing
+//! and `app` builds its charts with it.
 
 pub mod app;
 pub mod catalogue;
+pub mod chart;
 pub mod cli;
 pub mod config;
 pub mod engine;

@@ -74,9 +74,13 @@ pub fn app(
         .wrap(from_fn(request_id::middleware))
 }
 
-/// The fallback: 405 with `Allow` for a known path asked with another
+/// The fallback: a browser asking for `/` is sent to the page
+/// (`http::root`), 405 with `Allow` for a known path asked with another
 /// method, 404 for an unknown path.
 async fn not_found(req: actix_web::HttpRequest) -> Result<actix_web::HttpResponse, ApiError> {
+    if let Some(redirect) = crate::http::root::browser_redirect(&req) {
+        return Ok(redirect);
+    }
     if let Some(allowed) = crate::http::routes_table::allowed_methods(req.path()) {
         return Err(ApiError::MethodNotAllowed {
             method: req.method().to_string(),

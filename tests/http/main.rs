@@ -22,6 +22,7 @@ mod catalogue_cli;
 mod catalogue_instances;
 mod catalogue_specs;
 mod catalogue_support;
+mod charts;
 mod contract;
 mod controlled_methods;
 mod csv_export;

@@ -24,9 +24,12 @@
 //! - `releases` — joint releases: release (compute and freeze the spec
 //!   and setpoints), approve (four-eyes rule), withdraw, list, read, and
 //!   the frozen answer the line fetches by joint id.
+//! - `charts` — the charts as SVG: tightening window, torque–angle, a
+//!   friction test series, a friction entry's history (drawn by `chart`).
 //! - `tokens` — API tokens: create, list, revoke, find by secret.
 
 pub mod catalogue;
+pub mod charts;
 pub mod context;
 pub mod error;
 pub mod friction_tests;

@@ -6,13 +6,15 @@
 //! document), `extract` (extractor error handlers), `accept` (content
 //! negotiation), `auth` (bearer tokens and roles), `request_id`, `metrics`,
 //! `deadline` (body-read and request deadlines), `state`, `openapi` and
-//! `routes_table` (404 versus 405 from the document). Routes: `health`, `reference` and `reference_lists`, and the
-//! feature modules `specs`, `catalogue`, `friction_tests`, `joints` and `releases`, all registered
+//! `routes_table` (404 versus 405 from the document), `root` (a browser
+//! asking for `/` is sent to the page). Routes: `health`, `reference` and `reference_lists`, and the
+//! feature modules `specs`, `charts` (SVG pictures), `catalogue`, `friction_tests`, `joints` and `releases`, all registered
 //! in `routes`.
 
 pub mod accept;
 pub mod auth;
 pub mod catalogue;
+pub mod charts;
 pub mod deadline;
 pub mod error;
 pub mod extract;
@@ -29,6 +31,7 @@ pub mod reference;
 pub mod reference_lists;
 pub mod releases;
 pub mod request_id;
+pub mod root;
 pub mod routes_table;
 pub mod specs;
 pub mod state;
@@ -44,6 +47,7 @@ pub mod state;
 pub fn routes(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
     health::configure(cfg);
     specs::configure(cfg);
+    charts::configure(cfg);
     reference::configure(cfg);
     catalogue::configure(cfg);
     friction_tests::configure(cfg);

@@ -30,7 +30,8 @@ with an `Allow` header listing the methods that path answers.",
         (name = "operations", description = "Health, readiness, metrics"),
         (name = "reference", description = "Threads, property classes, methods, materials, finishes, lubricants"),
         (name = "catalogue", description = "The versioned friction catalogue: entries, finishes, lubricants, revisions, history, diff, export"),
-        (name = "joints", description = "The joint registry: each tightening operation defined once under the plant's own id")
+        (name = "joints", description = "The joint registry: each tightening operation defined once under the plant's own id"),
+        (name = "charts", description = "Pictures as SVG (image/svg+xml): the tightening window, torque-angle, a friction test series, a friction entry's history; same input and ETag rules as their JSON counterparts")
     ),
     modifiers(&BearerScheme),
     components(schemas(Problem, FieldError, Quantity, Units))
