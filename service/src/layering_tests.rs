@@ -17,7 +17,8 @@ const ALLOWED: &[(&str, &[&str])] = &[
     ("app", &["engine", "catalogue", "registry", "store"]),
     ("http", &["app", "catalogue"]),
     ("cli", &["app", "catalogue", "config", "startup"]),
-    ("startup", &["app", "config", "http"]),
+    ("ui", &["app", "catalogue"]),
+    ("startup", &["app", "config", "http", "ui"]),
 ];
 
 /// Files that are tests (whole files) and are left out of the graph.

@@ -1,5 +1,6 @@
 //! Content negotiation, per route: `/metrics` answers `text/plain`, the
-//! catalogue export `application/json` or `text/csv`, every other route
+//! catalogue export `application/json` or `text/csv`, the page (`/ui/`)
+//! `text/html` (its assets CSS and JavaScript), every other route
 //! `application/json`. A request whose `Accept` header admits none of its
 //! route's types gets 406 (RFC 9110 §15.5.7) as a problem (error bodies are
 //! always `application/problem+json`, RFC 9110 §12.1 lets a server send
@@ -19,6 +20,9 @@ pub fn produced(path: &str) -> &'static [&'static str] {
     match path {
         "/metrics" => &["text/plain"],
         "/v1/catalogue/export" => &["application/json", "text/csv"],
+        "/ui/assets/ui.css" => &["text/css"],
+        "/ui/assets/ui.js" => &["text/javascript"],
+        p if p == "/ui" || p.starts_with("/ui/") => &["text/html"],
         _ => &["application/json"],
     }
 }
