@@ -345,4 +345,64 @@ async fn page_posts_need_the_form_value_the_origin_and_a_token(db: &TestDb) {
     );
     let json = app.get_json("/v1/friction-tests/1").await;
     assert_eq!(json["actor"], "hollowmere-lab");
+
+    assert!(stored.contains("id=\"apply\""), "{stored}");
+
+    // Applying the proposal: refused without a token and with a stale
+    // entry ETag (nothing written), then applied by the editor.
+    let proposal = app
+        .get_json("/v1/friction-tests/1/proposal?basis=observed")
+        .await;
+    let entry = proposal["entry_id"].as_i64().unwrap();
+    let etag = proposal["entry_etag"].as_str().unwrap().to_string();
+    let head = app.get_json("/v1/catalogue/revisions").await;
+    let apply = |cookies: String, etag: String| {
+        let app = &app;
+        let value = value.clone();
+        async move {
+            no_redirects()
+                .post(app.url("/ui/friction-tests/1/apply"))
+                .header("cookie", cookies)
+                .form(&[
+                    ("csrf", value.as_str()),
+                    ("basis", "observed"),
+                    ("reason", "Hollowmere line 3 demo series"),
+                    ("entry_etag", etag.as_str()),
+                ])
+                .send()
+                .await
+                .expect("POST apply")
+        }
+    };
+    let r = apply(jar.clone(), etag.clone()).await;
+    html(r, StatusCode::UNAUTHORIZED).await;
+    let editor_jar = format!("{jar}; tightspec_token={editor}");
+    let stale = etag.replace("-r", "-r9");
+    let r = apply(editor_jar.clone(), stale).await;
+    html(r, StatusCode::PRECONDITION_FAILED).await;
+    assert_eq!(
+        app.get_json("/v1/catalogue/revisions").await,
+        head,
+        "a refused apply wrote"
+    );
+    let r = apply(editor_jar, etag).await;
+    assert_eq!(
+        r.status(),
+        StatusCode::SEE_OTHER,
+        "{}",
+        r.text().await.unwrap_or_default()
+    );
+    assert_eq!(
+        r.headers()["location"],
+        format!("/ui/catalogue/entries/{entry}")
+    );
+    let history = html(
+        app.get(&format!("/ui/catalogue/entries/{entry}")).await,
+        StatusCode::OK,
+    )
+    .await;
+    assert!(
+        history.contains("friction-test:1") && history.contains("Hollowmere line 3 demo series"),
+        "{history}"
+    );
 }

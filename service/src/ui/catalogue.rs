@@ -178,9 +178,9 @@ pub async fn entry(
                 ": thread μ_G " (side(a, "thread_friction")) ", bearing μ_K " (side(a, "bearing_friction"))
                 " (" (a["status"].as_str().unwrap_or("?")) ")." }
         }
-        div.result {
+        div.stack {
             table.list id="history" {
-                caption { "History, oldest first (" (history.value.len()) " changes)" }
+                caption { "History, oldest first (" (history.value.len()) (if history.value.len() == 1 { " change)" } else { " changes)" }) }
                 thead { tr { th { "Revision" } th { "Change" } th { "Thread μ_G" } th { "Bearing μ_K" }
                              th { "By" } th { "Reason" } th { "Evidence" } th { "When (UTC)" } } }
                 tbody {

@@ -14,7 +14,6 @@ use super::problem::Problem;
 use super::session::{csrf_field, problem_page, Visit};
 use super::UiState;
 use crate::app::friction_tests::csv_series::specimens_from_csv;
-use crate::app::friction_tests::proposal::ProposalResponse;
 use crate::app::friction_tests::wire::{EvaluationResponse, SeriesRequest};
 use crate::app::quantity::Units;
 use crate::app::tokens::Role;
@@ -101,7 +100,7 @@ fn form(visit: &Visit, f: &SeriesForm, problem: Option<&Problem>) -> Markup {
     html! {
         form.series method="post" action="/ui/friction-tests" {
             (csrf_field(visit))
-            fieldset {
+            fieldset.grid {
                 legend { "Tested fastener" }
                 (text("thread", "Thread (required)", &f.thread, "designation, e.g. M10 or 1/2-13 UNC"))
                 (text("property_class", "Property class", &f.property_class, "of the tested bolts, e.g. 8.8"))
@@ -245,41 +244,6 @@ pub async fn submit(
     }
 }
 
-fn proposal(p: &ProposalResponse) -> Markup {
-    let pct = |v: f64| format!("{:+.1} %", v * 100.0);
-    let range = |r: &Option<crate::app::friction_tests::proposal::RangeResponse>| {
-        r.as_ref().map_or_else(
-            || "—".into(),
-            |r| format!("{} – {}", number(r.min), number(r.max)),
-        )
-    };
-    html! {
-        section.proposal id="proposal" {
-            h2 { "Proposed catalogue change (" (p.basis) ")" }
-            p { "Entry " a href={ "/ui/catalogue/entries/" (p.entry_id) } { "#" (p.entry_id) } ": " (p.finish) " with " (p.lubricant)
-                ", catalogue revision " (p.catalogue_revision) "." }
-            table.list {
-                thead { tr { th { "Coefficient" } th { "Now" } th { "Proposed" } th { "Note" } } }
-                tbody { @for c in &p.changes { tr.changed[c.changed] { td { (c.coefficient) } td.num { (range(&c.current)) } td.num { (range(&c.proposed)) } td.note { (c.note) } } } }
-            }
-            table.list {
-                caption { "Effect on representative specs" }
-                thead { tr { th { "Spec" } th { "Target torque now → proposed" } th { "Change" } th { "Preload min change" } th { "Preload max change" } } }
-                tbody {
-                    @for e in &p.effect {
-                        tr { td { (e.thread) " " (e.property_class) " " (e.tightening_method) }
-                             td.num { (qty(&e.current.torque_target)) " → " (qty(&e.proposed.torque_target)) }
-                             td.num { (pct(e.torque_target_change)) } td.num { (pct(e.preload_min_change)) } td.num { (pct(e.preload_max_change)) } }
-                    }
-                }
-            }
-            ul.cautions { @for c in &p.cautions { li { (c) } } }
-            p { "Applying the proposal is a catalogue change: "
-                code { "POST /v1/friction-tests/" (p.series_id) "/apply" } " with an editor token and the entry's ETag." }
-        }
-    }
-}
-
 /// The proposal's basis on the stored series' page (`observed` when blank).
 #[derive(Debug, Default, Deserialize)]
 pub struct BasisQuery {
@@ -344,7 +308,7 @@ pub async fn stored(
         }
         (basis_form)
         @match &proposed {
-            Ok(p) => (proposal(p)),
+            Ok(p) => (super::proposal::proposal(&visit, p)),
             Err(e) => (Problem::from_app(e).render()),
         }
     };

@@ -11,6 +11,7 @@ mod friction;
 mod joints;
 mod layout;
 mod problem;
+mod proposal;
 mod session;
 mod spec;
 
@@ -51,6 +52,10 @@ pub fn configure(cfg: &mut web::ServiceConfig, state: UiState) {
         .route("/ui/friction-tests", web::get().to(friction::form_page))
         .route("/ui/friction-tests", web::post().to(friction::submit))
         .route("/ui/friction-tests/{id}", web::get().to(friction::stored))
+        .route(
+            "/ui/friction-tests/{id}/apply",
+            web::post().to(proposal::apply),
+        )
         .route("/ui/joints", web::get().to(joints::list))
         .route("/ui/joints/{id}", web::get().to(joints::one))
         .route("/ui/token", web::get().to(session::token_form))

@@ -208,13 +208,13 @@ fn row(label: &str, value: String, note: &str) -> Markup {
     html! { tr { th scope="row" { (label) } td.num { (value) } td.note { (note) } } }
 }
 
-fn checks_and_cautions(a: &SpecResponse) -> Markup {
+fn checks(a: &SpecResponse) -> Markup {
     html! {
         section.checks {
             h2 { "Checks" }
             @if a.checks.is_empty() { p.ok { "No check applies." } }
             @else {
-                ul {
+                ul.found {
                     @for c in &a.checks {
                         li class={ "check " (c.severity) } {
                             strong { (c.severity.to_uppercase()) } " " code { (c.code) } " — " (c.message)
@@ -222,8 +222,6 @@ fn checks_and_cautions(a: &SpecResponse) -> Markup {
                     }
                 }
             }
-            h2 { "Cautions" }
-            ul.cautions { @for t in a.cautions.clone().texts() { li { (t) } } }
         }
     }
 }
@@ -275,6 +273,10 @@ fn answer_table(a: &SpecResponse) -> Markup {
                 a href={ "/ui/catalogue/entries/" (e.id) } { "#" (e.id) }
                 " (revision " (e.revision) "; source: " (e.source) ")." }
         }
+        section.cautions {
+            h2 { "Cautions" }
+            ul.cautions { @for t in a.cautions.texts() { li { (t) } } }
+        }
         details.assumptions {
             summary { "Assumptions (" (a.assumptions.len()) ")" }
             ul { @for t in &a.assumptions { li { (t) } } }
@@ -314,7 +316,7 @@ pub async fn calculator(req: HttpRequest, state: web::Data<UiState>) -> HttpResp
                 (intro)
                 div.result {
                     div.figures {
-                        (checks_and_cautions(&a))
+                        (checks(&a))
                         (answer_table(&a))
                         p.links {
                             a href={ "/ui/spec?" (encoded) } rel="bookmark" { "Permalink" } " · "
@@ -341,10 +343,4 @@ pub async fn calculator(req: HttpRequest, state: web::Data<UiState>) -> HttpResp
             visit.html(p.status, page("Tightening spec", Nav::Spec, &visit, body))
         }
     }
-}
-
-/// Every parameter of the spec query, as the form shows them (tests).
-#[cfg(test)]
-pub fn form_field_names() -> Vec<String> {
-    fields().into_iter().map(|f| f.name).collect()
 }
