@@ -9,7 +9,7 @@ use maud::{html, Markup};
 use serde::Deserialize;
 use serde_json::Value;
 
-use super::layout::{number, page, Nav};
+use super::layout::{coefficient, page, Nav};
 use super::problem::Problem;
 use super::session::{problem_page, Visit};
 use super::UiState;
@@ -51,7 +51,7 @@ fn revision_number(text: &str, field: &str) -> Result<Option<i64>, Problem> {
 }
 
 fn range(min: f64, max: f64) -> String {
-    format!("{} – {}", number(min), number(max))
+    format!("{} – {}", coefficient(min), coefficient(max))
 }
 
 fn filter_form(q: &EntriesQuery) -> Markup {

@@ -82,6 +82,16 @@ pub fn number(v: f64) -> String {
     format!("{v:.decimals$}")
 }
 
+/// A friction coefficient or other small ratio: up to four decimals, no
+/// trailing zeros (0.09, 0.125).
+pub fn coefficient(v: f64) -> String {
+    if !v.is_finite() {
+        return "—".into();
+    }
+    let text = format!("{v:.4}");
+    text.trim_end_matches('0').trim_end_matches('.').to_string()
+}
+
 /// An optional quantity, a dash when absent.
 pub fn opt_qty(q: Option<&Quantity>) -> String {
     q.map_or_else(|| "—".into(), qty)
@@ -115,5 +125,8 @@ mod tests {
         assert_eq!(number(45678.9), "45679");
         assert_eq!(number(0.0), "0");
         assert_eq!(number(f64::NAN), "—");
+        assert_eq!(super::coefficient(0.09), "0.09");
+        assert_eq!(super::coefficient(0.125), "0.125");
+        assert_eq!(super::coefficient(1.0), "1");
     }
 }

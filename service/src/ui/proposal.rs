@@ -8,7 +8,7 @@ use actix_web::{web, HttpRequest, HttpResponse};
 use maud::{html, Markup};
 use serde::Deserialize;
 
-use super::layout::{number, qty, Nav};
+use super::layout::{coefficient, qty, Nav};
 use super::problem::Problem;
 use super::session::{csrf_field, problem_page, Visit};
 use super::UiState;
@@ -20,7 +20,7 @@ pub fn proposal(visit: &Visit, p: &ProposalResponse) -> Markup {
     let range = |r: &Option<RangeResponse>| {
         r.as_ref().map_or_else(
             || "—".into(),
-            |r| format!("{} – {}", number(r.min), number(r.max)),
+            |r| format!("{} – {}", coefficient(r.min), coefficient(r.max)),
         )
     };
     html! {

@@ -9,7 +9,7 @@ use actix_web::{web, HttpRequest, HttpResponse};
 use maud::{html, Markup};
 use utoipa::IntoParams;
 
-use super::layout::{number, opt_qty, page, qty, Nav};
+use super::layout::{coefficient, number, opt_qty, page, qty, Nav};
 use super::problem::Problem;
 use super::session::{problem_page, Visit};
 use super::UiState;
@@ -230,9 +230,9 @@ fn answer_table(a: &SpecResponse) -> Markup {
     let f = &a.friction;
     let range = |min: f64, max: f64| {
         if min == max {
-            number(min)
+            coefficient(min)
         } else {
-            format!("{} – {}", number(min), number(max))
+            format!("{} – {}", coefficient(min), coefficient(max))
         }
     };
     html! {
