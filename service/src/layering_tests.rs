@@ -21,7 +21,8 @@ const ALLOWED: &[(&str, &[&str])] = &[
     ),
     ("http", &["app", "catalogue"]),
     ("cli", &["app", "catalogue", "config", "startup"]),
-    ("startup", &["app", "config", "http"]),
+    ("ui", &["app", "catalogue"]),
+    ("startup", &["app", "config", "http", "ui"]),
 ];
 
 /// Files that are tests (whole files) and are left out of the graph.

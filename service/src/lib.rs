@@ -5,7 +5,7 @@
 //! `registry` (joints and their releases as domain types) uses only
 //! `catalogue`; `store` (sqlx) uses `catalogue` and `registry`; `app` (the
 //! use cases and the application context) uses those and the engine;
-//! `http` and `cli` are adapters over `app`. `startup` opens the
+//! `http`, `cli` and `ui` (the engineer's web page) are adapters over `app`. `startup` opens the
 //! application context and serves `http` (`http::routes` holds the route
 //! registrations the OpenAPI document is generated from); `config` holds
 //! the server's settings; `chart` (a deterministic SVG writer) uses nothing
@@ -20,6 +20,7 @@ pub mod engine;
 pub mod http;
 pub mod registry;
 pub mod startup;
+pub mod ui;
 
 #[cfg(test)]
 mod fuzz_tests;

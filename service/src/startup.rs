@@ -42,7 +42,7 @@ pub enum StartupError {
     Store(#[from] crate::app::AppError),
 }
 
-/// The application for one worker: routes, extractor error handlers,
+/// The application for one worker: routes, the page (`ui`), extractor error handlers,
 /// middleware (request id outermost, then metrics, the `Accept` check and
 /// the body-read and request deadlines) and the 404/405 fallback.
 pub fn app(
@@ -57,6 +57,13 @@ pub fn app(
     >,
 > {
     let limit = state.settings.max_body_bytes;
+    let page = crate::ui::UiState {
+        app: state.app.clone(),
+        settings: crate::ui::UiSettings {
+            anonymous_reads: state.auth.anonymous_reads(),
+            max_form_bytes: limit,
+        },
+    };
     let (app, _api) = App::new()
         .into_utoipa_app()
         .configure(crate::http::routes)
@@ -67,6 +74,7 @@ pub fn app(
         .app_data(extract::path_config())
         .app_data(extract::payload_config(limit))
         .route("/openapi.json", web::get().to(openapi::serve))
+        .configure(|cfg| crate::ui::configure(cfg, page))
         .default_service(web::to(not_found))
         .wrap(from_fn(deadline::middleware))
         .wrap(from_fn(accept::middleware))

@@ -47,3 +47,5 @@ mod spec_cli;
 mod specs;
 mod specs_support;
 mod store;
+mod ui;
+mod ui_browser;

@@ -19,9 +19,7 @@
 use std::path::PathBuf;
 
 use crate::app::friction_tests;
-use crate::app::friction_tests::wire::{
-    BearingRequest, EvaluationResponse, SeriesRequest, SpecimenRequest,
-};
+use crate::app::friction_tests::wire::{BearingRequest, EvaluationResponse, SeriesRequest};
 use crate::app::quantity::{Quantity, Units};
 use crate::app::AppError;
 
@@ -91,7 +89,7 @@ pub fn run(cmd: &FrictionCommand) -> Result<String, String> {
 fn evaluate(args: &EvaluateArgs) -> Result<String, String> {
     let text =
         std::fs::read_to_string(&args.file).map_err(|e| format!("{}: {e}", args.file.display()))?;
-    let specimens = read_csv(&text)?;
+    let specimens = friction_tests::csv_series::specimens_from_csv(&text)?;
     let bearing = match (&args.bearing_outer, &args.bearing_inner) {
         (Some(o), Some(i)) => Some(BearingRequest {
             outer_diameter: quantity_text(o, "--bearing-outer")?,
@@ -155,88 +153,6 @@ fn quantity_text(s: &str, what: &str) -> Result<Quantity, String> {
         value,
         unit: unit.to_owned().into(),
     })
-}
-
-#[derive(Clone, Copy, PartialEq)]
-enum Column {
-    ClampForce,
-    TotalTorque,
-    ThreadTorque,
-}
-
-/// Parses the CSV into specimen records; units come from the header.
-fn read_csv(text: &str) -> Result<Vec<SpecimenRequest>, String> {
-    let mut reader = csv::ReaderBuilder::new()
-        .trim(csv::Trim::All)
-        .flexible(false)
-        .from_reader(text.as_bytes());
-    let headers = reader
-        .headers()
-        .map_err(|e| format!("CSV header: {e}"))?
-        .clone();
-    let mut columns = Vec::new();
-    for h in headers.iter() {
-        let (name, unit) = match (h.find('['), h.rfind(']')) {
-            (Some(a), Some(b)) if b > a => (h[..a].trim(), h[a + 1..b].trim()),
-            _ => {
-                return Err(format!(
-                    "CSV header '{h}': give the unit in brackets, e.g. 'clamp_force [kN]'"
-                ))
-            }
-        };
-        let column = match name {
-            "clamp_force" => Column::ClampForce,
-            "total_torque" => Column::TotalTorque,
-            "thread_torque" => Column::ThreadTorque,
-            other => {
-                return Err(format!(
-                    "CSV header '{other}': unknown column; use clamp_force, total_torque, \
-                     thread_torque"
-                ))
-            }
-        };
-        if columns.iter().any(|(c, _)| *c == column) {
-            return Err(format!("CSV header '{name}' appears twice"));
-        }
-        columns.push((column, unit.to_owned()));
-    }
-    for needed in [Column::ClampForce, Column::TotalTorque] {
-        if !columns.iter().any(|(c, _)| *c == needed) {
-            return Err("CSV needs the columns clamp_force and total_torque".into());
-        }
-    }
-    let mut specimens = Vec::new();
-    for (row, record) in reader.records().enumerate() {
-        let record = record.map_err(|e| format!("CSV row {}: {e}", row + 2))?;
-        let mut s = SpecimenRequest {
-            clamp_force: None,
-            total_torque: None,
-            thread_torque: None,
-            curve: None,
-        };
-        for ((column, unit), cell) in columns.iter().zip(record.iter()) {
-            if cell.is_empty() {
-                continue;
-            }
-            let value: f64 = cell.parse().map_err(|_| {
-                format!(
-                    "CSV row {} (specimens[{row}]): '{cell}' is not a number",
-                    row + 2
-                )
-            })?;
-            let q = Some(Quantity {
-                value,
-                unit: unit.clone().into(),
-            });
-            match column {
-                Column::ClampForce => s.clamp_force = q,
-                Column::TotalTorque => s.total_torque = q,
-                Column::ThreadTorque => s.thread_torque = q,
-            }
-        }
-        specimens.push(s);
-    }
-    Ok(specimens)
 }
 
 fn num(v: Option<f64>, width: usize) -> String {

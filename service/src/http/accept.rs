@@ -1,6 +1,7 @@
 //! Content negotiation, per route: `/metrics` answers `text/plain`, the
 //! catalogue export `application/json` or `text/csv`, the charts (`*.svg`)
-//! `image/svg+xml`, `/` a redirect to the page for `text/html`, every other route
+//! `image/svg+xml`, `/` a redirect to the page for `text/html`, the page
+//! (`/ui/`) `text/html` (its assets CSS and JavaScript), every other route
 //! `application/json`. A request whose `Accept` header admits none of its
 //! route's types gets 406 (RFC 9110 §15.5.7) as a problem (error bodies are
 //! always `application/problem+json`, RFC 9110 §12.1 lets a server send
@@ -23,6 +24,9 @@ pub fn produced(path: &str) -> &'static [&'static str] {
         // `/` answers a browser with a redirect to the page (`root`).
         "/" => &["application/json", "text/html"],
         p if p.ends_with(".svg") => &["image/svg+xml"],
+        "/ui/assets/ui.css" => &["text/css"],
+        "/ui/assets/ui.js" => &["text/javascript"],
+        p if p == "/ui" || p.starts_with("/ui/") => &["text/html"],
         _ => &["application/json"],
     }
 }

@@ -10,6 +10,7 @@
 //! store: record, read, propose, apply). [`evaluate`] here runs the parse
 //! and engine steps both adapters share.
 
+pub mod csv_series;
 pub mod parse;
 pub mod proposal;
 pub mod series;

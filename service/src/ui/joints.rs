@@ -1,0 +1,154 @@
+//! The joint registry on the page: the list (by tag, release status and
+//! review mark, in pages) and one joint's definition with a link that
+//! computes its spec request in the calculator's JSON twin.
+
+use actix_web::http::StatusCode;
+use actix_web::{web, HttpRequest, HttpResponse};
+use maud::html;
+use serde::Deserialize;
+
+use super::layout::{page, Nav};
+use super::problem::Problem;
+use super::session::{problem_page, Visit};
+use super::UiState;
+use crate::app::joints::{JointQuery, JointView};
+use crate::app::tokens::Role;
+
+/// The list's filters as the page's GET form sends them.
+#[derive(Debug, Default, Deserialize)]
+pub struct ListQuery {
+    #[serde(default)]
+    tag: String,
+    #[serde(default)]
+    status: String,
+    #[serde(default)]
+    review: String,
+    #[serde(default)]
+    after: String,
+}
+
+fn given(s: &str) -> Option<String> {
+    let s = s.trim();
+    (!s.is_empty()).then(|| s.to_owned())
+}
+
+/// `GET /ui/joints`.
+pub async fn list(
+    req: HttpRequest,
+    state: web::Data<UiState>,
+    query: web::Query<ListQuery>,
+) -> HttpResponse {
+    let visit = Visit::of(&req);
+    let title = "Joints";
+    if let Err(p) = visit.caller(&state, Role::Reader).await {
+        return problem_page(&visit, Nav::Joints, title, &p);
+    }
+    let q = query.into_inner();
+    let filters = html! {
+        form.filters method="get" action="/ui/joints" {
+            label { "Tag " input name="tag" value=(q.tag) placeholder="any"; }
+            label { "Release status "
+                select name="status" {
+                    option value="" selected[q.status.is_empty()] { "any" }
+                    @for s in ["draft", "released", "superseded", "withdrawn"] {
+                        option value=(s) selected[q.status == s] { (s) }
+                    }
+                }
+            }
+            label { input type="checkbox" name="review" value="due" checked[q.review == "due"]; " review due only" }
+            button type="submit" { "Show" }
+        }
+    };
+    if !q.review.is_empty() && q.review != "due" {
+        let p = Problem::refusal(
+            StatusCode::UNPROCESSABLE_ENTITY,
+            "Input refused",
+            "review",
+            "the only review filter is 'due'",
+        );
+        let body = html! { h1 { (title) } (p.render()) (filters) };
+        return visit.html(p.status, page(title, Nav::Joints, &visit, body));
+    }
+    let jq = JointQuery {
+        tag: given(&q.tag),
+        status: given(&q.status),
+        review_due: q.review == "due",
+        limit: Some(50),
+        after: given(&q.after),
+    };
+    let found = match state.app.joints(&jq).await {
+        Ok(p) => p,
+        Err(e) => {
+            let p = Problem::from_app(&e);
+            let body = html! { h1 { (title) } (p.render()) (filters) };
+            return visit.html(p.status, page(title, Nav::Joints, &visit, body));
+        }
+    };
+    let next_link = found.next.as_ref().map(|after| {
+        form_urlencoded::Serializer::new(String::new())
+            .append_pair("tag", &q.tag)
+            .append_pair("status", &q.status)
+            .append_pair("review", &q.review)
+            .append_pair("after", after)
+            .finish()
+    });
+    let body = html! {
+        h1 { (title) }
+        (filters)
+        @if found.joints.is_empty() { p { "No joint matches." } }
+        @else {
+            table.list id="joints" {
+                thead { tr { th { "Joint" } th { "Title" } th { "Tags" } th { "Version" } th { "Review" } } }
+                tbody {
+                    @for j in &found.joints {
+                        @let v = JointView::from(j);
+                        tr {
+                            td { a href={ "/ui/joints/" (v.id) } { (v.id) } }
+                            td { (v.title) } td { (v.tags.join(", ")) } td.num { (v.version) }
+                            td { @if let Some(r) = &v.review_due { span.check.warning { "due (revision " (r.revision) ")" } } }
+                        }
+                    }
+                }
+            }
+        }
+        @if let Some(next) = next_link { p { a href={ "/ui/joints?" (next) } { "Next page" } } }
+    };
+    visit.html(StatusCode::OK, page(title, Nav::Joints, &visit, body))
+}
+
+/// `GET /ui/joints/{id}`.
+pub async fn one(
+    req: HttpRequest,
+    state: web::Data<UiState>,
+    id: web::Path<String>,
+) -> HttpResponse {
+    let visit = Visit::of(&req);
+    let title = format!("Joint {id}");
+    if let Err(p) = visit.caller(&state, Role::Reader).await {
+        return problem_page(&visit, Nav::Joints, &title, &p);
+    }
+    let joint = match state.app.joint(&id).await {
+        Ok(j) => JointView::from(&j),
+        Err(e) => return problem_page(&visit, Nav::Joints, &title, &Problem::from_app(&e)),
+    };
+    let pretty = |v: &serde_json::Value| serde_json::to_string_pretty(v).unwrap_or_default();
+    let body = html! {
+        h1 { "Joint " (joint.id) }
+        p.lead { (joint.title) }
+        @if let Some(r) = &joint.review_due {
+            p.check.warning { strong { "Review due: " } "catalogue revision " (r.revision) " would move this joint's spec (marked " (r.since) ")." }
+        }
+        table.answer {
+            tbody {
+                tr { th scope="row" { "Tags" } td { (joint.tags.join(", ")) } }
+                tr { th scope="row" { "Version" } td { (joint.version) } }
+            }
+        }
+        h2 { "Spec request" }
+        pre.json { (pretty(&joint.request)) }
+        h2 { "Tool presentation" }
+        pre.json { (pretty(&joint.setpoints)) }
+        p { a href={ "/v1/joints/" (joint.id) } { "As JSON" } " · " a href="/ui/joints" { "All joints" } }
+    };
+    visit.html(StatusCode::OK, page(&title, Nav::Joints, &visit, body))
+}
