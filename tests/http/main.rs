@@ -40,3 +40,6 @@ mod spec_cli;
 mod specs;
 mod specs_support;
 mod store;
+mod subscriptions;
+mod webhook_receiver;
+mod webhooks;

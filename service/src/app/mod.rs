@@ -21,10 +21,18 @@
 //! - `joints` — the joint registry's definitions: define, read, list (by
 //!   tag, due review, pages of ids) and change from an expected version;
 //!   [`joints::JointView`] as both adapters render it.
+//! - `subscriptions` — webhook subscriptions: create (URL and event types
+//!   checked, the signing secret shown once), read, list, delete, and each
+//!   one's delivery log.
+//! - `delivery` — webhook delivery: the [`delivery::Deliverer`] claims due
+//!   deliveries, POSTs the signed CloudEvents JSON (Standard Webhooks
+//!   headers), records every attempt and retries on the back-off schedule;
+//!   its worker is started by `startup`.
 //! - `tokens` — API tokens: create, list, revoke, find by secret.
 
 pub mod catalogue;
 pub mod context;
+pub mod delivery;
 pub mod error;
 pub mod friction_tests;
 pub mod joints;
@@ -32,6 +40,7 @@ pub mod quantity;
 pub mod reading;
 pub mod reference;
 pub mod spec;
+pub mod subscriptions;
 pub mod tokens;
 
 pub use context::App;

@@ -7,7 +7,7 @@
 //! negotiation), `auth` (bearer tokens and roles), `request_id`, `metrics`,
 //! `deadline` (body-read and request deadlines), `state`, `openapi` and
 //! `routes_table` (404 versus 405 from the document). Routes: `health`, `reference` and `reference_lists`, and the
-//! feature modules `specs`, `catalogue`, `friction_tests` and `joints`, all registered
+//! feature modules `specs`, `catalogue`, `friction_tests`, `joints` and `subscriptions`, all registered
 //! in `routes`.
 
 pub mod accept;
@@ -31,6 +31,7 @@ pub mod request_id;
 pub mod routes_table;
 pub mod specs;
 pub mod state;
+pub mod subscriptions;
 
 /// Every route of the service. Each HTTP module exposes
 /// `pub fn configure(cfg: &mut ServiceConfig)` and is called here.
@@ -47,4 +48,5 @@ pub fn routes(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
     catalogue::configure(cfg);
     friction_tests::configure(cfg);
     joints::configure(cfg);
+    subscriptions::configure(cfg);
 }

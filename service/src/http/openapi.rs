@@ -30,7 +30,8 @@ with an `Allow` header listing the methods that path answers.",
         (name = "operations", description = "Health, readiness, metrics"),
         (name = "reference", description = "Threads, property classes, methods, materials, finishes, lubricants"),
         (name = "catalogue", description = "The versioned friction catalogue: entries, finishes, lubricants, revisions, history, diff, export"),
-        (name = "joints", description = "The joint registry: each tightening operation defined once under the plant's own id")
+        (name = "joints", description = "The joint registry: each tightening operation defined once under the plant's own id"),
+        (name = "subscriptions", description = "Webhooks: events as CloudEvents 1.0 JSON, signed per the Standard Webhooks convention, with a delivery log")
     ),
     modifiers(&BearerScheme),
     components(schemas(Problem, FieldError, Quantity, Units))
