@@ -60,19 +60,6 @@ pub struct Attempt {
     pub outcome: DeliveryOutcome,
 }
 
-/// A delivery's state (for the log's readers and tests).
-#[derive(Debug, Clone, PartialEq, sqlx::FromRow)]
-pub struct DeliveryState {
-    pub event_id: String,
-    pub subscription_id: i64,
-    pub state: String,
-    pub attempts: i64,
-    /// Unix milliseconds.
-    pub next_attempt_at: i64,
-    pub last_status: Option<String>,
-    pub delivered_at: Option<DateTime<Utc>>,
-}
-
 const ANY_DUE: &str = "SELECT COUNT(*) FROM deliveries WHERE state = 'pending' \
      AND next_attempt_at <= $1 AND (locked_until IS NULL OR locked_until <= $1)";
 
@@ -108,11 +95,6 @@ const LOG_ATTEMPT: &str = "INSERT INTO delivery_attempts (subscription_id, event
 const SETTLE: &str = "UPDATE deliveries SET attempts = $3, state = $4, next_attempt_at = $5, \
      last_status = $6, delivered_at = $7, lease_token = NULL, locked_until = NULL \
      WHERE event_seq = $1 AND subscription_id = $2 AND lease_token = $8 AND state = 'pending'";
-
-const STATES: &str = "SELECT o.event_id, d.subscription_id, d.state, d.attempts, \
-     d.next_attempt_at, d.last_status, d.delivered_at \
-     FROM deliveries d JOIN outbox o ON o.seq = d.event_seq \
-     WHERE d.subscription_id = $1 ORDER BY d.event_seq LIMIT $2";
 
 impl Store {
     /// Whether a delivery is due at `now` (a read: an idle worker does not
@@ -207,20 +189,5 @@ impl Store {
             .rows_affected());
         tx.commit().await?;
         Ok(changed == 1)
-    }
-
-    /// The delivery states of subscription `id`, in event order, at most
-    /// `limit` (1–1000).
-    #[tracing::instrument(skip(self), level = "debug")]
-    pub async fn delivery_states(
-        &self,
-        id: i64,
-        limit: i64,
-    ) -> Result<Vec<DeliveryState>, StoreError> {
-        Ok(dispatch!(Store, self, |pool| sqlx::query_as(STATES)
-            .bind(id)
-            .bind(limit.clamp(1, 1000))
-            .fetch_all(pool)
-            .await?))
     }
 }
