@@ -61,6 +61,58 @@ pub struct Config {
     pub answer_cache_entries: usize,
     #[command(flatten)]
     pub limits: Limits,
+    #[command(flatten)]
+    pub webhooks: Webhooks,
+}
+
+/// Webhook delivery from the outbox. Any number of instances may deliver:
+/// each delivery is claimed by one of them.
+#[derive(Debug, Clone, Args)]
+pub struct Webhooks {
+    /// Whether this instance delivers webhooks (a worker beside the server).
+    #[arg(
+        long = "webhook-delivery",
+        env = "TIGHTSPEC_WEBHOOK_DELIVERY",
+        default_value_t = true,
+        action = clap::ArgAction::Set
+    )]
+    pub delivery: bool,
+    /// Milliseconds between the worker's looks for due deliveries.
+    #[arg(
+        long = "webhook-interval-ms",
+        env = "TIGHTSPEC_WEBHOOK_INTERVAL_MS",
+        default_value_t = 1000,
+        value_parser = clap::value_parser!(u64).range(10..=600_000)
+    )]
+    pub interval_ms: u64,
+    /// Seconds one delivery attempt may take (connect, send, answer); a
+    /// slower target counts as a failed attempt.
+    #[arg(
+        long = "webhook-timeout-secs",
+        env = "TIGHTSPEC_WEBHOOK_TIMEOUT_SECS",
+        default_value_t = 10,
+        value_parser = clap::value_parser!(u64).range(1..=120)
+    )]
+    pub timeout_secs: u64,
+    /// Delivery attempts in flight at once on this instance.
+    #[arg(
+        long = "webhook-concurrency",
+        env = "TIGHTSPEC_WEBHOOK_CONCURRENCY",
+        default_value_t = 16,
+        value_parser = clap::value_parser!(u64).range(1..=256)
+    )]
+    pub concurrency: u64,
+}
+
+impl Default for Webhooks {
+    fn default() -> Self {
+        Self {
+            delivery: true,
+            interval_ms: 1000,
+            timeout_secs: 10,
+            concurrency: 16,
+        }
+    }
 }
 
 /// Connection and time limits of the HTTP server (request hardening). The
@@ -146,7 +198,8 @@ impl Limits {
 
 impl Config {
     /// Settings for tests and embedding: a free port on loopback, no
-    /// database URL, anonymous reads.
+    /// database URL, anonymous reads, no webhook worker (tests that need
+    /// one turn it on, or drive delivery themselves).
     pub fn local() -> Self {
         Self {
             listen: "127.0.0.1:0".to_string(),
@@ -158,6 +211,10 @@ impl Config {
             workers: 2,
             answer_cache_entries: DEFAULT_ANSWER_CACHE,
             limits: Limits::default(),
+            webhooks: Webhooks {
+                delivery: false,
+                ..Webhooks::default()
+            },
         }
     }
 }

@@ -133,6 +133,7 @@ pub struct Application {
     server: Server,
     state: AppState,
     watcher: Option<tokio::task::JoinHandle<()>>,
+    deliverer: Option<tokio::task::JoinHandle<()>>,
 }
 
 impl Application {
@@ -152,6 +153,11 @@ impl Application {
             request_timeout_secs: config.limits.request_timeout_secs,
             answer_cache_entries: config.answer_cache_entries,
         };
+        let deliverer = if config.webhooks.delivery {
+            Some(context.deliverer(delivery_settings(&config.webhooks))?)
+        } else {
+            None
+        };
         let watcher = context.watch();
         let state = AppState::new(
             settings,
@@ -163,6 +169,8 @@ impl Application {
         match Self::serve(&config, state) {
             Ok(mut app) => {
                 app.watcher = Some(watcher);
+                // off the request path: its own task, its own HTTP client
+                app.deliverer = deliverer.map(crate::app::delivery::Deliverer::spawn);
                 Ok(app)
             }
             Err(e) => {
@@ -222,6 +230,7 @@ impl Application {
             server,
             state,
             watcher: None,
+            deliverer: None,
         })
     }
 
@@ -241,13 +250,23 @@ impl Application {
     }
 
     /// Serves until SIGTERM/SIGINT (actix handles both signals and stops
-    /// gracefully), then stops the catalogue watcher.
+    /// gracefully), then stops the catalogue watcher and the webhook
+    /// worker (an attempt cut short is claimed again after its lease).
     pub async fn run_until_stopped(self) -> std::io::Result<()> {
         let result = self.server.await;
-        if let Some(watcher) = self.watcher {
-            watcher.abort();
+        for task in [self.watcher, self.deliverer].into_iter().flatten() {
+            task.abort();
         }
         result
+    }
+}
+
+/// The application's delivery settings from the server's.
+fn delivery_settings(w: &crate::config::Webhooks) -> crate::app::delivery::DeliverySettings {
+    crate::app::delivery::DeliverySettings {
+        interval: Duration::from_millis(w.interval_ms.max(1)),
+        timeout: Duration::from_secs(w.timeout_secs.max(1)),
+        concurrency: usize::try_from(w.concurrency).unwrap_or(16).max(1),
     }
 }
 

@@ -47,5 +47,8 @@ mod spec_cli;
 mod specs;
 mod specs_support;
 mod store;
+mod subscriptions;
 mod ui;
 mod ui_browser;
+mod webhook_receiver;
+mod webhooks;

@@ -195,7 +195,7 @@ async fn drive(c: &Client, base: &str) -> Result<(), fantoccini::error::CmdError
     assert!(history.text().await?.contains("History"), "history table");
     let img = c.find(Locator::Id("history-chart")).await?;
     let src = img.attr("src").await?.unwrap_or_default();
-    assert!(src.contains("/history/chart.svg"), "{src}");
+    assert!(src.contains("/history.svg"), "{src}");
     shot(c, "entry-history.png").await;
 
     // A write without a token: refused in the page.

@@ -26,11 +26,19 @@
 //!   the frozen answer the line fetches by joint id.
 //! - `charts` — the charts as SVG: tightening window, torque–angle, a
 //!   friction test series, a friction entry's history (drawn by `chart`).
+//! - `subscriptions` — webhook subscriptions: create (URL and event types
+//!   checked, the signing secret shown once), read, list, delete, and each
+//!   one's delivery log.
+//! - `delivery` — webhook delivery: the [`delivery::Deliverer`] claims due
+//!   deliveries, POSTs the signed CloudEvents JSON (Standard Webhooks
+//!   headers), records every attempt and retries on the back-off schedule;
+//!   its worker is started by `startup`.
 //! - `tokens` — API tokens: create, list, revoke, find by secret.
 
 pub mod catalogue;
 pub mod charts;
 pub mod context;
+pub mod delivery;
 pub mod error;
 pub mod friction_tests;
 pub mod joints;
@@ -39,6 +47,7 @@ pub mod reading;
 pub mod reference;
 pub mod releases;
 pub mod spec;
+pub mod subscriptions;
 pub mod tokens;
 
 pub use context::App;

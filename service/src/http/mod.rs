@@ -8,7 +8,8 @@
 //! `deadline` (body-read and request deadlines), `state`, `openapi` and
 //! `routes_table` (404 versus 405 from the document), `root` (a browser
 //! asking for `/` is sent to the page). Routes: `health`, `reference` and `reference_lists`, and the
-//! feature modules `specs`, `charts` (SVG pictures), `catalogue`, `friction_tests`, `joints` and `releases`, all registered
+//! feature modules `specs`, `charts` (SVG pictures), `catalogue`, `friction_tests`, `joints`, `releases` and
+//! `subscriptions`, all registered
 //! in `routes`.
 
 pub mod accept;
@@ -35,6 +36,7 @@ pub mod root;
 pub mod routes_table;
 pub mod specs;
 pub mod state;
+pub mod subscriptions;
 
 /// Every route of the service. Each HTTP module exposes
 /// `pub fn configure(cfg: &mut ServiceConfig)` and is called here.
@@ -53,4 +55,5 @@ pub fn routes(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
     friction_tests::configure(cfg);
     joints::configure(cfg);
     releases::configure(cfg);
+    subscriptions::configure(cfg);
 }

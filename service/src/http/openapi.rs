@@ -31,7 +31,8 @@ with an `Allow` header listing the methods that path answers.",
         (name = "reference", description = "Threads, property classes, methods, materials, finishes, lubricants"),
         (name = "catalogue", description = "The versioned friction catalogue: entries, finishes, lubricants, revisions, history, diff, export"),
         (name = "joints", description = "The joint registry: each tightening operation defined once under the plant's own id"),
-        (name = "charts", description = "Pictures as SVG (image/svg+xml): the tightening window, torque-angle, a friction test series, a friction entry's history; same input and ETag rules as their JSON counterparts")
+        (name = "charts", description = "Pictures as SVG (image/svg+xml): the tightening window, torque-angle, a friction test series, a friction entry's history; same input and ETag rules as their JSON counterparts"),
+        (name = "subscriptions", description = "Webhooks: events as CloudEvents 1.0 JSON, signed per the Standard Webhooks convention, with a delivery log")
     ),
     modifiers(&BearerScheme),
     components(schemas(Problem, FieldError, Quantity, Units))

@@ -14,6 +14,14 @@ pub const JOINT_REVIEW_DUE: &str = "joint.review_due";
 /// A catalogue revision was written.
 pub const CATALOGUE_REVISION_CREATED: &str = "catalogue.revision_created";
 
+/// Every event type a subscription may ask for (`POST /v1/subscriptions`).
+pub const EVENT_TYPES: [&str; 4] = [
+    JOINT_RELEASED,
+    JOINT_WITHDRAWN,
+    JOINT_REVIEW_DUE,
+    CATALOGUE_REVISION_CREATED,
+];
+
 /// The `source` attribute of every event this service publishes.
 pub const SOURCE: &str = "/tightspec";
 

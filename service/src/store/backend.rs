@@ -2,7 +2,8 @@
 //! connect, the migrations, how a transaction starts, how the writer locks
 //! the head row (and a joint's row), how other instances are told of a new
 //! revision. Every query lives in the module of its aggregate (`snapshots`,
-//! `history`, `tokens`, `friction_series`, `joints`, `releases`, `outbox`)
+//! `history`, `tokens`, `friction_series`, `joints`, `releases`, `outbox`,
+//! `subscriptions`, `deliveries`)
 //! and is written once: its SQL is portable (`$n` placeholders, `RETURNING`,
 //! `ON CONFLICT` work in both), and [`dispatch!`] compiles that one body for
 //! each backend.
@@ -121,6 +122,18 @@ impl Tx {
                     .await?
             }
         })
+    }
+
+    /// `postgres` or `sqlite`: the one of two statements this backend
+    /// runs, where the databases need different SQL (the delivery claim:
+    /// `FOR UPDATE SKIP LOCKED` exists only on PostgreSQL; SQLite's
+    /// `BEGIN IMMEDIATE` already makes the claiming transaction the only
+    /// writer).
+    pub(super) fn by_backend(&self, postgres: &'static str, sqlite: &'static str) -> &'static str {
+        match self {
+            Tx::Postgres(_) => postgres,
+            Tx::Sqlite(_) => sqlite,
+        }
     }
 
     pub(super) async fn commit(self) -> Result<(), StoreError> {

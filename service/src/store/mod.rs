@@ -10,7 +10,10 @@
 //! - `tokens` — API tokens;
 //! - `joints` — the joint registry's definitions, their history and review
 //!   marks; `releases` — frozen releases and their status events;
-//!   `outbox` — events written with the change they announce.
+//!   `outbox` — events written with the change they announce (and a
+//!   delivery per subscription to their type);
+//! - `subscriptions` — webhook subscriptions and their delivery log;
+//!   `deliveries` — claiming due deliveries and settling each attempt.
 //!
 //! `backend` holds what differs between the databases (connecting,
 //! migrations, transaction start, head lock, notification) and the
@@ -20,6 +23,7 @@
 //! `catalogue::apply`; the store only persists what it returns.
 
 mod backend;
+pub mod deliveries;
 pub mod error;
 pub mod friction_series;
 mod history;
@@ -27,6 +31,7 @@ pub mod joints;
 pub mod outbox;
 pub mod releases;
 mod snapshots;
+pub mod subscriptions;
 pub mod tokens;
 pub mod watch;
 

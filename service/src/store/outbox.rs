@@ -28,20 +28,34 @@ struct EventRow {
 }
 
 const INSERT: &str = "INSERT INTO outbox (event_id, event_type, subject, payload, created_at) \
-     VALUES ($1, $2, $3, $4, $5)";
+     VALUES ($1, $2, $3, $4, $5) RETURNING seq";
+
+/// One delivery per active subscription to the event's type, due at once.
+const FAN_OUT: &str = "INSERT INTO deliveries (event_seq, subscription_id, next_attempt_at) \
+     SELECT $1, s.id, $2 FROM subscriptions s \
+     JOIN subscription_events e ON e.subscription_id = s.id \
+     WHERE s.active AND e.event_type = $3";
 
 const AFTER: &str = "SELECT seq, event_id, event_type, subject, payload, created_at FROM outbox \
      WHERE seq > $1 ORDER BY seq LIMIT $2";
 
-/// Writes `event` inside the open transaction.
+/// Writes `event` inside the open transaction, with a delivery for every
+/// active subscription to its type (so a subscription receives exactly the
+/// events committed after it, and an event is never without its deliveries).
 pub(super) async fn insert_in(tx: &mut Tx, event: &OutboxEvent) -> Result<(), StoreError> {
     let payload = serde_json::to_string(&event.payload)?;
-    dispatch!(Tx, tx, |c| sqlx::query(INSERT)
+    let seq: i64 = dispatch!(Tx, &mut *tx, |c| sqlx::query_scalar(INSERT)
         .bind(&event.id)
         .bind(&event.kind)
         .bind(&event.subject)
         .bind(&payload)
         .bind(event.created_at)
+        .fetch_one(&mut **c)
+        .await?);
+    dispatch!(Tx, &mut *tx, |c| sqlx::query(FAN_OUT)
+        .bind(seq)
+        .bind(event.created_at.timestamp_millis())
+        .bind(&event.kind)
         .execute(&mut **c)
         .await
         .map(drop)?);

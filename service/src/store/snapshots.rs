@@ -8,8 +8,9 @@ use std::sync::Arc;
 use chrono::Utc;
 
 use super::backend::{dispatch, Tx};
-use super::{Store, StoreError};
+use super::{outbox, Store, StoreError};
 use crate::catalogue::{self, Applied, CatalogueError, ChangeSet, EntityKind, Live, Snapshot};
+use crate::registry::{event, OutboxEvent};
 
 pub(super) const HEAD: &str = "SELECT revision FROM catalogue_head WHERE id = 1";
 
@@ -220,8 +221,45 @@ async fn apply_in(
         }
     };
     write(&mut tx, set, &applied).await?;
+    // Revisions are announced in the transaction that writes them. The
+    // seed, and any revision written to a schema older than the outbox (a
+    // database part-way through its migrations), go unannounced.
+    if !only_if_empty && has_outbox(&mut tx).await? {
+        outbox::insert_in(&mut tx, &revision_event(set, &applied)).await?;
+    }
     tx.commit().await?;
     Ok(Some(applied))
+}
+
+const HAS_OUTBOX_POSTGRES: &str = "SELECT to_regclass('outbox') IS NOT NULL";
+const HAS_OUTBOX_SQLITE: &str =
+    "SELECT EXISTS (SELECT 1 FROM sqlite_master WHERE type = 'table' AND name = 'outbox')";
+
+/// Whether the schema has the outbox yet.
+async fn has_outbox(tx: &mut Tx) -> Result<bool, StoreError> {
+    let sql = tx.by_backend(HAS_OUTBOX_POSTGRES, HAS_OUTBOX_SQLITE);
+    Ok(dispatch!(Tx, &mut *tx, |c| sqlx::query_scalar(sql)
+        .fetch_one(&mut **c)
+        .await?))
+}
+
+/// `catalogue.revision_created` for a revision: its number, author,
+/// reason, evidence and how many changes it made.
+fn revision_event(set: &ChangeSet, applied: &Applied) -> OutboxEvent {
+    let revision = applied.snapshot.revision;
+    OutboxEvent::cloud_event(
+        outbox::new_event_id(),
+        event::CATALOGUE_REVISION_CREATED,
+        &revision.to_string(),
+        Utc::now(),
+        serde_json::json!({
+            "revision": revision,
+            "actor": set.actor,
+            "reason": set.reason.trim(),
+            "evidence": set.evidence,
+            "change_count": applied.records.len(),
+        }),
+    )
 }
 
 /// The revision row, one history row per change, the current tables, the

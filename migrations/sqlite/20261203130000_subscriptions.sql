@@ -1,0 +1,67 @@
+-- Webhook subscriptions and the delivery of outbox events to them. A
+-- delivery row per (event, subscription) is written in the transaction
+-- that writes the event to the outbox (only active subscriptions for that
+-- event type get one, so a subscription receives the events created after
+-- it); the delivery log is append-only: one row per attempt.
+
+CREATE TABLE subscriptions (
+    id         INTEGER PRIMARY KEY AUTOINCREMENT,
+    url        TEXT NOT NULL,
+    -- JSON list of the event types as created (subscription_events indexes them).
+    events     TEXT NOT NULL,
+    -- The signing secret (whsec_ + base64), kept in clear: signing needs it.
+    secret     TEXT NOT NULL,
+    created_by TEXT NOT NULL,
+    created_at TEXT NOT NULL,
+    active     BOOLEAN NOT NULL DEFAULT TRUE,
+    deleted_at TEXT
+);
+
+CREATE TABLE subscription_events (
+    subscription_id INTEGER NOT NULL REFERENCES subscriptions (id),
+    event_type      TEXT NOT NULL,
+    PRIMARY KEY (event_type, subscription_id)
+);
+
+-- Delivery state per (event, subscription). Times compared by the claim
+-- (next_attempt_at, locked_until) are unix milliseconds, numeric in both
+-- databases. A claim sets lease_token and locked_until; a worker that
+-- dies leaves a lease that expires, and the delivery is claimed again.
+CREATE TABLE deliveries (
+    event_seq       INTEGER NOT NULL REFERENCES outbox (seq),
+    subscription_id INTEGER NOT NULL REFERENCES subscriptions (id),
+    state           TEXT NOT NULL DEFAULT 'pending'
+                    CHECK (state IN ('pending', 'delivered', 'failed', 'cancelled')),
+    attempts        INTEGER NOT NULL DEFAULT 0,
+    next_attempt_at INTEGER NOT NULL,
+    lease_token     TEXT,
+    locked_until    INTEGER,
+    last_status     TEXT,
+    delivered_at    TEXT,
+    PRIMARY KEY (event_seq, subscription_id)
+);
+CREATE INDEX deliveries_due ON deliveries (next_attempt_at) WHERE state = 'pending';
+
+CREATE TABLE delivery_attempts (
+    seq             INTEGER PRIMARY KEY AUTOINCREMENT,
+    subscription_id INTEGER NOT NULL REFERENCES subscriptions (id),
+    event_seq       INTEGER NOT NULL REFERENCES outbox (seq),
+    attempt         INTEGER NOT NULL CHECK (attempt >= 1),
+    attempted_at    TEXT NOT NULL,
+    -- the HTTP status the target answered, or NULL when none came (error says why)
+    status_code     INTEGER,
+    error           TEXT,
+    duration_ms     INTEGER NOT NULL,
+    outcome         TEXT NOT NULL CHECK (outcome IN ('delivered', 'retry', 'failed')),
+    next_attempt_at TEXT
+);
+CREATE INDEX delivery_attempts_by_subscription ON delivery_attempts (subscription_id, seq);
+
+CREATE TRIGGER delivery_attempts_no_update BEFORE UPDATE ON delivery_attempts
+BEGIN
+    SELECT RAISE(ABORT, 'delivery log records are append-only: UPDATE on delivery_attempts refused');
+END;
+CREATE TRIGGER delivery_attempts_no_delete BEFORE DELETE ON delivery_attempts
+BEGIN
+    SELECT RAISE(ABORT, 'delivery log records are append-only: DELETE on delivery_attempts refused');
+END;
