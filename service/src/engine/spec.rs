@@ -363,7 +363,6 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         parts: &input.parts,
         outside_method: plausible::outside_method_material(input).map(|(_, m)| m),
     });
-    let mut checks = checks;
     checks.extend(plausible::warnings(input, &window, scatter.value()));
 
     if let Some(w) = joint_model.as_ref().and_then(|m| m.working.as_ref()) {

@@ -59,6 +59,7 @@ impl Problem {
                 (StatusCode::PRECONDITION_FAILED, "Changed meanwhile")
             }
             AppError::Conflict { .. } => (StatusCode::CONFLICT, "Conflict"),
+            AppError::Forbidden { .. } => (StatusCode::FORBIDDEN, "Not allowed"),
             AppError::Unavailable { .. } => {
                 (StatusCode::SERVICE_UNAVAILABLE, "Database unavailable")
             }

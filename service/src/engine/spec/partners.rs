@@ -46,6 +46,7 @@ fn input(designation: &str, class: &str, washer: Washer, material: &str) -> Spec
         required_clamp_load: None,
         window_mode: WindowMode::MaximumPreload,
         flags: SpecFlags::default(),
+        joint_model: Default::default(),
     }
 }
 
