@@ -205,6 +205,8 @@ fn working_state_spec() -> Result<(Spec, WorkingState), EngineError> {
             bolt_described: true,
             ..SpecFlags::default()
         },
+        joint_model: Default::default(),
+        parts: Default::default(),
     };
     let spec = compute(&input)?;
     let AngleOutcome::Computed(a) = &spec.angle else {

@@ -7,15 +7,18 @@ use serde_json::{json, Value};
 
 use crate::support::{error_fields, expect_problem, TestApp};
 
-/// The issue 12 audit joint: M12 10.9, μ 0.12, torque-angle (±9 %), hexagon
-/// head in a medium hole, D_A 30 mm (the engine regression's inputs).
+/// The issue 12 audit joint: M12 10.9, μ 0.12, a torque window of ±9 %
+/// (what the audit read when torque-angle was still computed as a torque
+/// window; a DC nutrunner at ±9 % gives that window now), hexagon head in a
+/// medium hole, D_A 30 mm (the engine regression's inputs).
 fn audit(extra: Value) -> Value {
     let mut body = json!({
         "thread": "M12",
         "property_class": "10.9",
         "thread_friction": 0.12,
         "bearing_friction": 0.12,
-        "tightening_method": "torque-angle",
+        "tightening_method": "dc-nutrunner",
+        "tool_scatter": 0.09,
         "joint_outer_diameter": {"value": 30, "unit": "mm"}
     });
     for (k, v) in extra.as_object().cloned().unwrap_or_default() {
@@ -89,7 +92,7 @@ async fn embedding_regression(app: TestApp) {
     // The same through the GET query: same answer, same hash.
     let q = format!(
         "/v1/tightening-specs?thread=M12&property_class=10.9&thread_friction=0.12\
-         &bearing_friction=0.12&tightening_method=torque-angle&joint_outer_diameter=30mm\
+         &bearing_friction=0.12&tightening_method=dc-nutrunner&tool_scatter=0.09&joint_outer_diameter=30mm\
          &clamped_parts=7.5mm:steel-s355,7.5mm:steel-s355&roughness_rz=16um\
          &required_clamp_load={}N",
         fm_min - 2100.0

@@ -34,6 +34,7 @@ use super::window::{
 use super::EngineError;
 
 mod controlled;
+mod finite;
 mod joint;
 mod validate;
 pub use validate::is_stainless_grade;
@@ -177,60 +178,10 @@ fn figures(w: &WindowInput, target: Torque, mu_th: f64, mu_b: f64) -> FrictionFi
     }
 }
 
-/// True when every number the spec reports is finite. The plausibility
-/// ranges keep it so; this is the last guard, so that no answer ever carries
-/// a number that JSON cannot hold.
-fn all_finite(s: &Spec) -> bool {
-    let fin = |v: &[f64]| v.iter().all(|x| x.is_finite());
-    let w = &s.window;
-    let mut ok = fin(&[
-        w.lower.value,
-        w.target.value,
-        w.upper.value,
-        w.preload_min.value,
-        w.preload_max.value,
-        w.permissible_preload.value,
-        w.upper_limit.value,
-        w.tightening_factor,
-        s.surface_pressure.value,
-        s.mean_bearing_diameter.value,
-        s.proof_load.value,
-        s.yield_load.value,
-    ]);
-    for f in [&s.at_min_friction, &s.at_max_friction] {
-        ok &= fin(&[
-            f.preload_at_target.value,
-            f.nut_factor,
-            f.total_friction,
-            f.split.pitch,
-            f.split.thread_friction,
-            f.split.bearing_friction,
-            f.split.prevailing,
-        ]);
-    }
-    if let Some(c) = &s.clamp_load {
-        ok &= fin(&[c.achieved_min.value, c.margin.value, c.margin_ratio]);
-    }
-    if let Some(m) = &s.joint_model {
-        ok &= model::all_finite(m);
-    }
-    if let AngleOutcome::Computed(a) = &s.angle {
-        ok &= fin(&[
-            a.snug_torque.value,
-            a.snug_preload_min.value,
-            a.snug_preload_max.value,
-            a.angle_min.value,
-            a.angle_max.value,
-            a.angle_at_yield.value,
-        ]);
-    }
-    ok
-}
-
 /// Compute a complete specification, or say exactly which input is wrong.
 pub fn compute(input: &SpecInput) -> Result<Spec, EngineError> {
     let spec = compute_unchecked(input)?;
-    if !all_finite(&spec) {
+    if !finite::all_finite(&spec) {
         return Err(EngineError::invalid(
             "request",
             "these inputs give a figure that is not a finite number; check the sizes and \
@@ -300,7 +251,7 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         }
     };
     let (window, angle, controlled) =
-        match controlled::controlled(input, &w_in, &window, joint.as_ref())? {
+        match controlled::controlled(input, &w_in, &window, joint.as_ref(), loss)? {
             Some(c) => (c.window, c.angle, Some(c.preload)),
             None => {
                 let angle = match &joint {

@@ -77,16 +77,18 @@ fn band(
 
 /// `None` for torque-controlled methods; otherwise the controlled window.
 /// `base` is the forward torque window (its F_M,zul and yield-limited
-/// torque M_A,zul set the default snug torque).
+/// torque M_A,zul set the default snug torque). `embedding_loss` F_Z is
+/// added to a required clamp load the window must reach.
 pub(super) fn controlled(
     input: &SpecInput,
     w: &WindowInput,
     base: &TorqueWindow,
     joint: Option<&JointInput>,
+    embedding_loss: Force,
 ) -> Result<Option<Controlled>, EngineError> {
     match input.method {
         TighteningMethod::YieldControlled => yield_point(input, w, base).map(Some),
-        TighteningMethod::TorqueAngle => angle(input, w, base, joint).map(Some),
+        TighteningMethod::TorqueAngle => angle(input, w, base, joint, embedding_loss).map(Some),
         _ => Ok(None),
     }
 }
@@ -127,6 +129,7 @@ fn angle(
     w: &WindowInput,
     base: &TorqueWindow,
     joint: Option<&JointInput>,
+    embedding_loss: Force,
 ) -> Result<Controlled, EngineError> {
     let missing = |field: &str, what: &str| {
         EngineError::invalid(
@@ -170,7 +173,7 @@ fn angle(
     );
     let (theta, governing) = match (input.window_mode, input.required_clamp_load) {
         (WindowMode::MinimumClampLoad, Some(req)) => (
-            angle_to_reach(&a, delta, snug, s, req, WindowEnd::Lower)?,
+            angle_to_reach(&a, delta, snug, s, req + embedding_loss, WindowEnd::Lower)?,
             Governing::RequiredClampLoad,
         ),
         (WindowMode::MinimumClampLoad, None) => {
