@@ -215,8 +215,13 @@ def generate(document, out, bin_dir):
     config = out.parent / "openapi-client-config.yaml"
     out.parent.mkdir(parents=True, exist_ok=True)
     # No post-generation hooks: the formatter they call is not installed,
-    # and its absence would read as a warning.
-    config.write_text("post_hooks: []\n")
+    # and its absence would read as a warning. The generator has no reader
+    # for image/svg+xml; the charts reach a generated client as bytes.
+    config.write_text(
+        "post_hooks: []\n"
+        "content_type_overrides:\n"
+        "  image/svg+xml: application/octet-stream\n"
+    )
     run = subprocess.run(
         [
             str(bin_dir / "openapi-python-client"), "generate",
