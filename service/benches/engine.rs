@@ -26,11 +26,8 @@ use tightspec::engine::calibration::{
 };
 use tightspec::engine::grade::strength_for;
 use tightspec::engine::joint::bolt::{bolt, in_clamp_length, BoltInput, BoltStandard};
-use tightspec::engine::joint::embedding::{embedding, Loading, Surfaces};
-use tightspec::engine::joint::load_factor::load_factor;
-use tightspec::engine::joint::working::{
-    working_state, Loads, ThreadRolling, WorkingInput, WorkingState,
-};
+use tightspec::engine::joint::model::{JointModel, JointModelInput};
+use tightspec::engine::joint::working::Loads;
 use tightspec::engine::material::find_material;
 use tightspec::engine::method::TighteningMethod;
 use tightspec::engine::quantity::FrictionRange;
@@ -149,12 +146,13 @@ fn bench_spec(c: &mut Criterion) {
 }
 
 /// Kestrel K4 mower deck spindle (demo) as a described joint: ISO 4014
-/// M12×60 10.9 clamping 40 mm of steel (D_A 30 mm), torque-angle, then the
-/// working state under 12 kN axial (0 to 12 kN), 2 kN transverse over one
-/// interface at μ_T 0.15, Rz 16 µm. The engine's own functions in the order
-/// a request meets them: look-ups, bolt and its shank in the clamp length,
-/// `compute` (angle-controlled preload, checks), Φ, F_Z, working state.
-fn working_state_spec() -> Result<(Spec, WorkingState), EngineError> {
+/// M12×60 10.9 clamping 40 mm of steel (D_A 30 mm), torque-angle, with the
+/// operating loads in the spec's joint model: 12 kN axial (0 to 12 kN),
+/// 2 kN transverse over one interface at μ_T 0.15, Rz 16 µm. The engine's
+/// own functions in the order a request meets them: look-ups, bolt and its
+/// shank in the clamp length, then `compute` (angle-controlled preload,
+/// Φ, F_Z, the working state, checks).
+fn working_state_spec() -> Result<(Spec, JointModel), EngineError> {
     let thread = parse_designation("M12")?;
     let strength = strength_for("10.9", &thread)?;
     let bearing = bearing_surface(
@@ -183,8 +181,16 @@ fn working_state_spec() -> Result<(Spec, WorkingState), EngineError> {
         shank_sections: clamped.shank_sections,
         snug_torque: None,
     };
-    let material = find_material("steel")?;
-    let p_g = material.permissible_surface_pressure;
+    let loads = Loads {
+        axial_max: Force::new::<kilonewton>(12.0),
+        axial_min: Force::new::<kilonewton>(0.0),
+        transverse: Force::new::<kilonewton>(2.0),
+        torsion: Torque::new::<newton_meter>(0.0),
+        torsion_radius: None,
+        interfaces: 1,
+        interface_friction: Some(0.15),
+        sealing_clamp_load: None,
+    };
     let input = SpecInput {
         thread,
         strength,
@@ -196,56 +202,33 @@ fn working_state_spec() -> Result<(Spec, WorkingState), EngineError> {
         scatter: None,
         utilisation: None,
         prevailing_torque: None,
-        clamped_material: Some(material),
+        clamped_material: Some(find_material("steel")?),
         joint: Some(joint),
         tapped_hole: None,
+        parts: Default::default(),
         required_clamp_load: None,
         window_mode: WindowMode::MaximumPreload,
         flags: SpecFlags {
             bolt_described: true,
             ..SpecFlags::default()
         },
-        joint_model: Default::default(),
-        parts: Default::default(),
+        joint_model: JointModelInput {
+            roughness_rz: Some(Length::new::<micrometer>(16.0)),
+            loads: Some(loads),
+            ..JointModelInput::default()
+        },
     };
-    let spec = compute(&input)?;
-    let AngleOutcome::Computed(a) = &spec.angle else {
+    let mut spec = compute(&input)?;
+    if !matches!(spec.angle, AngleOutcome::Computed(_)) {
         return Err(EngineError::invalid("joint", "no angle window"));
+    }
+    let Some(model) = spec.joint_model.take() else {
+        return Err(EngineError::invalid("loads", "no joint model"));
     };
-    let r = a.resilience;
-    let phi = load_factor(r.bolt, r.clamped_parts, None)?;
-    let surfaces = Surfaces::of_stack(JointType::ThroughBolted, 1)?;
-    let fz = embedding(
-        Length::new::<micrometer>(16.0),
-        Loading::Transverse,
-        surfaces,
-        r.bolt,
-        r.clamped_parts,
-    )?;
-    let loads = Loads {
-        axial_max: Force::new::<kilonewton>(12.0),
-        axial_min: Force::new::<kilonewton>(0.0),
-        transverse: Force::new::<kilonewton>(2.0),
-        torsion: Torque::new::<newton_meter>(0.0),
-        torsion_radius: None,
-        interfaces: 1,
-        interface_friction: Some(0.15),
-        sealing_clamp_load: None,
-    };
-    let working = working_state(&WorkingInput {
-        thread: &spec.thread,
-        yield_strength: spec.strength.yield_strength_min,
-        preload_min: spec.window.preload_min,
-        preload_max: spec.window.preload_max,
-        thread_friction_min: spec.thread_friction.min(),
-        load_factor: phi.load_factor,
-        embedding_loss: fz.preload_loss,
-        bearing: &spec.bearing,
-        permissible_surface_pressure: p_g,
-        rolling: ThreadRolling::BeforeHeatTreatment,
-        loads: &loads,
-    })?;
-    Ok((spec, working))
+    if model.working.is_none() {
+        return Err(EngineError::invalid("loads", "no working state"));
+    }
+    Ok((spec, model))
 }
 
 fn bench_working_state(c: &mut Criterion) {

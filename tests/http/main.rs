@@ -29,6 +29,7 @@ mod csv_export;
 mod friction_tests;
 mod friction_tests_notes;
 mod friction_tests_store;
+mod heads_and_sizes;
 mod hydrogen;
 mod implausible;
 mod joint_cli;

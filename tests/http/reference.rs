@@ -157,8 +157,16 @@ async fn bearing_types_lists_heads_washers_and_hole_series() {
     for head in &heads {
         let path = if head == "heavy-hex-head" {
             format!("/v1/tightening-specs?thread=1%2F2-13%20UNC&property_class=sae-j429-5&thread_friction=0.14&bearing_friction=0.14&head={head}")
-        } else if head == "pan-head" || head == "button-head" {
-            // Tabulated M2–M10 (pan) and M3–M16 (button).
+        } else if [
+            "pan-head",
+            "button-head",
+            "countersunk-socket",
+            "countersunk-slotted",
+        ]
+        .contains(&head.as_str())
+        {
+            // Tabulated M2–M10 (pan, slotted countersunk), M3–M16 (button),
+            // M3–M20 (socket countersunk).
             format!("/v1/tightening-specs?thread=M8&property_class=8.8&thread_friction=0.14&bearing_friction=0.14&head={head}")
         } else {
             format!("/v1/tightening-specs?thread=M12&property_class=8.8&thread_friction=0.14&bearing_friction=0.14&head={head}")

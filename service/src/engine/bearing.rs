@@ -21,14 +21,23 @@
 //! - With a plain washer the head turns on the washer: outer = min(head d_w,
 //!   washer outer diameter), inner = washer inner diameter. The clearance
 //!   hole does not bound this face, because the washer bridges it.
+//! - Countersunk heads (ISO 10642; ISO 2009 / ISO 7046-1) bear on a 90°
+//!   cone: see [`countersunk`] for the friction diameter and pressure.
 //! - A size with no table row is Invalid and asks for `bearing` diameters.
 
+mod countersunk;
+mod explicit;
+mod names;
 mod small_heads;
 mod table;
 #[cfg(test)]
 mod tests;
 mod washer;
 
+use names::unknown;
+
+pub use countersunk::SEAT_HALF_ANGLE_DEG;
+pub use explicit::explicit_bearing;
 pub use washer::{washer_bearing, WasherBearing, PLAIN_WASHER_P_G_MPA};
 
 use std::str::FromStr;
@@ -48,12 +57,25 @@ pub struct BearingSurface {
     pub inner_diameter: Length,
     /// Where the diameters came from (standard and table, or "given").
     pub source: String,
+    /// A 90° countersunk head's conical seat (see [`countersunk`]).
+    pub conical_seat: bool,
 }
 
 impl BearingSurface {
     /// Mean bearing-friction diameter D_Km = (d_w + d_h)/2 (VDI 2230 Part 1).
     pub fn mean_diameter(&self) -> Length {
         (self.outer_diameter + self.inner_diameter) / 2.0
+    }
+
+    /// The diameter the bearing friction torque acts at: D_Km for a flat
+    /// face; D_Km/sin 45° on a 90° conical seat, where the normal force is
+    /// F/sin 45° (derived in [`countersunk`]).
+    pub fn friction_diameter(&self) -> Length {
+        if self.conical_seat {
+            self.mean_diameter() / SEAT_HALF_ANGLE_DEG.to_radians().sin()
+        } else {
+            self.mean_diameter()
+        }
     }
 }
 
@@ -115,6 +137,10 @@ named_enum!(
         PanHead => "pan-head", "pan head screw (ISO 7045 / ISO 14583; metric only, M2–M10; d_k as bearing face)";
         /// ISO 7380-1 (metric only, M3–M16).
         ButtonHead => "button-head", "hexagon socket button head screw (ISO 7380-1; metric only, M3–M16; d_k as bearing face)";
+        /// ISO 10642 (metric only, M3–M20), 90° conical seat.
+        CountersunkSocket => "countersunk-socket", "hexagon socket countersunk head screw (ISO 10642; metric only, M3–M20; 90° conical seat in a countersink, no washer)";
+        /// ISO 2009 / ISO 7046-1 (metric only, M2–M10), 90° conical seat.
+        CountersunkSlotted => "countersunk-slotted", "slotted or cross recessed countersunk head screw (ISO 2009 / ISO 7046-1; metric only, M2–M10; 90° conical seat in a countersink, no washer)";
     }
 );
 
@@ -148,29 +174,6 @@ pub fn hole_series() -> &'static [HoleSeries] {
 /// Washer choices for the reference endpoint.
 pub fn washers() -> &'static [Washer] {
     Washer::ALL
-}
-
-fn unknown<'a>(
-    field: &str,
-    kind: &'static str,
-    given: &str,
-    ids: impl Iterator<Item = &'a str>,
-) -> EngineError {
-    let lower = given.trim().to_lowercase();
-    let mut scored: Vec<(f64, &str)> = ids
-        .map(|id| (strsim::jaro_winkler(&lower, id), id))
-        .collect();
-    scored.sort_by(|a, b| b.0.total_cmp(&a.0));
-    EngineError::Unknown {
-        field: field.into(),
-        kind,
-        given: given.chars().take(64).collect(),
-        suggestions: scored
-            .iter()
-            .take(3)
-            .map(|(_, id)| id.to_string())
-            .collect(),
-    }
 }
 
 const EXPLICIT: &str = "give bearing.outer_diameter and bearing.inner_diameter explicitly";
@@ -267,7 +270,9 @@ fn head_diameter(thread: &ThreadGeometry, head: HeadType) -> Result<(f64, String
             HeadType::HexagonFlange
             | HeadType::HexagonNut
             | HeadType::PanHead
-            | HeadType::ButtonHead => return Err(missing(head.description())),
+            | HeadType::ButtonHead
+            | HeadType::CountersunkSocket
+            | HeadType::CountersunkSlotted => return Err(missing(head.description())),
         };
         let (_, dw) = table::row(tab, d, |r| r.0).ok_or_else(|| missing(what))?;
         return Ok((dw, format!("d_w {dw} in: {what}, {basis}")));
@@ -312,6 +317,9 @@ fn head_diameter(thread: &ThreadGeometry, head: HeadType) -> Result<(f64, String
             ))
         }
         HeadType::PanHead | HeadType::ButtonHead => small_heads::diameter(thread, head),
+        HeadType::CountersunkSocket | HeadType::CountersunkSlotted => {
+            countersunk::diameter(thread, head)
+        }
         HeadType::HeavyHexHead => Err(EngineError::invalid(
             "head",
             format!(
@@ -330,6 +338,7 @@ pub fn bearing_surface(
     hole: HoleSeries,
 ) -> Result<BearingSurface, EngineError> {
     let (dw, head_source) = head_diameter(thread, head)?;
+    let conical_seat = countersunk::is_countersunk(head);
     match washer {
         Washer::None => {
             let (dh, hole_source) = hole_with_source(thread, hole)?;
@@ -337,8 +346,16 @@ pub fn bearing_surface(
                 outer_diameter: length(thread, dw),
                 inner_diameter: dh,
                 source: format!("{head_source}; {hole_source}"),
+                conical_seat,
             })
         }
+        Washer::Plain if conical_seat => Err(EngineError::invalid(
+            "washer",
+            format!(
+                "a {} seats in a countersink; a plain washer cannot sit under it (give washer none)",
+                head.id()
+            ),
+        )),
         Washer::Plain => {
             let d = table_diameter(thread);
             let (tab, what) = if thread.is_inch() {
@@ -362,36 +379,8 @@ pub fn bearing_surface(
                 source: format!(
                     "{head_source}; head turns on a plain washer {what} (inner {inner} {unit}, outer {outer} {unit}, recalled from memory): outer = min(d_w, washer outer), inner = washer inner"
                 ),
+                conical_seat: false,
             })
         }
     }
-}
-
-/// A bearing surface from diameters the user gives.
-pub fn explicit_bearing(outer: Length, inner: Length) -> Result<BearingSurface, EngineError> {
-    let o = outer.get::<millimeter>();
-    let i = inner.get::<millimeter>();
-    if !o.is_finite() || o <= 0.0 {
-        return Err(EngineError::invalid(
-            "bearing.outer_diameter",
-            "outer bearing diameter must be a positive, finite length",
-        ));
-    }
-    if !i.is_finite() || i <= 0.0 {
-        return Err(EngineError::invalid(
-            "bearing.inner_diameter",
-            "inner bearing diameter must be a positive, finite length",
-        ));
-    }
-    if o <= i {
-        return Err(EngineError::invalid(
-            "bearing.outer_diameter",
-            format!("outer bearing diameter {o} mm must exceed the inner diameter {i} mm"),
-        ));
-    }
-    Ok(BearingSurface {
-        outer_diameter: outer,
-        inner_diameter: inner,
-        source: "given".into(),
-    })
 }

@@ -116,7 +116,7 @@ impl JointGeometry {
                         "the outer bearing diameter must be larger than the inner one, both finite",
                     ));
                     }
-                    Some(b.mean_diameter())
+                    Some(b.friction_diameter())
                 }
                 (None, true) => None,
                 (None, false) => return Err(EngineError::invalid(

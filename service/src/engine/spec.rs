@@ -226,7 +226,7 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
     let w_in = WindowInput {
         thread,
         yield_strength: input.strength.yield_strength_min,
-        mean_bearing_diameter: input.bearing.mean_diameter(),
+        mean_bearing_diameter: input.bearing.friction_diameter(),
         thread_friction: input.thread_friction,
         bearing_friction: input.bearing_friction,
         scatter,
@@ -332,7 +332,7 @@ fn compute_unchecked(input: &SpecInput) -> Result<Spec, EngineError> {
         proof_load: Force::new::<newton>(input.strength.proof_stress.value * area),
         yield_load: Force::new::<newton>(input.strength.yield_strength_min.value * area),
         bearing: input.bearing.clone(),
-        mean_bearing_diameter: input.bearing.mean_diameter(),
+        mean_bearing_diameter: input.bearing.friction_diameter(),
         surface_pressure: checks::surface_pressure_value(&input.bearing, &window),
         clamped_material: input.clamped_material.clone(),
         thread_friction: th,

@@ -193,3 +193,61 @@ fn pan_and_button_heads_bear_on_their_head_diameter() {
     assert_eq!(e.field(), "head");
     assert_eq!("pan-head".parse::<HeadType>().unwrap(), HeadType::PanHead);
 }
+
+#[test]
+fn countersunk_heads_seat_on_a_cone() {
+    // ISO 10642 M8 d_k actual min 15.24 mm (recalled from memory), ISO 273
+    // medium hole 9 mm: D_Km = 12.12 mm; on the 90° cone the friction acts
+    // at D_Km/sin 45° = 17.140 mm (derived in bearing/countersunk.rs).
+    let m8 = parse_designation("M8").unwrap();
+    let cs = bearing_surface(
+        &m8,
+        HeadType::CountersunkSocket,
+        Washer::None,
+        HoleSeries::Medium,
+    )
+    .unwrap();
+    assert!((cs.outer_diameter.get::<millimeter>() - 15.24).abs() < 1e-9);
+    assert!((cs.mean_diameter().get::<millimeter>() - 12.12).abs() < 1e-9);
+    assert!((cs.friction_diameter().get::<millimeter>() - 12.12 * 2f64.sqrt()).abs() < 1e-9);
+    assert!(cs.conical_seat);
+    assert!(cs.source.contains("recalled from memory"), "{}", cs.source);
+    // A flat face keeps D_Km.
+    let hex =
+        bearing_surface(&m8, HeadType::HexagonHead, Washer::None, HoleSeries::Medium).unwrap();
+    assert_eq!(hex.friction_diameter(), hex.mean_diameter());
+    // ISO 2009 / ISO 7046-1 M5 d_k actual min 8.94 mm (recalled from memory).
+    let m5 = parse_designation("M5").unwrap();
+    let sl = bearing_surface(
+        &m5,
+        HeadType::CountersunkSlotted,
+        Washer::None,
+        HoleSeries::Medium,
+    )
+    .unwrap();
+    assert!((sl.outer_diameter.get::<millimeter>() - 8.94).abs() < 1e-9);
+    // Size ranges: ISO 10642 M3–M20, ISO 2009 M2–M10; inch refused; no
+    // washer under a countersunk head.
+    for (t, head) in [
+        ("M24", HeadType::CountersunkSocket),
+        ("M12", HeadType::CountersunkSlotted),
+        ("1/4-20", HeadType::CountersunkSocket),
+    ] {
+        let e = bearing_surface(
+            &parse_designation(t).unwrap(),
+            head,
+            Washer::None,
+            HoleSeries::Medium,
+        )
+        .unwrap_err();
+        assert_eq!(e.field(), "head", "{t}");
+    }
+    let e = bearing_surface(
+        &m8,
+        HeadType::CountersunkSocket,
+        Washer::Plain,
+        HoleSeries::Medium,
+    )
+    .unwrap_err();
+    assert_eq!(e.field(), "washer");
+}

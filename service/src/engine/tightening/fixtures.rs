@@ -66,6 +66,7 @@ pub fn bearing(outer_mm: f64, inner_mm: f64) -> BearingSurface {
         outer_diameter: mm(outer_mm),
         inner_diameter: mm(inner_mm),
         source: "test fixture".into(),
+        conical_seat: false,
     }
 }
 

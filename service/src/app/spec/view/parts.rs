@@ -110,7 +110,8 @@ pub struct GradeOut {
 pub struct BearingOut {
     pub outer_diameter: Quantity,
     pub inner_diameter: Quantity,
-    /// D_Km = (d_w + d_h)/2.
+    /// Diameter the bearing friction acts at: D_Km = (d_w + d_h)/2 on a flat
+    /// face; D_Km/sin 45° on a countersunk head's 90° conical seat.
     pub mean_diameter: Quantity,
     pub source: String,
     /// Surface pressure under the head or nut at preload max.
