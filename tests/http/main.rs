@@ -30,6 +30,7 @@ mod friction_tests;
 mod friction_tests_notes;
 mod friction_tests_store;
 mod hydrogen;
+mod impact;
 mod implausible;
 mod joint_cli;
 mod joint_materials;
