@@ -179,10 +179,20 @@ async fn release_fetch_supersede_and_withdraw(db: &TestDb) {
         "the change moves a computed spec"
     );
     let (st, etag3, again) = fetch(&app, &sp_path, None).await;
-    assert_eq!((st, etag3.as_str()), (StatusCode::OK, etag.as_str()));
-    assert_eq!(again, text, "never recomputed");
+    // Same bytes; the tag now also names the review mark the change set.
+    assert_eq!(st, StatusCode::OK);
+    assert!(
+        etag3.starts_with(etag.trim_end_matches('"')) && etag3.contains("-review"),
+        "{etag3} after {etag}"
+    );
+    // The stored answers are unchanged; the envelope now shows the review
+    // mark the catalogue change set.
+    let json = |t: &str| serde_json::from_str::<Value>(t).unwrap();
+    let (again, before) = (json(&again), json(&text));
+    assert_eq!(again["setpoints"], before["setpoints"], "never recomputed");
+    assert_eq!(again["review_due"], true);
     let (_, _, spec_again) = fetch(&app, &format!("/v1/joints/{ID}/spec"), None).await;
-    assert_eq!(spec_again, spec_text);
+    assert_eq!(json(&spec_again)["spec"], json(&spec_text)["spec"]);
 
     // Release 2 supersedes release 1; release 1 stays fetchable by number.
     let (st, two) = post(
@@ -291,7 +301,12 @@ async fn release_fetch_supersede_and_withdraw(db: &TestDb) {
         .collect();
     assert_eq!(
         mine,
-        ["joint.released", "joint.released", "joint.withdrawn"]
+        [
+            "joint.released",
+            "joint.review_due",
+            "joint.released",
+            "joint.withdrawn"
+        ]
     );
 }
 

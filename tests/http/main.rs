@@ -31,6 +31,7 @@ mod friction_tests_notes;
 mod friction_tests_store;
 mod heads_and_sizes;
 mod hydrogen;
+mod impact;
 mod implausible;
 mod joint_cli;
 mod joint_materials;

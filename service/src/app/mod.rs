@@ -41,6 +41,7 @@ pub mod context;
 pub mod delivery;
 pub mod error;
 pub mod friction_tests;
+pub mod impact;
 pub mod joints;
 pub mod quantity;
 pub mod reading;

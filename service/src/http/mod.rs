@@ -21,6 +21,7 @@ pub mod error;
 pub mod extract;
 pub mod friction_tests;
 pub mod health;
+pub mod impact;
 pub mod joints;
 pub mod metrics;
 pub mod openapi;
@@ -55,5 +56,6 @@ pub fn routes(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
     friction_tests::configure(cfg);
     joints::configure(cfg);
     releases::configure(cfg);
+    impact::configure(cfg);
     subscriptions::configure(cfg);
 }

@@ -91,7 +91,8 @@ const UPDATE: &str = "UPDATE joints SET title = $2, tags = $3, request = $4, set
 const DELETE_TAGS: &str = "DELETE FROM joint_tags WHERE joint_id = $1";
 const INSERT_TAG: &str = "INSERT INTO joint_tags (joint_id, tag) VALUES ($1, $2)";
 
-const INSERT_HISTORY: &str = "INSERT INTO joint_history (joint_id, action, version, before_json, \
+pub(super) const INSERT_HISTORY: &str =
+    "INSERT INTO joint_history (joint_id, action, version, before_json, \
      after_json, actor, reason, created_at) VALUES ($1, $2, $3, $4, $5, $6, $7, $8)";
 
 const HISTORY: &str = "SELECT seq, joint_id, action, version, before_json, after_json, actor, \

@@ -27,6 +27,7 @@ pub mod deliveries;
 pub mod error;
 pub mod friction_series;
 mod history;
+mod impact;
 pub mod joints;
 pub mod outbox;
 pub mod releases;

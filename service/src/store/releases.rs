@@ -25,7 +25,7 @@ pub struct ReleaseEventRecord {
 }
 
 #[derive(sqlx::FromRow)]
-struct ReleaseRow {
+pub(super) struct ReleaseRow {
     joint_id: String,
     number: i64,
     spec_hash: String,
@@ -74,15 +74,22 @@ impl TryFrom<ReleaseRow> for Release {
 }
 
 /// Every release column, its current status (that of its latest event)
-/// and who approved it.
-const SELECT: &str = "SELECT r.joint_id, r.number, r.spec_hash, r.catalogue_revision, \
+/// and who approved it, over every joint's releases.
+macro_rules! select_releases {
+    () => {
+        "SELECT r.joint_id, r.number, r.spec_hash, r.catalogue_revision, \
      r.service_version, r.method_version, r.requested_by, r.reason, r.accepted_checks, r.spec, \
      r.setpoints, r.created_at, \
      (SELECT e.status FROM joint_release_events e WHERE e.joint_id = r.joint_id \
       AND e.number = r.number ORDER BY e.seq DESC LIMIT 1) AS status, \
      (SELECT e.actor FROM joint_release_events e WHERE e.joint_id = r.joint_id \
       AND e.number = r.number AND e.event = 'approved' ORDER BY e.seq DESC LIMIT 1) AS approved_by \
-     FROM joint_releases r WHERE r.joint_id = $1";
+     FROM joint_releases r"
+    };
+}
+pub(super) use select_releases;
+
+const SELECT: &str = concat!(select_releases!(), " WHERE r.joint_id = $1");
 
 const NEXT_NUMBER: &str =
     "SELECT COALESCE(MAX(number), 0) + 1 FROM joint_releases WHERE joint_id = $1";

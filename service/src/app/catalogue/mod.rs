@@ -40,7 +40,24 @@ impl App {
 
     /// Applies a batch as one new revision (or nothing, every problem
     /// listed) and makes it the live one.
+    /// Right after, every joint whose active release would now compute
+    /// differently is marked for review (see [`crate::app::impact`]); a
+    /// failure there is logged, the revision stands.
     pub async fn apply(&self, set: &ChangeSet) -> Result<Applied, AppError> {
-        Ok(self.store().apply_live(self.live(), set).await?)
+        let applied = self.store().apply_live(self.live(), set).await?;
+        match self.mark_reviews(&applied.snapshot).await {
+            Ok(marked) if !marked.is_empty() => {
+                tracing::info!(
+                    revision = applied.snapshot.revision,
+                    joints = marked.len(),
+                    "joints marked for review"
+                );
+            }
+            Ok(_) => {}
+            Err(e) => {
+                tracing::error!(revision = applied.snapshot.revision, error = %e, "review marks not written");
+            }
+        }
+        Ok(applied)
     }
 }

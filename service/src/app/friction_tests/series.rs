@@ -182,6 +182,18 @@ impl App {
         Ok(self.proposed(id, basis, units).await?.response)
     }
 
+    /// The entry and the changed entry stored series `id` proposes on
+    /// `basis` (`observed` or `three_sigma`), for the change impact.
+    pub async fn proposed_entry(
+        &self,
+        id: i64,
+        basis: &str,
+    ) -> Result<(i64, crate::catalogue::EntryInput), AppError> {
+        let basis = proposal::basis(Some(basis))?;
+        let proposed = self.proposed(id, basis, Units::Si).await?;
+        Ok((proposed.response.entry_id, proposed.entry))
+    }
+
     /// Checks an apply of series `id` (a reason, a basis; every problem
     /// listed) and builds its proposal in SI units.
     pub async fn prepare_apply(

@@ -1,0 +1,136 @@
+//! The figures a change is judged by — lower, target and upper torque in
+//! the tool's unit, preload minimum and maximum, the angle window when the
+//! joint is tightened by angle — and the check codes, read the same way
+//! from a stored release's answers and from answers computed now, so that
+//! "before" and "after" compare like with like.
+
+use serde::Serialize;
+use serde_json::Value;
+use utoipa::ToSchema;
+
+use crate::app::quantity::Quantity;
+
+/// One joint's figures.
+#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
+pub struct ImpactFigures {
+    /// Lower torque limit, as the tool holds it.
+    pub lower: Quantity,
+    /// Target torque (for a monitoring band, its middle).
+    pub target: Quantity,
+    /// Upper torque limit, as the tool holds it.
+    pub upper: Quantity,
+    /// Minimum preload of the window.
+    pub preload_min: Quantity,
+    /// Maximum preload of the window.
+    pub preload_max: Quantity,
+    /// Angle window from snug (torque-angle only).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub angle_min: Option<Quantity>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub angle_max: Option<Quantity>,
+}
+
+fn quantity(v: &Value, path: &[&str]) -> Option<Quantity> {
+    let mut at = v;
+    for p in path {
+        at = at.get(p)?;
+    }
+    serde_json::from_value(at.clone()).ok()
+}
+
+/// The figures and check codes of a setpoint answer and a spec answer
+/// (as JSON); `None` when either lacks a figure.
+pub fn read(setpoints: &Value, spec: &Value) -> Option<(ImpactFigures, Vec<String>)> {
+    let figures = ImpactFigures {
+        lower: quantity(setpoints, &["lower"])?,
+        target: quantity(setpoints, &["target"])?,
+        upper: quantity(setpoints, &["upper"])?,
+        preload_min: quantity(spec, &["preload", "min"])?,
+        preload_max: quantity(spec, &["preload", "max"])?,
+        angle_min: quantity(setpoints, &["angle", "min"]),
+        angle_max: quantity(setpoints, &["angle", "max"]),
+    };
+    let codes = setpoints
+        .get("checks")
+        .and_then(Value::as_array)
+        .map(|cs| {
+            cs.iter()
+                .filter_map(|c| c.get("code").and_then(Value::as_str).map(str::to_owned))
+                .collect()
+        })
+        .unwrap_or_default();
+    Some((figures, codes))
+}
+
+fn pairs<'a>(a: &'a ImpactFigures, b: &'a ImpactFigures) -> Vec<(&'a Quantity, &'a Quantity)> {
+    let mut out = vec![
+        (&a.lower, &b.lower),
+        (&a.target, &b.target),
+        (&a.upper, &b.upper),
+        (&a.preload_min, &b.preload_min),
+        (&a.preload_max, &b.preload_max),
+    ];
+    if let (Some(x), Some(y)) = (&a.angle_min, &b.angle_min) {
+        out.push((x, y));
+    }
+    if let (Some(x), Some(y)) = (&a.angle_max, &b.angle_max) {
+        out.push((x, y));
+    }
+    out
+}
+
+/// The largest relative change of any figure, in percent of its value
+/// before (two decimals); `None` when a figure cannot be compared (its
+/// unit changed, an angle window came or went, or a value before was
+/// zero while it moved).
+pub fn change_percent(before: &ImpactFigures, after: &ImpactFigures) -> Option<f64> {
+    if before.angle_min.is_some() != after.angle_min.is_some() {
+        return None;
+    }
+    let mut largest: f64 = 0.0;
+    for (b, a) in pairs(before, after) {
+        if b.unit != a.unit {
+            return None;
+        }
+        if a.value == b.value {
+            continue;
+        }
+        if b.value == 0.0 {
+            return None;
+        }
+        largest = largest.max(((a.value - b.value) / b.value).abs() * 100.0);
+    }
+    let rounded = (largest * 100.0).round() / 100.0;
+    rounded.is_finite().then_some(rounded)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use serde_json::json;
+
+    fn answers(target: f64) -> (Value, Value) {
+        let q = |v: f64, u: &str| json!({"value": v, "unit": u});
+        (
+            json!({"lower": q(target * 0.9, "N·m"), "target": q(target, "N·m"),
+                   "upper": q(target * 1.1, "N·m"),
+                   "checks": [{"code": "a", "severity": "warning", "message": "m"}]}),
+            json!({"preload": {"min": q(10.0, "kN"), "max": q(20.0, "kN")}}),
+        )
+    }
+
+    #[test]
+    fn the_largest_relative_change_is_reported() {
+        let (s, p) = answers(40.0);
+        let (before, codes) = read(&s, &p).unwrap();
+        assert_eq!(codes, ["a"]);
+        assert_eq!(change_percent(&before, &before), Some(0.0));
+        let (s2, p2) = answers(44.0);
+        let (after, _) = read(&s2, &p2).unwrap();
+        assert_eq!(change_percent(&before, &after), Some(10.0));
+        let mut other = after.clone();
+        other.target.unit = "lbf·ft".into();
+        assert_eq!(change_percent(&before, &other), None);
+        assert!(read(&json!({}), &p).is_none());
+    }
+}

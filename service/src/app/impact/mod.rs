@@ -1,0 +1,337 @@
+//! Change impact over the registered joints, and the review marks.
+//!
+//! [`App::impact`] takes a proposed friction-entry change (create, update,
+//! retire) or a friction test's proposal, applies it to a copy of the
+//! current catalogue in memory (nothing is written) and, for every joint
+//! with an active release, compares the figures of the stored release
+//! (before) with those computed against the changed catalogue (after).
+//! Joints are read in pages of [`PAGE`] ids, at most [`PAGES_MAX`] pages.
+//!
+//! [`App::mark_reviews`] runs right after a catalogue revision is written
+//! (every path goes through [`App::apply`]): every joint whose active release
+//! would now compute differently is marked `review_due` with that revision,
+//! with a `joint.review_due` event, in one transaction per page. It runs
+//! after the revision's own transaction because computing specs belongs to
+//! the application layer, not to the store's transaction; a failure is
+//! logged, and the next revision marks what is still different.
+
+pub mod figures;
+pub mod review;
+
+use chrono::Utc;
+use serde::Serialize;
+use serde_json::{json, Value};
+use utoipa::ToSchema;
+
+use super::spec::setpoints::setpoints;
+use super::spec::tool::{torque_unit, ToolAsk};
+use super::spec::view::spec_response;
+use super::spec::{compute_one, SpecRequest};
+use super::{App, AppError};
+use crate::catalogue::{self, Change, ChangeItem, ChangeSet, EntryInput, Snapshot};
+use crate::engine::checks::CODES;
+use crate::registry::event::JOINT_REVIEW_DUE;
+use crate::registry::{Joint, JointId, OutboxEvent, Page, Release, ReleaseStatus};
+use crate::store::joints::{JointFilter, ReviewMark};
+use crate::store::outbox::new_event_id;
+use figures::{change_percent, read, ImpactFigures};
+
+/// Joints read per page.
+pub const PAGE: u32 = 500;
+/// Pages read at most (200 000 joints); beyond, the answer says `truncated`.
+pub const PAGES_MAX: usize = 400;
+
+/// A proposed catalogue change.
+#[derive(Debug, Clone, PartialEq)]
+pub enum ProposedChange {
+    Create(EntryInput),
+    Update {
+        entry_id: i64,
+        entry: EntryInput,
+    },
+    Retire {
+        entry_id: i64,
+    },
+    /// Friction test `id`'s proposal on `basis`.
+    FrictionTest {
+        id: i64,
+        basis: String,
+    },
+}
+
+/// One joint's before and after.
+#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
+pub struct JointImpact {
+    /// The joint id.
+    pub id: String,
+    /// The active release compared.
+    pub release: i64,
+    /// From the stored release.
+    pub before: Option<ImpactFigures>,
+    /// Computed against the changed catalogue; absent when the joint no
+    /// longer computes (see `problem`).
+    pub after: Option<ImpactFigures>,
+    /// Largest relative change of any figure, percent of its value before;
+    /// absent when not comparable (unit changed, no value after).
+    pub change_percent: Option<f64>,
+    /// Whether anything differs (a figure or a check).
+    pub changed: bool,
+    pub checks_added: Vec<String>,
+    pub checks_removed: Vec<String>,
+    /// Why the joint no longer computes after the change.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub problem: Option<String>,
+}
+
+/// Counts over the joints.
+#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
+pub struct ImpactSummary {
+    /// Joints with an active release that were compared.
+    pub compared: usize,
+    /// Joints whose figures or checks differ, or that no longer compute.
+    pub affected: usize,
+    pub largest_change_percent: f64,
+    /// True when the scan stopped at its bound before the last joint.
+    pub truncated: bool,
+}
+
+/// The impact of a change over the registered joints.
+#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
+pub struct ImpactResponse {
+    /// The catalogue revision the change was applied to (in memory).
+    pub catalogue_revision: i64,
+    pub joints: Vec<JointImpact>,
+    pub summary: ImpactSummary,
+    /// Values are estimates to be confirmed by joint tests.
+    pub caution: &'static str,
+}
+
+pub const CAUTION: &str = "Estimates from the catalogue's friction data, to be confirmed by \
+     joint tests; a safety-critical joint's new release needs sign-off by the responsible \
+     engineer; drawings, local codes and licensed practice take precedence.";
+
+/// The figures and check codes of joint `joint` computed against `snap`
+/// (every check accepted: the impact reports checks, it does not refuse).
+pub fn compute(joint: &Joint, snap: &Snapshot) -> Result<(ImpactFigures, Vec<String>), String> {
+    let mut req: SpecRequest =
+        serde_json::from_value(joint.request.clone()).map_err(|e| e.to_string())?;
+    req.catalogue_revision = None;
+    let describe = |e: AppError| {
+        e.problems()
+            .iter()
+            .map(|p| format!("{}: {}", p.field, p.reason))
+            .collect::<Vec<_>>()
+            .join("; ")
+    };
+    let (resolved, spec) = compute_one(&req, snap).map_err(describe)?;
+    let unit = torque_unit(joint.setpoints.torque_unit.as_deref()).map_err(|p| p.reason)?;
+    let tool = ToolAsk {
+        unit,
+        resolution: joint.setpoints.resolution,
+        angle_resolution: joint.setpoints.angle_resolution,
+        accept: CODES.to_vec(),
+    };
+    let answer = setpoints(&spec, &resolved, &tool, false).map_err(describe)?;
+    let s = serde_json::to_value(&answer).map_err(|e| e.to_string())?;
+    let p =
+        serde_json::to_value(spec_response(&spec, &resolved, false)).map_err(|e| e.to_string())?;
+    read(&s, &p).ok_or_else(|| "the computed answer lacks a figure".into())
+}
+
+/// Joint `joint`'s release compared with the joint computed against `snap`.
+pub fn compare(joint: &Joint, release: &Release, snap: &Snapshot) -> JointImpact {
+    let parse = |t: &str| serde_json::from_str::<Value>(t).unwrap_or(Value::Null);
+    let before = read(&parse(&release.setpoints), &parse(&release.spec));
+    let after = compute(joint, snap);
+    let (before_codes, before) = match before {
+        Some((f, c)) => (c, Some(f)),
+        None => (Vec::new(), None),
+    };
+    let (after_codes, after, problem) = match after {
+        Ok((f, c)) => (c, Some(f), None),
+        Err(e) => (Vec::new(), None, Some(e)),
+    };
+    let added: Vec<String> = after_codes
+        .iter()
+        .filter(|c| !before_codes.contains(c))
+        .cloned()
+        .collect();
+    let removed: Vec<String> = before_codes
+        .iter()
+        .filter(|c| !after_codes.contains(c))
+        .cloned()
+        .collect();
+    let pct = match (&before, &after) {
+        (Some(b), Some(a)) => change_percent(b, a),
+        _ => None,
+    };
+    let changed = before != after || !added.is_empty() || !removed.is_empty();
+    JointImpact {
+        id: joint.id.to_string(),
+        release: release.number,
+        before,
+        after,
+        change_percent: pct,
+        changed,
+        checks_added: added,
+        checks_removed: removed,
+        problem,
+    }
+}
+
+impl App {
+    /// The catalogue with `change` applied in memory (problems as for the
+    /// change itself: 422 naming the field, 404 for an unknown entry).
+    async fn changed_catalogue(&self, change: &ProposedChange) -> Result<Snapshot, AppError> {
+        let current = self.current();
+        let change = match change {
+            ProposedChange::Create(e) => Change::CreateEntry(e.clone()),
+            ProposedChange::Update { entry_id, entry } => Change::UpdateEntry {
+                id: *entry_id,
+                expected_revision: None,
+                entry: entry.clone(),
+            },
+            ProposedChange::Retire { entry_id } => Change::RetireEntry {
+                id: *entry_id,
+                expected_revision: None,
+            },
+            ProposedChange::FrictionTest { id, basis } => {
+                let (entry_id, entry) = self.proposed_entry(*id, basis).await?;
+                Change::UpdateEntry {
+                    id: entry_id,
+                    expected_revision: None,
+                    entry,
+                }
+            }
+        };
+        let set = ChangeSet {
+            actor: "impact".into(),
+            reason: "impact of a proposed change".into(),
+            evidence: None,
+            items: vec![ChangeItem {
+                at: "entry.".into(),
+                change,
+            }],
+        };
+        Ok(catalogue::apply(&current, &set)?.snapshot)
+    }
+
+    /// Every joint with an active release, paged; `each` sees one page.
+    async fn scan_released(
+        &self,
+        mut each: impl FnMut(Vec<(Joint, Release)>),
+    ) -> Result<bool, AppError> {
+        let filter = JointFilter {
+            status: Some(ReleaseStatus::Released),
+            ..JointFilter::default()
+        };
+        let mut after: Option<JointId> = None;
+        for _ in 0..PAGES_MAX {
+            let page = Page {
+                after: after.clone(),
+                limit: PAGE,
+            };
+            let joints = self.store().joints(&filter, &page).await?;
+            let Some(last) = joints.last().map(|j| j.id.clone()) else {
+                return Ok(false);
+            };
+            let releases = self
+                .store()
+                .active_releases_between(after.as_ref(), &last)
+                .await?;
+            let full = joints.len() == PAGE as usize;
+            let mut rs = releases.into_iter().peekable();
+            let mut pairs = Vec::with_capacity(joints.len());
+            for j in joints {
+                while rs
+                    .peek()
+                    .is_some_and(|r| r.joint_id.as_str() < j.id.as_str())
+                {
+                    rs.next();
+                }
+                if rs.peek().is_some_and(|r| r.joint_id == j.id) {
+                    pairs.push((j, rs.next().expect("peeked")));
+                }
+            }
+            each(pairs);
+            if !full {
+                return Ok(false);
+            }
+            after = Some(last);
+        }
+        Ok(true)
+    }
+
+    /// The impact of `change` over every joint with an active release; see
+    /// the module. Writes nothing.
+    pub async fn impact(&self, change: &ProposedChange) -> Result<ImpactResponse, AppError> {
+        let snap = self.changed_catalogue(change).await?;
+        let mut joints = Vec::new();
+        let truncated = self
+            .scan_released(|page| {
+                joints.extend(page.iter().map(|(j, r)| compare(j, r, &snap)));
+            })
+            .await?;
+        let affected = joints.iter().filter(|j| j.changed).count();
+        let largest = joints
+            .iter()
+            .filter_map(|j| j.change_percent)
+            .fold(0.0, f64::max);
+        Ok(ImpactResponse {
+            catalogue_revision: self.current().revision,
+            summary: ImpactSummary {
+                compared: joints.len(),
+                affected,
+                largest_change_percent: largest,
+                truncated,
+            },
+            joints,
+            caution: CAUTION,
+        })
+    }
+
+    /// Marks for review every joint whose active release would compute
+    /// differently against catalogue `snap` (see the module). Returns the
+    /// joints newly marked.
+    pub async fn mark_reviews(&self, snap: &Snapshot) -> Result<Vec<JointId>, AppError> {
+        let mut marks = Vec::new();
+        let now = Utc::now();
+        self.scan_released(|page| {
+            for (j, r) in page.iter().filter(|(j, _)| j.review_due.is_none()) {
+                let c = compare(j, r, snap);
+                if !c.changed {
+                    continue;
+                }
+                let event = OutboxEvent::cloud_event(
+                    new_event_id(),
+                    JOINT_REVIEW_DUE,
+                    j.id.as_str(),
+                    now,
+                    json!({
+                        "joint_id": j.id.as_str(),
+                        "release": r.number,
+                        "catalogue_revision": snap.revision,
+                        "change_percent": c.change_percent,
+                        "checks_added": c.checks_added,
+                        "checks_removed": c.checks_removed,
+                        "problem": c.problem,
+                    }),
+                );
+                marks.push(ReviewMark {
+                    joint: j.id.clone(),
+                    event,
+                });
+            }
+        })
+        .await?;
+        let mut marked = Vec::new();
+        for chunk in marks.chunks(PAGE as usize) {
+            marked.extend(
+                self.store()
+                    .mark_review_due(snap.revision, now, chunk)
+                    .await?,
+            );
+        }
+        Ok(marked)
+    }
+}
