@@ -31,6 +31,7 @@ mod friction_tests_notes;
 mod friction_tests_store;
 mod hydrogen;
 mod implausible;
+mod joint_charts;
 mod joint_cli;
 mod joint_materials;
 mod joint_model;
