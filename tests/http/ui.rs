@@ -114,6 +114,23 @@ async fn pages_answer_html_with_their_key_texts(db: &TestDb) {
         "{page}"
     );
     assert!(page.contains("rel=\"bookmark\""), "{page}");
+    // No working state: no joint diagram; with one, the diagram beside the window.
+    assert!(!page.contains("id=\"joint-diagram\""), "{page}");
+    let working = html(
+        app.get(
+            "/ui/spec?thread=M10&property_class=8.8&thread_friction=0.12&bearing_friction=0.12\
+             &clamp_length=20mm&clamped_material=steel-s355&joint_outer_diameter=25mm&loads_axial=8kN",
+        )
+        .await,
+        StatusCode::OK,
+    )
+    .await;
+    assert!(
+        working.contains(
+            "src=\"/v1/tightening-specs/joint-diagram.svg?thread=M10&amp;property_class=8.8"
+        ) && working.contains("id=\"window-chart\""),
+        "{working}"
+    );
 
     // Bad input: the problem's fields and reasons in the page, not JSON.
     let bad = html(
