@@ -51,7 +51,7 @@ async fn fetch(app: &Instance, path: &str) -> (StatusCode, String, String, Strin
 
 /// A chart that must be there: 200, SVG, an ETag, the same bytes twice,
 /// 304 on its ETag.
-async fn chart(app: &Instance, path: &str) -> (String, String) {
+pub(crate) async fn chart(app: &Instance, path: &str) -> (String, String) {
     let (status, ct, tag, body) = fetch(app, path).await;
     assert_eq!(status, StatusCode::OK, "{path}: {body}");
     assert_eq!(ct, "image/svg+xml");
@@ -73,7 +73,7 @@ async fn chart(app: &Instance, path: &str) -> (String, String) {
     (body, tag)
 }
 
-fn attr(n: roxmltree::Node, name: &str) -> f64 {
+pub(crate) fn attr(n: roxmltree::Node, name: &str) -> f64 {
     n.attribute(name)
         .unwrap_or_else(|| panic!("no {name} on {n:?}"))
         .parse()
@@ -81,7 +81,7 @@ fn attr(n: roxmltree::Node, name: &str) -> f64 {
 }
 
 /// The plot's data-to-pixel frame, to read pixels back as values.
-struct Frame {
+pub(crate) struct Frame {
     left: f64,
     top: f64,
     width: f64,
@@ -91,7 +91,7 @@ struct Frame {
 }
 
 impl Frame {
-    fn of(plot: roxmltree::Node) -> Frame {
+    pub(crate) fn of(plot: roxmltree::Node) -> Frame {
         Frame {
             left: attr(plot, "data-left"),
             top: attr(plot, "data-top"),
@@ -101,10 +101,10 @@ impl Frame {
             y: (attr(plot, "data-y-min"), attr(plot, "data-y-max")),
         }
     }
-    fn x(&self, px: f64) -> f64 {
+    pub(crate) fn x(&self, px: f64) -> f64 {
         self.x.0 + (px - self.left) / self.width * (self.x.1 - self.x.0)
     }
-    fn y(&self, px: f64) -> f64 {
+    pub(crate) fn y(&self, px: f64) -> f64 {
         self.y.0 + (self.top + self.height - px) / self.height * (self.y.1 - self.y.0)
     }
     /// A hundredth of a pixel (the SVG's rounding of a position and a
@@ -117,14 +117,14 @@ impl Frame {
     }
 }
 
-fn mark<'a>(doc: &'a roxmltree::Document, role: &str) -> roxmltree::Node<'a, 'a> {
+pub(crate) fn mark<'a>(doc: &'a roxmltree::Document, role: &str) -> roxmltree::Node<'a, 'a> {
     doc.descendants()
         .find(|n| n.attribute("data-role") == Some(role))
         .unwrap_or_else(|| panic!("no mark {role}"))
 }
 
 /// Title, description, axis titles and a label on every mark.
-fn well_formed<'a>(svg: &'a str, title: &str, axes: &[&str]) -> roxmltree::Document<'a> {
+pub(crate) fn well_formed<'a>(svg: &'a str, title: &str, axes: &[&str]) -> roxmltree::Document<'a> {
     let doc = roxmltree::Document::parse(svg).expect("well-formed XML");
     let root = doc.root_element();
     assert_eq!(root.tag_name().name(), "svg");
@@ -154,11 +154,11 @@ fn well_formed<'a>(svg: &'a str, title: &str, axes: &[&str]) -> roxmltree::Docum
     doc
 }
 
-fn value(v: &Value) -> f64 {
+pub(crate) fn value(v: &Value) -> f64 {
     v["value"].as_f64().unwrap()
 }
 
-fn near(a: f64, b: f64, tol: f64) -> bool {
+pub(crate) fn near(a: f64, b: f64, tol: f64) -> bool {
     (a - b).abs() <= tol + 1e-9 * b.abs()
 }
 

@@ -33,6 +33,7 @@ mod heads_and_sizes;
 mod hydrogen;
 mod impact;
 mod implausible;
+mod joint_charts;
 mod joint_cli;
 mod joint_materials;
 mod joint_model;

@@ -114,6 +114,23 @@ async fn pages_answer_html_with_their_key_texts(db: &TestDb) {
         "{page}"
     );
     assert!(page.contains("rel=\"bookmark\""), "{page}");
+    // No working state: no joint diagram; with one, the diagram beside the window.
+    assert!(!page.contains("id=\"joint-diagram\""), "{page}");
+    let working = html(
+        app.get(
+            "/ui/spec?thread=M10&property_class=8.8&thread_friction=0.12&bearing_friction=0.12\
+             &clamp_length=20mm&clamped_material=steel-s355&joint_outer_diameter=25mm&loads_axial=8kN",
+        )
+        .await,
+        StatusCode::OK,
+    )
+    .await;
+    assert!(
+        working.contains(
+            "src=\"/v1/tightening-specs/joint-diagram.svg?thread=M10&amp;property_class=8.8"
+        ) && working.contains("id=\"window-chart\""),
+        "{working}"
+    );
 
     // Bad input: the problem's fields and reasons in the page, not JSON.
     let bad = html(
@@ -188,6 +205,37 @@ async fn pages_answer_html_with_their_key_texts(db: &TestDb) {
         no_joint.contains("<code class=\"field-name\">id</code>"),
         "{no_joint}"
     );
+    // One joint with a release: the releases table, its fetch links and chart.
+    let planner = token(db, "hollowmere-planning", Role::Editor).await;
+    let joint = serde_json::json!({
+        "id": "HW-S40-BR-007", "title": "Bracket to frame (demo)", "tags": ["hollowmere-demo"],
+        "request": {"thread": "M10", "property_class": "8.8",
+                    "thread_friction": 0.12, "bearing_friction": 0.12},
+        "setpoints": {"torque_unit": "N·m", "resolution": 0.1, "angle_resolution": 1.0},
+    });
+    let r = app.post_json(Some(&planner), "/v1/joints", &joint).await;
+    assert_eq!(r.status(), StatusCode::CREATED);
+    let unreleased = html(app.get("/ui/joints/HW-S40-BR-007").await, StatusCode::OK).await;
+    assert!(
+        unreleased.contains("Not released yet") && !unreleased.contains("id=\"release-chart\""),
+        "{unreleased}"
+    );
+    let why = serde_json::json!({"reason": "pilot build (demo)"});
+    let r = app
+        .post_json(Some(&planner), "/v1/joints/HW-S40-BR-007/releases", &why)
+        .await;
+    assert_eq!(r.status(), StatusCode::CREATED);
+    let released = html(app.get("/ui/joints/HW-S40-BR-007").await, StatusCode::OK).await;
+    for text in [
+        "id=\"releases\"",
+        "hollowmere-planning",
+        "pilot build (demo)",
+        "href=\"/v1/joints/HW-S40-BR-007/spec?release=1\"",
+        "href=\"/v1/joints/HW-S40-BR-007/setpoints?release=1\"",
+        "src=\"/v1/joints/HW-S40-BR-007/chart.svg\"",
+    ] {
+        assert!(released.contains(text), "{text} not in {released}");
+    }
     let upload = html(app.get("/ui/friction-tests").await, StatusCode::OK).await;
     assert!(
         upload.contains("name=\"csrf\"") && upload.contains("textarea"),

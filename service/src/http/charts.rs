@@ -10,7 +10,7 @@ use actix_web::{get, web, HttpRequest, HttpResponse};
 use serde::Deserialize;
 use utoipa::IntoParams;
 
-use crate::app::charts::{spec_angle_chart, spec_window_chart, SpecChart};
+use crate::app::charts::{spec_angle_chart, spec_joint_diagram, spec_window_chart, SpecChart};
 use crate::app::quantity::Units;
 use crate::app::spec::SpecQuery;
 use crate::app::AppError;
@@ -18,6 +18,7 @@ use crate::http::auth::Reader;
 use crate::http::catalogue::wire::NoQuery;
 use crate::http::error::ApiError;
 use crate::http::extract::{parse_query, Query};
+use crate::http::releases::ReleaseQuery;
 use crate::http::specs::caching::{cache_control, etag, not_modified, CACHE_UNPINNED};
 use crate::http::specs::handlers::snapshot_for;
 use crate::http::state::AppState;
@@ -31,6 +32,8 @@ const TAG: &str = "charts";
 pub fn configure(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
     cfg.service(window_chart)
         .service(angle_chart)
+        .service(joint_diagram)
+        .service(release_window_chart)
         .service(friction_test_chart)
         .service(entry_history_chart);
 }
@@ -147,6 +150,65 @@ pub async fn angle_chart(
     let (req, snapshot) = spec_input(&http, &state).await?;
     let chart = spec_angle_chart(&req, &snapshot)?;
     Ok(spec_picture(&http, "angle.svg", chart))
+}
+
+/// The joint diagram of a spec in its working state: force against
+/// deformation, the bolt line (slope 1/δ_S) and the clamped-part line
+/// (slope 1/δ_P) with F_M,min, F_Z, F_A, F_SA and F_KR,min as the spec's
+/// `joint` block states them. Same parameters as
+/// `GET /v1/tightening-specs`; a spec without a joint model under an axial
+/// load is 422 naming what it lacks (`clamp_length`, `loads_axial`).
+#[utoipa::path(
+    tag = TAG,
+    params(SpecQuery),
+    responses(
+        (status = 200, description = "The chart (SVG); ETag and Cache-Control set", content_type = "image/svg+xml", body = String),
+        (status = 304, description = "Not modified (If-None-Match matched)"),
+        (status = 400, description = "Malformed input or unknown parameter"),
+        (status = 404, description = "Unknown thread, grade, finish, lubricant, method or revision, with suggestions"),
+        (status = 422, description = "Invalid engineering input, or a spec without a joint model under an axial load; every problem listed"),
+    )
+)]
+#[get("/v1/tightening-specs/joint-diagram.svg")]
+pub async fn joint_diagram(
+    _reader: Reader,
+    http: HttpRequest,
+    state: web::Data<AppState>,
+) -> Result<HttpResponse, ApiError> {
+    let (req, snapshot) = spec_input(&http, &state).await?;
+    let chart = spec_joint_diagram(&req, &snapshot)?;
+    Ok(spec_picture(&http, "joint-diagram.svg", chart))
+}
+
+/// The tightening window of a joint's active release (or release N) as a
+/// picture: the same chart as `GET /v1/tightening-specs/chart.svg`, drawn
+/// from the joint's request at the release's catalogue revision with the
+/// very values the release stored (`GET /v1/joints/{id}/spec`). The ETag
+/// is made of the release hash, number, status and review mark.
+#[utoipa::path(
+    tag = TAG,
+    params(("id" = String, Path, description = "Joint id"), ReleaseQuery),
+    responses(
+        (status = 200, description = "The chart (SVG); ETag and Cache-Control set", content_type = "image/svg+xml", body = String),
+        (status = 304, description = "Not modified (If-None-Match matched)"),
+        (status = 404, description = "No such joint (with suggestions) or release"),
+        (status = 409, description = "The joint has no active release, or the release cannot be redrawn"),
+        (status = 422, description = "A release number below 1"),
+    )
+)]
+#[get("/v1/joints/{id}/chart.svg")]
+pub async fn release_window_chart(
+    _reader: Reader,
+    http: HttpRequest,
+    state: web::Data<AppState>,
+    id: web::Path<String>,
+    q: Query<ReleaseQuery>,
+) -> Result<HttpResponse, ApiError> {
+    let chart = state
+        .app
+        .release_window_chart(&id, q.into_inner().release)
+        .await?;
+    Ok(picture(&http, chart.etag, "no-cache", chart.svg))
 }
 
 /// A stored friction test series as a picture: each specimen's torque

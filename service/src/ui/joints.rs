@@ -12,6 +12,7 @@ use super::problem::Problem;
 use super::session::{problem_page, Visit};
 use super::UiState;
 use crate::app::joints::{JointQuery, JointView};
+use crate::app::releases::view::ReleaseView;
 use crate::app::tokens::Role;
 
 /// The list's filters as the page's GET form sends them.
@@ -131,6 +132,11 @@ pub async fn one(
         Ok(j) => JointView::from(&j),
         Err(e) => return problem_page(&visit, Nav::Joints, &title, &Problem::from_app(&e)),
     };
+    let releases: Vec<ReleaseView> = match state.app.releases(&joint.id).await {
+        Ok(rs) => rs.iter().map(|r| ReleaseView::of(r, None)).collect(),
+        Err(e) => return problem_page(&visit, Nav::Joints, &title, &Problem::from_app(&e)),
+    };
+    let active = releases.iter().any(|r| r.status == "released");
     let pretty = |v: &serde_json::Value| serde_json::to_string_pretty(v).unwrap_or_default();
     let body = html! {
         h1 { "Joint " (joint.id) }
@@ -142,6 +148,35 @@ pub async fn one(
             tbody {
                 tr { th scope="row" { "Tags" } td { (joint.tags.join(", ")) } }
                 tr { th scope="row" { "Version" } td { (joint.version) } }
+            }
+        }
+        h2 { "Releases" }
+        @if releases.is_empty() { p { "Not released yet: the line has nothing to fetch for this joint." } }
+        @else {
+            table.list id="releases" {
+                thead { tr { th { "Release" } th { "Status" } th { "Requested by" } th { "Approved by" } th { "When" } th { "Reason" } th { "Catalogue revision" } th { "Fetch" } } }
+                tbody {
+                    @for r in &releases {
+                        @let q = format!("?release={}", r.release);
+                        tr {
+                            td.num { (r.release) } td { (r.status) } td { (r.requested_by) }
+                            td { (r.approved_by.as_deref().unwrap_or("")) } td { (r.created_at) } td { (r.reason) }
+                            td.num { (r.catalogue_revision) }
+                            td {
+                                a href={ "/v1/joints/" (joint.id) "/spec" (q) } { "spec" } " · "
+                                a href={ "/v1/joints/" (joint.id) "/setpoints" (q) } { "setpoints" } " · "
+                                a href={ "/v1/joints/" (joint.id) "/chart.svg" (q) } { "chart" }
+                            }
+                        }
+                    }
+                }
+            }
+        }
+        @if active {
+            figure.chart {
+                img id="release-chart" src={ "/v1/joints/" (joint.id) "/chart.svg" }
+                    alt="Tightening window of the active release: clamp force against torque" width="640" height="420";
+                figcaption { "Tightening window of the active release (the values the line fetches)." }
             }
         }
         h2 { "Spec request" }

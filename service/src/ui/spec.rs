@@ -329,6 +329,13 @@ pub async fn calculator(req: HttpRequest, state: web::Data<UiState>) -> HttpResp
                             alt="Clamp force against torque: friction lines, the torque window and the preload limits" width="640" height="420";
                         figcaption { "Tightening window: clamp force against torque." }
                     }
+                    @if a.joint.as_ref().is_some_and(|j| j.residual_clamp_load_min.is_some()) {
+                        figure.chart {
+                            img id="joint-diagram" src={ "/v1/tightening-specs/joint-diagram.svg?" (encoded) }
+                                alt="Joint diagram: force against deformation of bolt and clamped parts with F_M, F_Z, F_A, F_SA and F_KR,min" width="640" height="420";
+                            figcaption { "Joint diagram (working state): force against deformation." }
+                        }
+                    }
                 }
                 (form(&pairs, None))
             };

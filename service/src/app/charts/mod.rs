@@ -11,14 +11,16 @@
 //!   torque against clamp force and the spread of μ_th, μ_b (and μ_tot)
 //!   with mean ± 3σ.
 //! - [`history`] — a catalogue friction entry's ranges over its revisions.
-//!
-//! A chart for a joint's release or its force–deformation diagram is one
-//! more builder beside these: a function from the frozen answer to a
-//! [`chart::Figure`](crate::chart::Figure).
+//! - [`joint_diagram`] — the joint's force–deformation diagram in the
+//!   working state (F_M, F_Z, F_A, F_SA, F_KR,min).
+//! - [`released`] — the tightening window of a joint's release, redrawn
+//!   from the joint's request at the release's catalogue revision.
 
 pub mod angle;
 pub mod friction_test;
 pub mod history;
+pub mod joint_diagram;
+pub mod released;
 pub mod window;
 
 use uom::si::f64::{Force, Torque};
@@ -98,6 +100,14 @@ pub fn spec_window_chart(req: &SpecRequest, snapshot: &Snapshot) -> Result<SpecC
 pub fn spec_angle_chart(req: &SpecRequest, snapshot: &Snapshot) -> Result<SpecChart, AppError> {
     let (resolved, spec) = compute_one(req, snapshot)?;
     let figure = angle::figure(&spec, &resolved)?;
+    Ok(served(figure, resolved))
+}
+
+/// The joint diagram (working state) of a spec request; a spec without a
+/// joint model under an axial load is refused naming what it lacks.
+pub fn spec_joint_diagram(req: &SpecRequest, snapshot: &Snapshot) -> Result<SpecChart, AppError> {
+    let (resolved, spec) = compute_one(req, snapshot)?;
+    let figure = joint_diagram::figure(&spec, &resolved)?;
     Ok(served(figure, resolved))
 }
 
