@@ -42,6 +42,7 @@ pub mod delivery;
 pub mod error;
 pub mod friction_tests;
 pub mod joints;
+pub mod joints_bulk;
 pub mod quantity;
 pub mod reading;
 pub mod reference;

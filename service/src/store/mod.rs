@@ -28,6 +28,7 @@ pub mod error;
 pub mod friction_series;
 mod history;
 pub mod joints;
+pub mod joints_bulk;
 pub mod outbox;
 pub mod releases;
 mod snapshots;

@@ -270,4 +270,3 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
 
 #[cfg(test)]
 mod tests;
-
