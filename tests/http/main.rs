@@ -36,6 +36,7 @@ mod joint_materials;
 mod joint_model;
 mod joint_releases;
 mod joints;
+mod joints_bulk;
 mod kill9;
 mod kill9_releases;
 mod limits;

@@ -15,7 +15,7 @@ use serde_json::{json, Value};
 use utoipa::openapi::path::ParameterIn;
 use utoipa::IntoParams;
 
-use super::{normalized, reason, ImportReport, IMPORT_MAX};
+use super::{normalized, reason, under, ImportReport, IMPORT_MAX};
 use crate::app::spec::SpecQuery;
 use crate::app::{App, AppError, FieldProblem};
 use crate::registry::JointDefinition;
@@ -204,10 +204,7 @@ impl App {
                 .collect();
             match definition_from_row(&row) {
                 Ok(body) => bodies.push((at, body)),
-                Err(p) => problems.extend(p.into_iter().map(|mut p| {
-                    p.field = format!("{at}.{}", p.field);
-                    p
-                })),
+                Err(p) => problems.extend(under(&at, p)),
             }
         }
         let items: Vec<(String, &Value)> = bodies.iter().map(|(a, b)| (a.clone(), b)).collect();
