@@ -39,6 +39,8 @@ mod joint_materials;
 mod joint_model;
 mod joint_releases;
 mod joints;
+mod joints_bulk;
+mod joints_bulk_cli;
 mod kill9;
 mod kill9_releases;
 mod limits;

@@ -181,7 +181,7 @@ impl App {
     /// Every problem of a definition body: the registry's reading, then the
     /// request as a spec request computed against the current catalogue,
     /// then the tool presentation. `Ok` only when there is none.
-    fn definition(&self, body: &Value) -> Result<JointDefinition, AppError> {
+    pub(super) fn definition(&self, body: &Value) -> Result<JointDefinition, AppError> {
         let read = JointDefinition::from_json(body);
         let mut problems: Vec<FieldProblem> = match &read {
             Err(RegistryError::Invalid { problems }) => match invalid(problems.clone()) {

@@ -43,6 +43,7 @@ pub mod error;
 pub mod friction_tests;
 pub mod impact;
 pub mod joints;
+pub mod joints_bulk;
 pub mod quantity;
 pub mod reading;
 pub mod reference;

@@ -1,4 +1,4 @@
-//! `tightspec joint list|show|release|approve|withdraw`: the joint
+//! `tightspec joint list|show|release|approve|withdraw|import|export`: the joint
 //! registry on the configured database, through the same use cases as the
 //! API (`app::joints`, `app::releases`), so the same rules hold: a release
 //! is refused while an error check applies that is not accepted by code
@@ -13,6 +13,7 @@ use std::io::Write;
 use serde_json::{json, Value};
 
 use crate::app::joints::{JointQuery, JointView};
+use crate::app::joints_bulk::{csv_form, export_json, ImportReport};
 use crate::app::releases::view::ReleaseView;
 use crate::app::{App, AppError};
 
@@ -86,6 +87,31 @@ pub enum JointCommand {
         by: String,
         #[arg(long)]
         reason: String,
+    },
+    /// Import joint definitions from a JSON file (`{"joints": [...]}`,
+    /// as `joint export` writes it) or a CSV file (`.csv`, the columns of
+    /// `GET /v1/joints/export?format=csv`): all rows or none.
+    Import {
+        /// The file; read as CSV when its name ends in `.csv`.
+        file: std::path::PathBuf,
+        /// Who imports (recorded).
+        #[arg(long)]
+        by: String,
+        /// Why (recorded in each joint's history; replaces a JSON file's).
+        #[arg(long)]
+        reason: Option<String>,
+    },
+    /// Write every joint's definition (or those with `--tag`) to stdout.
+    Export {
+        /// `json` (default) or `csv`.
+        #[arg(long, default_value = "json", value_parser = ["json", "csv"])]
+        format: String,
+        /// CSV only: start with a UTF-8 byte order mark (spreadsheets).
+        #[arg(long)]
+        bom: bool,
+        /// Only joints carrying this tag.
+        #[arg(long)]
+        tag: Option<String>,
     },
     /// Withdraw a draft or the active release.
     Withdraw {
@@ -267,8 +293,76 @@ pub async fn run_on(app: &App, args: &JointArgs, out: &mut dyn Write) -> CliResu
                 .map_err(refusal)?;
             print_release(out, ReleaseView::of(&r, None))?;
         }
+        JointCommand::Import { file, by, reason } => {
+            let report = import(app, file, by, reason.as_deref()).await?;
+            if args.json {
+                writeln!(out, "{}", serde_json::to_string_pretty(&report)?)?;
+            } else {
+                let c = &report.counts;
+                writeln!(
+                    out,
+                    "created {}, updated {}, unchanged {}",
+                    c.created, c.updated, c.unchanged
+                )?;
+                for (what, ids) in [("created", &report.created), ("updated", &report.updated)] {
+                    for id in ids {
+                        writeln!(out, "  {what} {id}")?;
+                    }
+                }
+            }
+        }
+        JointCommand::Export { format, bom, tag } => {
+            let defs = app.export_joints(tag.as_deref()).await.map_err(refusal)?;
+            if format == "csv" {
+                write!(
+                    out,
+                    "{}",
+                    csv_form::export_csv(&defs, *bom).map_err(refusal)?
+                )?;
+            } else {
+                writeln!(
+                    out,
+                    "{}",
+                    serde_json::to_string_pretty(&export_json(&defs))?
+                )?;
+            }
+        }
     }
     Ok(())
+}
+
+/// Largest import file read, as the API's default body limit.
+const IMPORT_FILE_MAX: u64 = crate::config::DEFAULT_MAX_BODY_BYTES as u64;
+
+async fn import(
+    app: &App,
+    file: &std::path::Path,
+    by: &str,
+    reason: Option<&str>,
+) -> Result<ImportReport, Box<dyn std::error::Error + Send + Sync>> {
+    let size = std::fs::metadata(file)?.len();
+    if size > IMPORT_FILE_MAX {
+        return Err(format!(
+            "{}: {size} bytes, at most {IMPORT_FILE_MAX}",
+            file.display()
+        )
+        .into());
+    }
+    let text = std::fs::read_to_string(file)?;
+    let csv = file
+        .extension()
+        .is_some_and(|e| e.eq_ignore_ascii_case("csv"));
+    let report = if csv {
+        app.import_joints_csv(by, &text, reason).await
+    } else {
+        let mut body: Value = serde_json::from_str(text.trim_start_matches('\u{feff}'))
+            .map_err(|e| format!("{}: not JSON: {e}", file.display()))?;
+        if let (Some(r), Some(obj)) = (reason, body.as_object_mut()) {
+            obj.insert("reason".into(), json!(r));
+        }
+        app.import_joints_json(by, &body).await
+    };
+    Ok(report.map_err(refusal)?)
 }
 
 #[cfg(test)]

@@ -20,7 +20,7 @@ use super::error::ApiError;
 pub fn produced(path: &str) -> &'static [&'static str] {
     match path {
         "/metrics" => &["text/plain"],
-        "/v1/catalogue/export" => &["application/json", "text/csv"],
+        "/v1/catalogue/export" | "/v1/joints/export" => &["application/json", "text/csv"],
         // `/` answers a browser with a redirect to the page (`root`).
         "/" => &["application/json", "text/html"],
         p if p.ends_with(".svg") => &["image/svg+xml"],

@@ -23,6 +23,7 @@ pub mod friction_tests;
 pub mod health;
 pub mod impact;
 pub mod joints;
+pub mod joints_bulk;
 pub mod metrics;
 pub mod openapi;
 pub mod problem;
@@ -54,6 +55,7 @@ pub fn routes(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
     reference::configure(cfg);
     catalogue::configure(cfg);
     friction_tests::configure(cfg);
+    joints_bulk::configure(cfg);
     joints::configure(cfg);
     releases::configure(cfg);
     impact::configure(cfg);

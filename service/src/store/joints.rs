@@ -82,10 +82,12 @@ impl TryFrom<JointRow> for Joint {
 const COLUMNS: &str = "SELECT id, title, tags, request, setpoints, version, review_due_revision, \
      review_due_since FROM joints";
 
-const INSERT: &str = "INSERT INTO joints (id, title, tags, request, setpoints, version, \
+pub(super) const INSERT: &str =
+    "INSERT INTO joints (id, title, tags, request, setpoints, version, \
      created_at, updated_at) VALUES ($1, $2, $3, $4, $5, 1, $6, $6)";
 
-const UPDATE: &str = "UPDATE joints SET title = $2, tags = $3, request = $4, setpoints = $5, \
+pub(super) const UPDATE: &str =
+    "UPDATE joints SET title = $2, tags = $3, request = $4, setpoints = $5, \
      version = $6, updated_at = $7 WHERE id = $1";
 
 const DELETE_TAGS: &str = "DELETE FROM joint_tags WHERE joint_id = $1";
@@ -123,7 +125,7 @@ pub(super) async fn joint_in(tx: &mut Tx, id: &JointId) -> Result<Option<Joint>,
 
 /// Writes the definition's tag rows (after removing the old ones) and its
 /// history row.
-async fn write_tags_and_history(
+pub(super) async fn write_tags_and_history(
     tx: &mut Tx,
     def: &JointDefinition,
     change: (&str, i64, Option<&Joint>),

@@ -29,6 +29,7 @@ pub mod friction_series;
 mod history;
 mod impact;
 pub mod joints;
+pub mod joints_bulk;
 pub mod outbox;
 pub mod releases;
 mod snapshots;
