@@ -216,11 +216,13 @@ def generate(document, out, bin_dir):
     out.parent.mkdir(parents=True, exist_ok=True)
     # No post-generation hooks: the formatter they call is not installed,
     # and its absence would read as a warning. The generator has no reader
-    # for image/svg+xml; the charts reach a generated client as bytes.
+    # for image/svg+xml or for a text/csv request body; charts and CSV
+    # uploads reach a generated client as bytes.
     config.write_text(
         "post_hooks: []\n"
         "content_type_overrides:\n"
         "  image/svg+xml: application/octet-stream\n"
+        "  text/csv: application/octet-stream\n"
     )
     run = subprocess.run(
         [
