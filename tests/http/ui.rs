@@ -12,6 +12,7 @@ use utoipa::IntoParams;
 use crate::catalogue_support::{start, token, Instance};
 use crate::on_both_backends;
 use crate::support::db::TestDb;
+use crate::support::loopback_base;
 use tightspec::store::Role;
 
 on_both_backends!(
@@ -303,7 +304,8 @@ async fn page_posts_need_the_form_value_the_origin_and_a_token(db: &TestDb) {
         &app,
         &jar,
         &value,
-        Some("http://elsewhere.example"),
+        // Another origin: the loopback interface on a port the service is not on.
+        Some(&loopback_base(1)),
         "record",
     )
     .await;

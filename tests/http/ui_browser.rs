@@ -16,6 +16,7 @@ use fantoccini::{Client, ClientBuilder, Locator};
 
 use crate::catalogue_support::start;
 use crate::support::db::TestDb;
+use crate::support::loopback_base;
 use crate::ui::DEMO_CSV;
 
 fn on_path(name: &str) -> Option<PathBuf> {
@@ -96,7 +97,7 @@ async fn session(driver: &Driver, chromium: &Path) -> Client {
     );
     ClientBuilder::new(hyper_util::client::legacy::connect::HttpConnector::new())
         .capabilities(caps)
-        .connect(&format!("http://127.0.0.1:{}", driver.port))
+        .connect(&loopback_base(driver.port))
         .await
         .expect("a WebDriver session")
 }
