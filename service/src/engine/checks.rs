@@ -245,6 +245,19 @@ fn hydrogen(i: &CheckInput, out: &mut Vec<Check>) {
 }
 
 fn coating_process(i: &CheckInput, out: &mut Vec<Check>) {
+    if i.hot_dip_galvanized && i.strength.id == "astm-f3125-a490" {
+        out.push(Check {
+            code: "hot_dip_galvanized_class_not_covered",
+            severity: Severity::Error,
+            message: "Hot-dip galvanizing is not for ASTM F3125 Grade A490 bolts: the standard \
+                      does not permit a metallic coating applied hot or by electroplating on \
+                      this grade because of the risk of hydrogen embrittlement (ASTM F3125, \
+                      recalled from memory). Use Grade A325 galvanized, or an A490 bolt with a \
+                      coating the standard allows, e.g. zinc flake."
+                .into(),
+        });
+        return;
+    }
     if i.strength.tensile_strength_min.value / 1e6 < CLASS_12_9_RM_MPA {
         return;
     }

@@ -195,6 +195,23 @@ fn hot_dip_galvanized_12_9_is_an_error_and_10_9_passes() {
     assert!(run(&i).is_empty());
 }
 
+/// ASTM F3125 does not permit hot-dip galvanizing Grade A490 (recalled
+/// from memory), though its tensile strength is below 12.9's.
+#[test]
+fn hot_dip_galvanized_a490_is_an_error() {
+    let mut c = case();
+    c.strength = strength("astm-f3125-a490", 1034.0, 896.0, 827.0);
+    let mut i = input(&c);
+    i.hot_dip_galvanized = true;
+    let found = run(&i);
+    assert_eq!(codes(&found), ["hot_dip_galvanized_class_not_covered"]);
+    assert_eq!(found[0].severity, Severity::Error);
+    assert!(found[0].message.contains("A490"));
+    // Not galvanized: no finding.
+    let i = input(&c);
+    assert!(run(&i).is_empty());
+}
+
 #[test]
 fn acid_cleaned_12_9_is_a_warning_and_10_9_passes() {
     let mut c = case();

@@ -44,11 +44,23 @@ pub(super) fn controlled_assumptions(spec: &Spec, out: &mut Vec<String>) {
 pub(super) fn partner_assumptions(input: &crate::engine::spec::SpecInput) -> Vec<String> {
     let mut out = Vec::new();
     let parts = &input.parts;
+    let tapped = input.tapped_hole.is_some()
+        || input
+            .joint
+            .as_ref()
+            .is_some_and(|j| j.joint_type == crate::engine::angle::JointType::TappedHole);
     if let Some(n) = &parts.nut {
         out.push(format!(
             "nut: {} ({}), of the standard's own height; made for {}",
             n.name, n.standard, n.mates
         ));
+    } else if !tapped {
+        out.push(
+            "nut: not given; a nut of the class made for this bolt (ISO 898-2 pairing, e.g. \
+             class 10 for 10.9) and of the standard's height is assumed, and the nut is not \
+             checked (give nut.property_class to have it checked)"
+                .to_string(),
+        );
     }
     if let Some(t) = &input.tapped_hole {
         out.push(format!(
@@ -80,4 +92,31 @@ pub(super) fn partner_assumptions(input: &crate::engine::spec::SpecInput) -> Vec
         );
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::partner_assumptions;
+    use crate::engine::angle::JointType;
+    use crate::engine::spec::tests::m10_input;
+    use crate::engine::tightening::fixtures::steel_joint;
+
+    fn says_nut_assumed(lines: &[String]) -> bool {
+        lines.iter().any(|l| l.starts_with("nut: not given"))
+    }
+
+    /// Without a nut a through-bolted answer says which nut it assumed and
+    /// that it was not checked; a tapped hole has no nut to assume.
+    #[test]
+    fn a_missing_nut_is_stated_for_through_bolted_joints_only() {
+        let input = m10_input();
+        assert!(input.parts.nut.is_none());
+        assert!(says_nut_assumed(&partner_assumptions(&input)));
+
+        let mut tapped = m10_input();
+        let mut joint = steel_joint(20.0, Vec::new(), false);
+        joint.joint_type = JointType::TappedHole;
+        tapped.joint = Some(joint);
+        assert!(!says_nut_assumed(&partner_assumptions(&tapped)));
+    }
 }
