@@ -125,6 +125,33 @@ pub(super) async fn joint_in(tx: &mut Tx, id: &JointId) -> Result<Option<Joint>,
 
 /// Writes the definition's tag rows (after removing the old ones) and its
 /// history row.
+/// Writes `def` over `current` (one version more) with its tags and a
+/// history row, inside `tx`.
+pub(super) async fn update_in(
+    tx: &mut Tx,
+    def: &JointDefinition,
+    current: &Joint,
+    actor: &str,
+    reason: &str,
+    now: DateTime<Utc>,
+) -> Result<(), StoreError> {
+    let version = current.version + 1;
+    let (tags, request, setpoints) = (json(&def.tags)?, json(&def.request)?, json(&def.setpoints)?);
+    dispatch!(Tx, &mut *tx, |c| sqlx::query(UPDATE)
+        .bind(def.id.as_str())
+        .bind(&def.title)
+        .bind(&tags)
+        .bind(&request)
+        .bind(&setpoints)
+        .bind(version)
+        .bind(now)
+        .execute(&mut **c)
+        .await
+        .map(drop)?);
+    let change = ("update", version, Some(current));
+    write_tags_and_history(tx, def, change, actor, reason, now).await
+}
+
 pub(super) async fn write_tags_and_history(
     tx: &mut Tx,
     def: &JointDefinition,
@@ -243,23 +270,7 @@ impl Store {
             }
             .into());
         }
-        let now = Utc::now();
-        let version = current.version + 1;
-        let (tags, request, setpoints) =
-            (json(&def.tags)?, json(&def.request)?, json(&def.setpoints)?);
-        dispatch!(Tx, &mut tx, |c| sqlx::query(UPDATE)
-            .bind(def.id.as_str())
-            .bind(&def.title)
-            .bind(&tags)
-            .bind(&request)
-            .bind(&setpoints)
-            .bind(version)
-            .bind(now)
-            .execute(&mut **c)
-            .await
-            .map(drop)?);
-        let change = ("update", version, Some(&current));
-        write_tags_and_history(&mut tx, def, change, actor, reason, now).await?;
+        update_in(&mut tx, def, &current, actor, reason, Utc::now()).await?;
         let joint = joint_in(&mut tx, &def.id)
             .await?
             .ok_or_else(|| not_found(&def.id))?;

@@ -6,7 +6,7 @@
 use chrono::Utc;
 
 use super::backend::{dispatch, Tx};
-use super::joints::{joint_in, write_tags_and_history, INSERT, UPDATE};
+use super::joints::{joint_in, update_in, write_tags_and_history, INSERT};
 use super::{Store, StoreError};
 use crate::registry::{Joint, JointDefinition, JointId};
 
@@ -47,20 +47,7 @@ impl Store {
             match current {
                 Some(current) if same(&current, def) => out.unchanged.push(def.id.clone()),
                 Some(current) => {
-                    let version = current.version + 1;
-                    dispatch!(Tx, &mut tx, |c| sqlx::query(UPDATE)
-                        .bind(def.id.as_str())
-                        .bind(&def.title)
-                        .bind(&tags)
-                        .bind(&request)
-                        .bind(&setpoints)
-                        .bind(version)
-                        .bind(now)
-                        .execute(&mut **c)
-                        .await
-                        .map(drop)?);
-                    let change = ("update", version, Some(&current));
-                    write_tags_and_history(&mut tx, def, change, actor, reason, now).await?;
+                    update_in(&mut tx, def, &current, actor, reason, now).await?;
                     out.updated.push(def.id.clone());
                 }
                 None => {
