@@ -55,5 +55,6 @@ mod store;
 mod subscriptions;
 mod ui;
 mod ui_browser;
+mod ui_joints;
 mod webhook_receiver;
 mod webhooks;

@@ -28,14 +28,14 @@ pub const DEMO_CSV: &str = "clamp_force [kN],total_torque [N·m],thread_torque [
     25.0,48.1,21.6\n25.0,47.2,21.1\n25.0,49.0,22.0\n25.0,46.8,20.9\n25.0,48.5,21.8\n\
     25.0,47.9,21.4\n25.0,48.8,21.9\n25.0,47.5,21.2\n25.0,48.3,21.7\n25.0,47.0,21.0\n";
 
-fn no_redirects() -> Client {
+pub fn no_redirects() -> Client {
     Client::builder()
         .redirect(Policy::none())
         .build()
         .expect("client")
 }
 
-async fn html(r: Response, status: StatusCode) -> String {
+pub async fn html(r: Response, status: StatusCode) -> String {
     let got = r.status();
     let ct = r
         .headers()
@@ -60,7 +60,7 @@ fn set_cookie(r: &Response, name: &str) -> Option<String> {
 }
 
 /// The value of the `tightspec_csrf` cookie a first page visit sets.
-async fn csrf(app: &Instance) -> String {
+pub async fn csrf(app: &Instance) -> String {
     let r = app.get("/ui/token").await;
     let c = set_cookie(&r, "tightspec_csrf").expect("the page sets the form cookie");
     for attr in ["HttpOnly", "SameSite=Strict", "Path=/ui"] {

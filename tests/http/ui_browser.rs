@@ -3,7 +3,10 @@
 //! spawned service. Opens the calculator, fills the form, submits and finds
 //! the answer table and the chart element; opens a catalogue entry's
 //! history; tries to record a friction test without a token and sees it
-//! refused (nothing written). Screenshots go to `target/ui-screenshots/`.
+//! refused (nothing written); opens a joint from the joints list, tries to
+//! release it without a token and sees it refused, keeps an editor's token,
+//! releases it with a reason and sees release 1 with its chart.
+//! Screenshots go to `target/ui-screenshots/`.
 //!
 //! `scripts/test` installs `chromium` and `chromium-driver` when missing.
 //! Without them the test says so and passes, unless `CI` is set: then it
@@ -14,10 +17,14 @@ use std::process::{Child, Command, Stdio};
 
 use fantoccini::{Client, ClientBuilder, Locator};
 
-use crate::catalogue_support::start;
+use crate::catalogue_support::{start, token};
 use crate::support::db::TestDb;
 use crate::support::loopback_base;
 use crate::ui::DEMO_CSV;
+use tightspec::store::Role;
+
+/// The demo joint the walk-through releases (invented plant).
+const JOINT: &str = "HW-S40-BR-011";
 
 fn on_path(name: &str) -> Option<PathBuf> {
     std::env::var_os("PATH").and_then(|paths| {
@@ -134,13 +141,117 @@ async fn engineer_uses_the_page_in_a_real_browser() {
     };
     let db = TestDb::sqlite();
     let app = start(&db.url, true).await;
+    let editor = token(&db, "hollowmere-planning", Role::Editor).await;
+    let joint = serde_json::json!({
+        "id": JOINT, "title": "Brake bracket to knuckle (demo)", "tags": ["hollowmere-demo", "station-40"],
+        "request": {"thread": "M10", "property_class": "10.9",
+                    "finish": "zinc-flake-lubricated", "lubricant": "none",
+                    "tightening_method": "dc-nutrunner"},
+        "setpoints": {"torque_unit": "N·m", "resolution": 0.5, "angle_resolution": 1.0},
+    });
+    let r = app.post_json(Some(&editor), "/v1/joints", &joint).await;
+    assert_eq!(r.status(), 201, "{}", r.text().await.unwrap_or_default());
     let driver = driver(&driver_path);
     let c = session(&driver, &chromium).await;
-    let result = drive(&c, &app.base).await;
+    let mut result = drive(&c, &app.base).await;
+    if result.is_ok() {
+        result = release_a_joint(&c, &app.base, &editor).await;
+    }
     let _ = c.close().await;
     result.expect("the browser walk-through");
     let r = app.get("/v1/friction-tests/1").await;
     assert_eq!(r.status(), 404, "a refused page write stored a series");
+    let releases = app.get_json(&format!("/v1/joints/{JOINT}/releases")).await;
+    let releases = releases["releases"].as_array().expect("releases");
+    assert_eq!(releases.len(), 1, "the refused release wrote: {releases:?}");
+    assert_eq!(
+        releases[0]["reason"],
+        "first release for the pilot line (demo)"
+    );
+}
+
+/// The joints list, one joint, a release refused without a token, the
+/// token kept, the release with its reason, release 1 and its chart.
+async fn release_a_joint(
+    c: &Client,
+    base: &str,
+    editor: &str,
+) -> Result<(), fantoccini::error::CmdError> {
+    c.goto(&format!("{base}/ui/joints")).await?;
+    c.wait().for_element(Locator::Id("joints")).await?;
+    shot(c, "joints.png").await;
+    c.find(Locator::LinkText(JOINT)).await?.click().await?;
+    let preview = c.wait().for_element(Locator::Id("release-preview")).await?;
+    let text = preview.text().await?;
+    assert!(
+        text.contains("Target torque") && text.contains("N·m"),
+        "{text}"
+    );
+
+    // Without a token: refused, shown on the joint's page.
+    fill(
+        c,
+        "release-reason",
+        "first release for the pilot line (demo)",
+    )
+    .await;
+    c.find(Locator::Id("release")).await?.click().await?;
+    let refusal = c
+        .wait()
+        .for_element(Locator::Css("section.problem"))
+        .await?;
+    let text = refusal.text().await?;
+    assert!(text.contains("401") && text.contains("token"), "{text}");
+    assert!(
+        c.find(Locator::Id("no-release")).await.is_ok(),
+        "a refused release shows a release"
+    );
+    shot(c, "release-without-token.png").await;
+
+    // Keep the editor's token, then release with a reason.
+    c.goto(&format!("{base}/ui/token")).await?;
+    fill(c, "token", editor).await;
+    c.find(Locator::Css("button[value=keep]"))
+        .await?
+        .click()
+        .await?;
+    c.wait().for_element(Locator::Css("div.cards")).await?;
+    c.goto(&format!("{base}/ui/joints/{JOINT}")).await?;
+    fill(
+        c,
+        "release-reason",
+        "first release for the pilot line (demo)",
+    )
+    .await;
+    c.find(Locator::Id("release")).await?.click().await?;
+    let list = c.wait().for_element(Locator::Id("release-list")).await?;
+    let text = list.text().await?;
+    assert!(
+        text.contains("released") && text.contains("hollowmere-planning"),
+        "{text}"
+    );
+    let first = c
+        .find(Locator::Css("#release-list tbody tr td"))
+        .await?
+        .text()
+        .await?;
+    assert_eq!(first.trim(), "1", "release number");
+    c.wait().for_element(Locator::Id("release-chart")).await?;
+    let drawn = c
+        .execute(
+            "const i = document.getElementById('release-chart'); return i.complete && i.naturalWidth > 0;",
+            vec![],
+        )
+        .await?;
+    assert_eq!(
+        drawn,
+        serde_json::Value::Bool(true),
+        "the release chart is drawn"
+    );
+    let preview = c.find(Locator::Id("release-preview")).await?.text().await?;
+    assert!(preview.contains("compared with release 1"), "{preview}");
+    shot(c, "joint-released.png").await;
+    Ok(())
 }
 
 async fn drive(c: &Client, base: &str) -> Result<(), fantoccini::error::CmdError> {

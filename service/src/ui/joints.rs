@@ -1,12 +1,13 @@
 //! The joint registry on the page: the list (by tag, release status and
-//! review mark, in pages) and one joint's definition with a link that
-//! computes its spec request in the calculator's JSON twin.
+//! review mark, in pages) and one joint's page: its definition, releases,
+//! the active release's chart and the release flow (`joint_release`).
 
 use actix_web::http::StatusCode;
 use actix_web::{web, HttpRequest, HttpResponse};
 use maud::html;
 use serde::Deserialize;
 
+use super::joint_release::{release_actions, release_section, review_mark, ReleaseValues};
 use super::layout::{page, Nav};
 use super::problem::Problem;
 use super::session::{problem_page, Visit};
@@ -124,42 +125,61 @@ pub async fn one(
     id: web::Path<String>,
 ) -> HttpResponse {
     let visit = Visit::of(&req);
+    joint_page(&visit, &state, &id, None, ReleaseValues::default()).await
+}
+
+/// Joint `id`'s page; after a refused post, with the refusal on top (and
+/// its status) and the release form as it was sent.
+pub async fn joint_page(
+    visit: &Visit,
+    state: &UiState,
+    id: &str,
+    refused: Option<Problem>,
+    values: ReleaseValues,
+) -> HttpResponse {
     let title = format!("Joint {id}");
-    if let Err(p) = visit.caller(&state, Role::Reader).await {
-        return problem_page(&visit, Nav::Joints, &title, &p);
+    let fail =
+        |p: Problem| problem_page(visit, Nav::Joints, &title, refused.as_ref().unwrap_or(&p));
+    if let Err(p) = visit.caller(state, Role::Reader).await {
+        return fail(p);
     }
-    let joint = match state.app.joint(&id).await {
+    let joint = match state.app.joint(id).await {
         Ok(j) => JointView::from(&j),
-        Err(e) => return problem_page(&visit, Nav::Joints, &title, &Problem::from_app(&e)),
+        Err(e) => return fail(Problem::from_app(&e)),
     };
     let releases: Vec<ReleaseView> = match state.app.releases(&joint.id).await {
         Ok(rs) => rs.iter().map(|r| ReleaseView::of(r, None)).collect(),
-        Err(e) => return problem_page(&visit, Nav::Joints, &title, &Problem::from_app(&e)),
+        Err(e) => return fail(Problem::from_app(&e)),
     };
+    let preview = match state.app.release_preview(&joint.id).await {
+        Ok(p) => p,
+        Err(e) => return fail(Problem::from_app(&e)),
+    };
+    let four_eyes = state.app.four_eyes();
     let active = releases.iter().any(|r| r.status == "released");
     let pretty = |v: &serde_json::Value| serde_json::to_string_pretty(v).unwrap_or_default();
     let body = html! {
         h1 { "Joint " (joint.id) }
         p.lead { (joint.title) }
-        @if let Some(r) = &joint.review_due {
-            p.check.warning { strong { "Review due: " } "catalogue revision " (r.revision) " would move this joint's spec (marked " (r.since) ")." }
-        }
+        @if let Some(p) = &refused { (p.render()) }
+        @if let Some(r) = &joint.review_due { (review_mark(visit, &joint.id, r)) }
         table.answer {
             tbody {
                 tr { th scope="row" { "Tags" } td { (joint.tags.join(", ")) } }
                 tr { th scope="row" { "Version" } td { (joint.version) } }
+                tr { th scope="row" { "Four-eyes rule" } td { @if four_eyes { "on: a release is a draft until an approver other than its requester approves it" } @else { "off: a release is active at once" } } }
             }
         }
-        h2 { "Releases" }
-        @if releases.is_empty() { p { "Not released yet: the line has nothing to fetch for this joint." } }
+        h2 id="releases" { "Releases" }
+        @if releases.is_empty() { p id="no-release" { "Not released yet: the line has nothing to fetch for this joint." } }
         @else {
-            table.list id="releases" {
-                thead { tr { th { "Release" } th { "Status" } th { "Requested by" } th { "Approved by" } th { "When" } th { "Reason" } th { "Catalogue revision" } th { "Fetch" } } }
+            table.list id="release-list" {
+                thead { tr { th { "Release" } th { "Status" } th { "Requested by" } th { "Approved by" } th { "When" } th { "Reason" } th { "Catalogue revision" } th { "Fetch" } th { "Change" } } }
                 tbody {
                     @for r in &releases {
                         @let q = format!("?release={}", r.release);
                         tr {
-                            td.num { (r.release) } td { (r.status) } td { (r.requested_by) }
+                            td.num { (r.release) } td.status { (r.status) } td { (r.requested_by) }
                             td { (r.approved_by.as_deref().unwrap_or("")) } td { (r.created_at) } td { (r.reason) }
                             td.num { (r.catalogue_revision) }
                             td {
@@ -167,6 +187,7 @@ pub async fn one(
                                 a href={ "/v1/joints/" (joint.id) "/setpoints" (q) } { "setpoints" } " · "
                                 a href={ "/v1/joints/" (joint.id) "/chart.svg" (q) } { "chart" }
                             }
+                            td { (release_actions(visit, &joint.id, r, four_eyes)) }
                         }
                     }
                 }
@@ -179,11 +200,13 @@ pub async fn one(
                 figcaption { "Tightening window of the active release (the values the line fetches)." }
             }
         }
+        (release_section(visit, &joint.id, &preview, &values, refused.as_ref()))
         h2 { "Spec request" }
         pre.json { (pretty(&joint.request)) }
         h2 { "Tool presentation" }
         pre.json { (pretty(&joint.setpoints)) }
         p { a href={ "/v1/joints/" (joint.id) } { "As JSON" } " · " a href="/ui/joints" { "All joints" } }
     };
-    visit.html(StatusCode::OK, page(&title, Nav::Joints, &visit, body))
+    let status = refused.as_ref().map_or(StatusCode::OK, |p| p.status);
+    visit.html(status, page(&title, Nav::Joints, visit, body))
 }

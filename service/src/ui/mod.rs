@@ -8,6 +8,7 @@
 
 mod catalogue;
 mod friction;
+mod joint_release;
 mod joints;
 mod layout;
 mod problem;
@@ -58,6 +59,22 @@ pub fn configure(cfg: &mut web::ServiceConfig, state: UiState) {
         )
         .route("/ui/joints", web::get().to(joints::list))
         .route("/ui/joints/{id}", web::get().to(joints::one))
+        .route(
+            "/ui/joints/{id}/release",
+            web::post().to(joint_release::release),
+        )
+        .route(
+            "/ui/joints/{id}/releases/{n}/approve",
+            web::post().to(joint_release::approve),
+        )
+        .route(
+            "/ui/joints/{id}/releases/{n}/withdraw",
+            web::post().to(joint_release::withdraw),
+        )
+        .route(
+            "/ui/joints/{id}/review/confirm",
+            web::post().to(joint_release::confirm),
+        )
         .route("/ui/token", web::get().to(session::token_form))
         .route("/ui/token", web::post().to(session::token_submit));
 }

@@ -16,6 +16,7 @@
 //! logged, and the next revision marks what is still different.
 
 pub mod figures;
+pub mod preview;
 pub mod review;
 
 use chrono::Utc;
@@ -25,7 +26,7 @@ use utoipa::ToSchema;
 
 use super::spec::setpoints::setpoints;
 use super::spec::tool::{torque_unit, ToolAsk};
-use super::spec::view::spec_response;
+use super::spec::view::{spec_response, SetpointResponse};
 use super::spec::{compute_one, SpecRequest};
 use super::{App, AppError};
 use crate::catalogue::{self, Change, ChangeItem, ChangeSet, EntryInput, Snapshot};
@@ -110,9 +111,9 @@ pub const CAUTION: &str = "Estimates from the catalogue's friction data, to be c
      joint tests; a safety-critical joint's new release needs sign-off by the responsible \
      engineer; drawings, local codes and licensed practice take precedence.";
 
-/// The figures and check codes of joint `joint` computed against `snap`
-/// (every check accepted: the impact reports checks, it does not refuse).
-pub fn compute(joint: &Joint, snap: &Snapshot) -> Result<(ImpactFigures, Vec<String>), String> {
+/// The setpoint answer (every check accepted) and the spec answer of joint
+/// `joint` computed against `snap`, or why it does not compute.
+fn answers(joint: &Joint, snap: &Snapshot) -> Result<(SetpointResponse, Value), String> {
     let mut req: SpecRequest =
         serde_json::from_value(joint.request.clone()).map_err(|e| e.to_string())?;
     req.catalogue_revision = None;
@@ -132,17 +133,40 @@ pub fn compute(joint: &Joint, snap: &Snapshot) -> Result<(ImpactFigures, Vec<Str
         accept: CODES.to_vec(),
     };
     let answer = setpoints(&spec, &resolved, &tool, false).map_err(describe)?;
-    let s = serde_json::to_value(&answer).map_err(|e| e.to_string())?;
     let p =
         serde_json::to_value(spec_response(&spec, &resolved, false)).map_err(|e| e.to_string())?;
-    read(&s, &p).ok_or_else(|| "the computed answer lacks a figure".into())
+    Ok((answer, p))
+}
+
+/// The figures of a setpoint and spec answer computed now.
+fn figures_of(
+    answer: &SetpointResponse,
+    spec: &Value,
+) -> Result<(ImpactFigures, Vec<String>), String> {
+    let s = serde_json::to_value(answer).map_err(|e| e.to_string())?;
+    read(&s, spec).ok_or_else(|| "the computed answer lacks a figure".into())
+}
+
+/// The figures and check codes of joint `joint` computed against `snap`
+/// (every check accepted: the impact reports checks, it does not refuse).
+pub fn compute(joint: &Joint, snap: &Snapshot) -> Result<(ImpactFigures, Vec<String>), String> {
+    let (answer, spec) = answers(joint, snap)?;
+    figures_of(&answer, &spec)
 }
 
 /// Joint `joint`'s release compared with the joint computed against `snap`.
 pub fn compare(joint: &Joint, release: &Release, snap: &Snapshot) -> JointImpact {
+    compare_with(joint, release, compute(joint, snap))
+}
+
+/// Joint `joint`'s release compared with figures computed `after`.
+fn compare_with(
+    joint: &Joint,
+    release: &Release,
+    after: Result<(ImpactFigures, Vec<String>), String>,
+) -> JointImpact {
     let parse = |t: &str| serde_json::from_str::<Value>(t).unwrap_or(Value::Null);
     let before = read(&parse(&release.setpoints), &parse(&release.spec));
-    let after = compute(joint, snap);
     let (before_codes, before) = match before {
         Some((f, c)) => (c, Some(f)),
         None => (Vec::new(), None),
