@@ -8,6 +8,7 @@
 
 mod catalogue;
 mod friction;
+mod impact;
 mod joints;
 mod layout;
 mod problem;
