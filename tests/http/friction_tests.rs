@@ -1,6 +1,6 @@
 //! Friction calibration over HTTP: an engineer posts a test series, reads
 //! the statistics, stores it, sees the proposed catalogue change and its
-//! effect on specs, applies it, and finds the series from the entry's
+//! impact on the released joints, applies it, and finds the series from the entry's
 //! history. Bad series are refused with every field named and nothing
 //! stored. Runs on SQLite and PostgreSQL.
 
@@ -133,7 +133,7 @@ async fn engineer_evaluates_stores_proposes_applies_and_traces_a_series(db: &Tes
     assert_eq!(read["series"], series);
     assert_eq!(read["evaluation"], stored["evaluation"]);
 
-    // Proposal: basis is the user's choice; a diff and the effect on specs.
+    // Proposal: basis is the user's choice; a diff and the impact on joints.
     let r = app.get(&format!("/v1/friction-tests/{id}/proposal")).await;
     assert_eq!(r.status(), StatusCode::UNPROCESSABLE_ENTITY);
     let p = app
@@ -155,17 +155,10 @@ async fn engineer_evaluates_stores_proposes_applies_and_traces_a_series(db: &Tes
         p["changes"][1]["proposed"],
         json!({"min": 0.123, "max": 0.15})
     );
-    let effect = p["effect"].as_array().unwrap();
-    let threads: Vec<&str> = effect
-        .iter()
-        .map(|e| e["thread"].as_str().unwrap())
-        .collect();
-    assert_eq!(threads, ["M8", "M10", "M12"]);
-    for e in effect {
-        assert_eq!(e["property_class"], "8.8");
-        assert_eq!(e["current"]["torque_target"]["unit"], "N·m");
-        assert!(e["torque_target_change"].as_f64().unwrap() < 0.0, "{e}");
-    }
+    // No joint is registered here: the impact is empty and says so
+    // (`impact_changes.rs` has the joints).
+    assert_eq!(p["impact"]["joints"], json!([]));
+    assert!(p.get("effect").is_none(), "{p}");
     let sigma = app
         .get_json(&format!(
             "/v1/friction-tests/{id}/proposal?basis=three_sigma"

@@ -282,7 +282,7 @@ pub async fn stored(
     } else {
         query.basis.trim()
     };
-    let proposed = state.app.series_proposal(n, Some(basis), Units::Si).await;
+    let proposed = state.app.series_proposal(n, Some(basis)).await;
     let basis_form = html! {
         form.filters method="get" action={ "/ui/friction-tests/" (n) } {
             label { "Proposal basis "

@@ -8,6 +8,7 @@
 
 mod catalogue;
 mod friction;
+mod impact;
 mod joint_release;
 mod joints;
 mod layout;

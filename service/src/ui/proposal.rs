@@ -1,5 +1,5 @@
 //! The catalogue change a stored friction test supports, on the page: the
-//! ranges now and proposed, the effect on representative specs, and the
+//! ranges now and proposed, the impact on the released joints, and the
 //! form that applies it (editor token, CSRF checks, the entry's ETag as
 //! shown, so a change made meanwhile is refused as with `If-Match`).
 
@@ -8,7 +8,7 @@ use actix_web::{web, HttpRequest, HttpResponse};
 use maud::{html, Markup};
 use serde::Deserialize;
 
-use super::layout::{coefficient, qty, Nav};
+use super::layout::{coefficient, Nav};
 use super::problem::Problem;
 use super::session::{csrf_field, problem_page, Visit};
 use super::UiState;
@@ -16,7 +16,6 @@ use crate::app::friction_tests::proposal::{ProposalResponse, RangeResponse};
 use crate::app::tokens::Role;
 
 pub fn proposal(visit: &Visit, p: &ProposalResponse) -> Markup {
-    let pct = |v: f64| format!("{:+.1} %", v * 100.0);
     let range = |r: &Option<RangeResponse>| {
         r.as_ref().map_or_else(
             || "—".into(),
@@ -32,17 +31,7 @@ pub fn proposal(visit: &Visit, p: &ProposalResponse) -> Markup {
                 thead { tr { th { "Coefficient" } th { "Now" } th { "Proposed" } th { "Note" } } }
                 tbody { @for c in &p.changes { tr.changed[c.changed] { td { (c.coefficient) } td.num { (range(&c.current)) } td.num { (range(&c.proposed)) } td.note { (c.note) } } } }
             }
-            table.list {
-                caption { "Effect on representative specs" }
-                thead { tr { th { "Spec" } th { "Target torque now → proposed" } th { "Change" } th { "Preload min change" } th { "Preload max change" } } }
-                tbody {
-                    @for e in &p.effect {
-                        tr { td { (e.thread) " " (e.property_class) " " (e.tightening_method) }
-                             td.num { (qty(&e.current.torque_target)) " → " (qty(&e.proposed.torque_target)) }
-                             td.num { (pct(e.torque_target_change)) } td.num { (pct(e.preload_min_change)) } td.num { (pct(e.preload_max_change)) } }
-                    }
-                }
-            }
+            (super::impact::impact_table(&p.impact))
             ul.cautions { @for c in &p.cautions { li { (c) } } }
             form.apply method="post" action={ "/ui/friction-tests/" (p.series_id) "/apply" } {
                 (csrf_field(visit))

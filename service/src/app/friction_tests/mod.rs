@@ -5,9 +5,9 @@
 //! Layout: `wire` (the series as posted and its evaluation as answered; both
 //! adapters use them), `units` (a quantity read as an invalid field, torque
 //! in lbf·in for US units), `parse` (wire → engine input), `view` (engine →
-//! wire), `proposal` (the catalogue change a series supports, with its
-//! effect on representative specs) and `series` (the use cases over the
-//! store: record, read, propose, apply). [`evaluate`] here runs the parse
+//! wire), `proposal` (the catalogue change a series supports) and `series`
+//! (the use cases over the store: record, read, propose with the impact on
+//! the released joints, apply). [`evaluate`] here runs the parse
 //! and engine steps both adapters share.
 
 pub mod csv_series;

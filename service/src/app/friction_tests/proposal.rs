@@ -1,31 +1,20 @@
 //! From a stored series to a proposed change of the matching catalogue
 //! friction entry: the new ranges (observed, or mean ± 3σ), the diff against
-//! the entry, and how the specs of a few representative joints would move
-//! (M8, M10 and M12, class 8.8, hexagon head, no washer, medium hole,
-//! click wrench), computed by the engine with the current and the proposed
-//! friction.
+//! the entry, and the entry body that applying it submits. The proposal's
+//! impact on the registered joints is computed by `App::impact_of` (see
+//! `series.rs`), the same computation `POST /v1/catalogue/impact` runs.
 
 use serde::{Deserialize, Serialize};
 use utoipa::ToSchema;
 
-use super::units;
-use crate::app::quantity::{Quantity, Units};
+use crate::app::impact::ImpactResponse;
 use crate::app::{AppError, FieldProblem};
 use crate::catalogue::{EntryInput, FrictionEntry, RangeInput, Snapshot};
-use crate::engine::bearing::{bearing_surface, HeadType, HoleSeries, Washer};
 use crate::engine::calibration::proposal::{propose, ProposedRange};
 use crate::engine::calibration::SeriesStatistics;
-use crate::engine::method::TighteningMethod;
-use crate::engine::quantity::FrictionRange;
-use crate::engine::spec::{self, SpecFlags, SpecInput, WindowMode};
-use crate::engine::{grade, thread, EngineError};
+use crate::engine::EngineError;
 
 pub use crate::engine::calibration::proposal::Basis;
-
-/// Representative joints whose specs the proposal is shown on.
-pub const REPRESENTATIVE_THREADS: [&str; 3] = ["M8", "M10", "M12"];
-const REPRESENTATIVE_CLASS: &str = "8.8";
-const REPRESENTATIVE_METHOD: TighteningMethod = TighteningMethod::ClickWrench;
 
 /// A friction range on the wire.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, ToSchema)]
@@ -47,34 +36,8 @@ pub struct RangeChange {
     pub note: String,
 }
 
-/// Spec figures of one joint.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
-pub struct SpecFigures {
-    pub torque_lower: Quantity,
-    pub torque_target: Quantity,
-    pub torque_upper: Quantity,
-    pub preload_min: Quantity,
-    pub preload_max: Quantity,
-}
-
-/// How one representative spec moves.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
-pub struct SpecEffect {
-    pub thread: String,
-    pub property_class: String,
-    pub head: String,
-    pub hole: String,
-    pub tightening_method: String,
-    pub current: SpecFigures,
-    pub proposed: SpecFigures,
-    /// Relative change of the target torque, e.g. -0.08 for −8 %.
-    pub torque_target_change: f64,
-    pub preload_min_change: f64,
-    pub preload_max_change: f64,
-}
-
 /// The proposed catalogue change.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, ToSchema)]
+#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
 pub struct ProposalResponse {
     pub series_id: i64,
     /// `observed` or `three_sigma`.
@@ -91,14 +54,52 @@ pub struct ProposalResponse {
     /// The `notes` the entry would carry after the change: the earlier
     /// notes described the earlier values (they stay in the history).
     pub proposed_notes: String,
-    pub effect: Vec<SpecEffect>,
+    /// The change's impact on every joint with an active release: the
+    /// stored release (before) against the joint computed with the
+    /// proposed entry (after), as `POST /v1/catalogue/impact` answers for
+    /// `{"friction_test": series_id, "basis": basis}`.
+    pub impact: ImpactResponse,
     pub cautions: Vec<String>,
 }
 
-/// A proposal and the entry input that applying it submits.
+/// A proposal before its impact is known, and the entry input that
+/// applying it submits.
 pub struct Proposed {
-    pub response: ProposalResponse,
+    pub series_id: i64,
+    pub basis: Basis,
+    pub catalogue_revision: i64,
+    /// The entry as it is now.
+    pub current: FrictionEntry,
+    pub changes: Vec<RangeChange>,
     pub entry: EntryInput,
+}
+
+impl Proposed {
+    /// The catalogue friction entry the proposal changes.
+    pub fn entry_id(&self) -> i64 {
+        self.current.id
+    }
+
+    /// The answer, with the impact computed for this proposal.
+    pub fn response(&self, impact: ImpactResponse) -> ProposalResponse {
+        ProposalResponse {
+            series_id: self.series_id,
+            basis: self.basis.as_str().into(),
+            catalogue_revision: self.catalogue_revision,
+            entry_id: self.current.id,
+            entry_etag: self.current.etag(),
+            finish: self.current.finish.clone(),
+            lubricant: self.current.lubricant.clone(),
+            changes: self.changes.clone(),
+            proposed_source: self.entry.source.clone(),
+            proposed_notes: self.entry.notes.clone(),
+            impact,
+            cautions: crate::engine::cautions::CautionSet::base()
+                .texts()
+                .map(str::to_owned)
+                .collect(),
+        }
+    }
 }
 
 /// Notes for an entry changed by a series: which ranges it measured and
@@ -188,20 +189,18 @@ pub fn build(
     stats: &SeriesStatistics,
     count: usize,
     basis: Basis,
-    u: Units,
 ) -> Result<Proposed, AppError> {
     let entry = snap.friction_for(finish, lubricant)?.clone();
-    Ok(build_for(snap, &entry, series_id, stats, count, basis, u)?)
+    Ok(build_for(snap, entry, series_id, stats, count, basis)?)
 }
 
 fn build_for(
     snap: &Snapshot,
-    entry: &FrictionEntry,
+    entry: FrictionEntry,
     series_id: i64,
     stats: &SeriesStatistics,
     count: usize,
     basis: Basis,
-    u: Units,
 ) -> Result<Proposed, EngineError> {
     let p = propose(stats, basis)?;
     let pair = |r: &crate::catalogue::TabulatedFriction| (r.min, r.max);
@@ -230,7 +229,7 @@ fn build_for(
             Basis::ThreeSigma => "mean ± 3σ",
         }
     );
-    let mut input = EntryInput::from(entry);
+    let mut input = EntryInput::from(&entry);
     let range = |(min, max): (f64, f64)| RangeInput { min, max };
     if let Some(r) = thread_after {
         input.thread_friction = range(r);
@@ -239,129 +238,15 @@ fn build_for(
         input.bearing_friction = range(r);
     }
     input.total_friction = total_after.map(range);
-    input.source = source.clone();
-    let notes = proposed_notes(series_id, &[&thread_c, &bearing_c, &total_c]);
-    input.notes = notes.clone();
-
-    let flags = flags(snap, entry);
-    let current = (pair(&entry.thread_friction), pair(&entry.bearing_friction));
-    let proposed = (
-        thread_after.unwrap_or(current.0),
-        bearing_after.unwrap_or(current.1),
-    );
-    let effect = REPRESENTATIVE_THREADS
-        .iter()
-        .map(|t| effect(t, current, proposed, &flags, u))
-        .collect::<Result<Vec<_>, _>>()?;
+    input.source = source;
+    input.notes = proposed_notes(series_id, &[&thread_c, &bearing_c, &total_c]);
     Ok(Proposed {
-        response: ProposalResponse {
-            series_id,
-            basis: basis.as_str().into(),
-            catalogue_revision: snap.revision,
-            entry_id: entry.id,
-            entry_etag: entry.etag(),
-            finish: entry.finish.clone(),
-            lubricant: entry.lubricant.clone(),
-            changes: vec![thread_c, bearing_c, total_c],
-            proposed_source: source,
-            proposed_notes: notes,
-            effect,
-            cautions: crate::engine::cautions::CautionSet::base()
-                .texts()
-                .map(str::to_owned)
-                .collect(),
-        },
+        series_id,
+        basis,
+        catalogue_revision: snap.revision,
+        current: entry,
+        changes: vec![thread_c, bearing_c, total_c],
         entry: input,
-    })
-}
-
-fn flags(snap: &Snapshot, entry: &FrictionEntry) -> SpecFlags {
-    let finish = snap.finish(&entry.finish).ok();
-    SpecFlags {
-        electroplated: finish.is_some_and(|f| f.electroplated),
-        hot_dip_galvanized: finish.is_some_and(|f| f.hot_dip_galvanized()),
-        acid_cleaned: finish.is_some_and(|f| f.acid_cleaned()),
-        dry: snap
-            .lubricant(&entry.lubricant)
-            .map(|l| l.dry)
-            .unwrap_or(false),
-        ..SpecFlags::default()
-    }
-}
-
-type Pair = (f64, f64);
-
-fn figures(
-    designation: &str,
-    (th, b): (Pair, Pair),
-    flags: &SpecFlags,
-    u: Units,
-) -> Result<SpecFigures, EngineError> {
-    let thread = thread::parse_designation(designation)?;
-    let strength = grade::strength_for(REPRESENTATIVE_CLASS, &thread)?;
-    let bearing = bearing_surface(
-        &thread,
-        HeadType::HexagonHead,
-        Washer::None,
-        HoleSeries::Medium,
-    )?;
-    let input = SpecInput {
-        thread,
-        strength,
-        bearing,
-        thread_friction: FrictionRange::new(th.0, th.1, "thread_friction")?,
-        bearing_friction: FrictionRange::new(b.0, b.1, "bearing_friction")?,
-        friction_source: "friction test proposal".into(),
-        method: REPRESENTATIVE_METHOD,
-        scatter: None,
-        utilisation: None,
-        prevailing_torque: None,
-        clamped_material: None,
-        joint: None,
-        tapped_hole: None,
-        parts: Default::default(),
-        required_clamp_load: None,
-        window_mode: WindowMode::MaximumPreload,
-        flags: *flags,
-        joint_model: Default::default(),
-    };
-    let w = spec::compute(&input)?.window;
-    Ok(SpecFigures {
-        torque_lower: units::torque(w.lower, u),
-        torque_target: units::torque(w.target, u),
-        torque_upper: units::torque(w.upper, u),
-        preload_min: Quantity::force(w.preload_min, u),
-        preload_max: Quantity::force(w.preload_max, u),
-    })
-}
-
-fn effect(
-    designation: &str,
-    current: (Pair, Pair),
-    proposed: (Pair, Pair),
-    flags: &SpecFlags,
-    u: Units,
-) -> Result<SpecEffect, EngineError> {
-    let before = figures(designation, current, flags, u)?;
-    let after = figures(designation, proposed, flags, u)?;
-    let rel = |a: &Quantity, b: &Quantity| {
-        if a.value == 0.0 {
-            0.0
-        } else {
-            b.value / a.value - 1.0
-        }
-    };
-    Ok(SpecEffect {
-        thread: designation.into(),
-        property_class: REPRESENTATIVE_CLASS.into(),
-        head: HeadType::HexagonHead.id().into(),
-        hole: HoleSeries::Medium.id().into(),
-        tightening_method: REPRESENTATIVE_METHOD.id().into(),
-        torque_target_change: rel(&before.torque_target, &after.torque_target),
-        preload_min_change: rel(&before.preload_min, &after.preload_min),
-        preload_max_change: rel(&before.preload_max, &after.preload_max),
-        current: before,
-        proposed: after,
     })
 }
 

@@ -53,7 +53,7 @@ pub struct PendingApply {
 impl PendingApply {
     /// The catalogue friction entry the apply changes.
     pub fn entry_id(&self) -> i64 {
-        self.proposed.response.entry_id
+        self.proposed.entry_id()
     }
 }
 
@@ -90,6 +90,15 @@ fn stored_response(
         evaluation: serde_json::from_str(&s.evaluation_json).map_err(corrupt)?,
         applications,
     })
+}
+
+/// The entry update a proposal stands for.
+fn update(proposed: &Proposed, expected_revision: Option<i64>) -> Change {
+    Change::UpdateEntry {
+        id: proposed.entry_id(),
+        expected_revision,
+        entry: proposed.entry.clone(),
+    }
 }
 
 impl App {
@@ -151,47 +160,51 @@ impl App {
     }
 
     /// Re-evaluates a stored series (the engine is deterministic) and
-    /// builds the proposal against the current catalogue.
-    async fn proposed(&self, id: i64, basis: Basis, units: Units) -> Result<Proposed, AppError> {
+    /// builds the proposal against catalogue `snap`.
+    async fn proposed(&self, id: i64, basis: Basis, snap: &Snapshot) -> Result<Proposed, AppError> {
         let stored = self.store().friction_test(id).await?;
         let req: SeriesRequest = serde_json::from_str(&stored.series_json).map_err(|e| {
             AppError::Internal(format!("stored friction test {id} unreadable: {e}"))
         })?;
         let (_, eval) = super::run(&req)?;
         proposal::build(
-            &self.current(),
+            snap,
             id,
             &stored.finish,
             &stored.lubricant,
             &eval.statistics,
             eval.specimens.len(),
             basis,
-            units,
         )
     }
 
     /// The catalogue change stored series `id` supports on `basis`
-    /// (`observed` or `three_sigma`; checked before the series is read).
+    /// (`observed` or `three_sigma`; checked before the series is read),
+    /// with its impact on every joint with an active release, both against
+    /// the same current catalogue.
     pub async fn series_proposal(
         &self,
         id: i64,
         basis: Option<&str>,
-        units: Units,
     ) -> Result<ProposalResponse, AppError> {
         let basis = proposal::basis(basis)?;
-        Ok(self.proposed(id, basis, units).await?.response)
+        let snap = self.current();
+        let proposed = self.proposed(id, basis, &snap).await?;
+        let impact = self.impact_of(&snap, update(&proposed, None)).await?;
+        Ok(proposed.response(impact))
     }
 
-    /// The entry and the changed entry stored series `id` proposes on
-    /// `basis` (`observed` or `three_sigma`), for the change impact.
-    pub async fn proposed_entry(
+    /// The change stored series `id` proposes on `basis` (`observed` or
+    /// `three_sigma`) against catalogue `snap`, for the change impact.
+    pub async fn proposed_change(
         &self,
         id: i64,
         basis: &str,
-    ) -> Result<(i64, crate::catalogue::EntryInput), AppError> {
+        snap: &Snapshot,
+    ) -> Result<Change, AppError> {
         let basis = proposal::basis(Some(basis))?;
-        let proposed = self.proposed(id, basis, Units::Si).await?;
-        Ok((proposed.response.entry_id, proposed.entry))
+        let proposed = self.proposed(id, basis, snap).await?;
+        Ok(update(&proposed, None))
     }
 
     /// Checks an apply of series `id` (a reason, a basis; every problem
@@ -214,7 +227,7 @@ impl App {
         let Some(basis) = basis.filter(|_| problems.is_empty()) else {
             return Err(AppError::Fields(problems));
         };
-        let proposed = self.proposed(id, basis, Units::Si).await?;
+        let proposed = self.proposed(id, basis, &self.current()).await?;
         Ok(PendingApply {
             series_id: id,
             basis,
@@ -240,11 +253,7 @@ impl App {
             evidence: Some(evidence(series_id)),
             items: vec![ChangeItem {
                 at: String::new(),
-                change: Change::UpdateEntry {
-                    id: entry_id,
-                    expected_revision: Some(expected_revision),
-                    entry: pending.proposed.entry,
-                },
+                change: update(&pending.proposed, Some(expected_revision)),
             }],
         };
         let applied = self.apply(&set).await?;

@@ -28,7 +28,7 @@ use super::spec::setpoints::setpoints;
 use super::spec::tool::{torque_unit, ToolAsk};
 use super::spec::view::{spec_response, SetpointResponse};
 use super::spec::{compute_one, SpecRequest};
-use super::{App, AppError};
+use super::{App, AppError, FieldProblem};
 use crate::catalogue::{self, Change, ChangeItem, ChangeSet, EntryInput, Snapshot};
 use crate::engine::checks::CODES;
 use crate::registry::event::JOINT_REVIEW_DUE;
@@ -96,6 +96,26 @@ pub struct ImpactSummary {
     pub truncated: bool,
 }
 
+impl ImpactSummary {
+    /// The counts in plain words.
+    pub fn note(&self) -> String {
+        let mut note = match (self.compared, self.affected) {
+            (0, _) => "No joint has an active release, so the change affects no registered \
+                       joint; release joints to see their impact here."
+                .to_owned(),
+            (n, 0) => format!("{n} joint(s) with an active release compared; none would change."),
+            (n, a) => format!(
+                "{n} joint(s) with an active release compared; {a} would change or no longer \
+                 compute."
+            ),
+        };
+        if self.truncated {
+            note.push_str(" The scan stopped at its bound: later joints were not compared.");
+        }
+        note
+    }
+}
+
 /// The impact of a change over the registered joints.
 #[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
 pub struct ImpactResponse {
@@ -103,6 +123,9 @@ pub struct ImpactResponse {
     pub catalogue_revision: i64,
     pub joints: Vec<JointImpact>,
     pub summary: ImpactSummary,
+    /// The summary in plain words (says so when no joint has an active
+    /// release).
+    pub note: String,
     /// Values are estimates to be confirmed by joint tests.
     pub caution: &'static str,
 }
@@ -203,41 +226,53 @@ fn compare_with(
     }
 }
 
+/// `id` when catalogue `current` holds that friction entry; else unknown,
+/// naming the body's `entry_id` (404).
+fn known_entry(current: &Snapshot, id: i64) -> Result<i64, AppError> {
+    if current.entries.iter().any(|e| e.id == id) {
+        return Ok(id);
+    }
+    Err(AppError::field(FieldProblem::unknown(
+        "entry_id",
+        format!("no friction entry with id {id}"),
+    )))
+}
+
 impl App {
-    /// The catalogue with `change` applied in memory (problems as for the
-    /// change itself: 422 naming the field, 404 for an unknown entry).
-    async fn changed_catalogue(&self, change: &ProposedChange) -> Result<Snapshot, AppError> {
-        let current = self.current();
-        let change = match change {
+    /// The catalogue change `change` stands for against `current` (a
+    /// friction test's proposal is built against `current`; problems as for
+    /// the change itself: 422 naming the field, 404 for an unknown entry or
+    /// test).
+    async fn catalogue_change(
+        &self,
+        current: &Snapshot,
+        change: &ProposedChange,
+    ) -> Result<Change, AppError> {
+        Ok(match change {
             ProposedChange::Create(e) => Change::CreateEntry(e.clone()),
             ProposedChange::Update { entry_id, entry } => Change::UpdateEntry {
-                id: *entry_id,
+                id: known_entry(current, *entry_id)?,
                 expected_revision: None,
                 entry: entry.clone(),
             },
             ProposedChange::Retire { entry_id } => Change::RetireEntry {
-                id: *entry_id,
+                id: known_entry(current, *entry_id)?,
                 expected_revision: None,
             },
-            ProposedChange::FrictionTest { id, basis } => {
-                let (entry_id, entry) = self.proposed_entry(*id, basis).await?;
-                Change::UpdateEntry {
-                    id: entry_id,
-                    expected_revision: None,
-                    entry,
-                }
-            }
-        };
-        let set = ChangeSet {
-            actor: "impact".into(),
-            reason: "impact of a proposed change".into(),
-            evidence: None,
-            items: vec![ChangeItem {
-                at: "entry.".into(),
-                change,
-            }],
-        };
-        Ok(catalogue::apply(&current, &set)?.snapshot)
+            ProposedChange::FrictionTest { id, basis } => self
+                .proposed_change(*id, basis, current)
+                .await
+                .map_err(|e| match e {
+                    // The stored series' own `id` is the body's `friction_test`.
+                    AppError::Fields(mut problems) => {
+                        for p in problems.iter_mut().filter(|p| p.field == "id") {
+                            p.field = "friction_test".into();
+                        }
+                        AppError::Fields(problems)
+                    }
+                    other => other,
+                })?,
+        })
     }
 
     /// Every joint with an active release, paged; `each` sees one page.
@@ -289,26 +324,48 @@ impl App {
     /// The impact of `change` over every joint with an active release; see
     /// the module. Writes nothing.
     pub async fn impact(&self, change: &ProposedChange) -> Result<ImpactResponse, AppError> {
-        let snap = self.changed_catalogue(change).await?;
+        let current = self.current();
+        let change = self.catalogue_change(&current, change).await?;
+        self.impact_of(&current, change).await
+    }
+
+    /// The impact of catalogue change `change` applied in memory to
+    /// `current` (the one computation behind the impact route and the
+    /// friction-test proposal). Writes nothing.
+    pub async fn impact_of(
+        &self,
+        current: &Snapshot,
+        change: Change,
+    ) -> Result<ImpactResponse, AppError> {
+        let set = ChangeSet {
+            actor: "impact".into(),
+            reason: "impact of a proposed change".into(),
+            evidence: None,
+            items: vec![ChangeItem {
+                at: "entry.".into(),
+                change,
+            }],
+        };
+        let snap = catalogue::apply(current, &set)?.snapshot;
         let mut joints = Vec::new();
         let truncated = self
             .scan_released(|page| {
                 joints.extend(page.iter().map(|(j, r)| compare(j, r, &snap)));
             })
             .await?;
-        let affected = joints.iter().filter(|j| j.changed).count();
-        let largest = joints
-            .iter()
-            .filter_map(|j| j.change_percent)
-            .fold(0.0, f64::max);
+        let summary = ImpactSummary {
+            compared: joints.len(),
+            affected: joints.iter().filter(|j| j.changed).count(),
+            largest_change_percent: joints
+                .iter()
+                .filter_map(|j| j.change_percent)
+                .fold(0.0, f64::max),
+            truncated,
+        };
         Ok(ImpactResponse {
-            catalogue_revision: self.current().revision,
-            summary: ImpactSummary {
-                compared: joints.len(),
-                affected,
-                largest_change_percent: largest,
-                truncated,
-            },
+            catalogue_revision: current.revision,
+            note: summary.note(),
+            summary,
             joints,
             caution: CAUTION,
         })

@@ -35,7 +35,7 @@ struct UnitsQuery {
     pub units: Option<Units>,
 }
 
-/// `?basis=observed|three_sigma&units=si|us`.
+/// `?basis=observed|three_sigma`.
 #[derive(Debug, Clone, Deserialize, IntoParams)]
 #[serde(deny_unknown_fields)]
 #[into_params(parameter_in = Query)]
@@ -43,9 +43,6 @@ pub struct ProposalQuery {
     /// `observed` (min to max of the series) or `three_sigma` (mean ± 3σ).
     #[param(pattern = "^(observed|three_sigma)$")]
     pub basis: Option<String>,
-    /// `si` (default) or `us`.
-    #[param(value_type = Option<String>, pattern = "^(si|us)$")]
-    pub units: Option<Units>,
 }
 
 /// Body of an apply: which basis, and why.
@@ -132,8 +129,10 @@ async fn get_series(
 }
 
 /// The catalogue change a stored series supports: new ranges for the
-/// matching friction entry (observed range or mean ± 3σ), the diff, and how
-/// the specs of M8/M10/M12 8.8 joints would move.
+/// matching friction entry (observed range or mean ± 3σ), the diff, and its
+/// impact on every joint with an active release (as
+/// `POST /v1/catalogue/impact` answers for this test and basis; each
+/// joint's figures in its own tool unit). Writes nothing.
 #[utoipa::path(
     tag = TAG,
     params(("id" = i64, Path, description = "Series id"), ProposalQuery),
@@ -152,11 +151,7 @@ async fn get_proposal(
 ) -> Result<HttpResponse, ApiError> {
     let proposal = state
         .app
-        .series_proposal(
-            id.into_inner(),
-            q.basis.as_deref(),
-            q.units.unwrap_or_default(),
-        )
+        .series_proposal(id.into_inner(), q.basis.as_deref())
         .await?;
     Ok(HttpResponse::Ok().json(proposal))
 }
