@@ -16,6 +16,7 @@ mod answer_cache;
 mod auth;
 mod batch;
 mod batch_setpoints;
+mod big_sizes;
 mod bolt_spec;
 mod catalogue;
 mod catalogue_cli;

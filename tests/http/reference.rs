@@ -151,11 +151,11 @@ async fn bearing_types_lists_heads_washers_and_hole_series() {
     ] {
         assert!(heads.iter().any(|x| x == h), "{heads:?}");
     }
-    assert_eq!(ids("washers"), ["none", "plain"]);
+    assert_eq!(ids("washers"), ["none", "plain", "plain-chamfered"]);
     assert_eq!(ids("hole_series"), ["fine", "medium", "coarse"]);
     // every listed value is accepted by the spec route
     for head in &heads {
-        let path = if head == "heavy-hex-head" {
+        let path = if head == "heavy-hex-head" || head == "heavy-hex-nut" {
             format!("/v1/tightening-specs?thread=1%2F2-13%20UNC&property_class=sae-j429-5&thread_friction=0.14&bearing_friction=0.14&head={head}")
         } else if [
             "pan-head",

@@ -11,13 +11,19 @@
 //! Choices:
 //! - Hexagon head: ISO 4017 / ISO 4014 d_w,min, product grade A for
 //!   d ≤ 24 mm, grade B above (product grades: ISO 4014/4017, recalled from
-//!   memory). Hexagon nut: ISO 4032 d_w,min, equal to grade A up to M16 and
-//!   grade B above (recalled from memory). Socket head: ISO 4762 d_w,min.
-//!   Hexagon flange: ISO 4162 d_w,min (recalled from memory).
+//!   memory), M1.6 to M64. Hexagon nut: ISO 4032 d_w,min (ISO 4033 has the
+//!   same s and d_w), equal to grade A up to M16 and grade B above (recalled
+//!   from memory), M1.6 to M64. Socket head: ISO 4762 d_w,min, M3 to M39.
+//!   Flange bolt ISO 4162 and flange nut ISO 4161: d_w,min with the flange
+//!   diameter d_c shown, M5 to M20 (recalled from memory).
 //! - Inch: hex cap screw and heavy hex per ASME B18.2.1 with the bearing
 //!   face taken as the width across flats F min (assumption); socket head
 //!   per ASME B18.3 with the bearing face taken as head diameter A max (an
-//!   upper estimate). Inch hexagon nuts and flange heads are not tabulated.
+//!   upper estimate); hex and heavy hex nuts per ASME B18.2.2, bearing face
+//!   taken as F min (the same assumption). Inch flange heads are not
+//!   tabulated. Every table's size range is enforced (field `head`).
+//! - Washers: ISO 7089 (plain) and ISO 7090 (chamfered) d1, d2, h to M64;
+//!   ASME B18.22.1 type A narrow for inch.
 //! - With a plain washer the head turns on the washer: outer = min(head d_w,
 //!   washer outer diameter), inner = washer inner diameter. The clearance
 //!   hole does not bound this face, because the washer bridges it.
@@ -27,11 +33,14 @@
 
 mod countersunk;
 mod explicit;
+mod heads;
 mod names;
 mod small_heads;
 mod table;
 #[cfg(test)]
 mod tests;
+#[cfg(test)]
+mod tests_large;
 mod washer;
 
 use names::unknown;
@@ -123,16 +132,20 @@ macro_rules! named_enum {
 named_enum!(
     /// What turns on the bearing surface.
     HeadType, "head type", "head", {
-        /// ISO 4014/4017; ASME B18.2.1 hex cap screw.
-        HexagonHead => "hexagon-head", "hexagon head bolt or screw (ISO 4014/4017; ASME B18.2.1 hex cap screw)";
+        /// ISO 4014/4017 (M1.6–M64); ASME B18.2.1 hex cap screw.
+        HexagonHead => "hexagon-head", "hexagon head bolt or screw (ISO 4014/4017, M1.6–M64; ASME B18.2.1 hex cap screw)";
         /// ASME B18.2.1 heavy hex screw (inch only).
         HeavyHexHead => "heavy-hex-head", "heavy hex screw (ASME B18.2.1; inch only)";
-        /// ISO 4762; ASME B18.3.
-        SocketHead => "socket-head", "hexagon socket head cap screw (ISO 4762; ASME B18.3)";
-        /// ISO 4162 (metric only).
-        HexagonFlange => "hexagon-flange", "hexagon flange bolt (ISO 4162; metric only)";
-        /// ISO 4032 (metric only).
-        HexagonNut => "hexagon-nut", "hexagon nut turned, bolt held (ISO 4032; metric only)";
+        /// ISO 4762 (M3–M39 tabulated); ASME B18.3.
+        SocketHead => "socket-head", "hexagon socket head cap screw (ISO 4762, M3–M39 tabulated; ASME B18.3)";
+        /// ISO 4162 (metric only, M5–M20).
+        HexagonFlange => "hexagon-flange", "hexagon flange bolt (ISO 4162; metric only, M5–M20; d_w under the flange)";
+        /// ISO 4032 / ISO 4033; ASME B18.2.2 hex nut.
+        HexagonNut => "hexagon-nut", "hexagon nut turned, bolt held (ISO 4032 / ISO 4033, M1.6–M64; inch: ASME B18.2.2 hex nut, 1/4–1-1/2 in)";
+        /// ASME B18.2.2 heavy hex nut (inch only).
+        HeavyHexNut => "heavy-hex-nut", "heavy hex nut turned, bolt held (ASME B18.2.2; inch only, 1/4–1-1/2 in)";
+        /// ISO 4161 (metric only, M5–M20).
+        HexagonFlangeNut => "hexagon-flange-nut", "hexagon nut with flange turned, bolt held (ISO 4161; metric only, M5–M20; d_w under the flange)";
         /// ISO 7045 / ISO 14583 (metric only, M2–M10).
         PanHead => "pan-head", "pan head screw (ISO 7045 / ISO 14583; metric only, M2–M10; d_k as bearing face)";
         /// ISO 7380-1 (metric only, M3–M16).
@@ -157,7 +170,8 @@ named_enum!(
     /// Washer under the turned part.
     Washer, "washer", "washer", {
         None => "none", "no washer: the head or nut bears on the clamped part";
-        Plain => "plain", "plain washer (ISO 7089 normal series; inch: ASME B18.22.1 type A narrow)";
+        Plain => "plain", "plain washer (ISO 7089 normal series, M1.6–M64; inch: ASME B18.22.1 type A narrow, 1/4–1-1/2 in)";
+        PlainChamfered => "plain-chamfered", "plain washer, chamfered (ISO 7090 normal series, M5–M64; metric only)";
     }
 );
 
@@ -238,98 +252,6 @@ fn hole_with_source(
     Ok((length(thread, v), source))
 }
 
-/// Outer bearing diameter of the head or nut alone, with its source.
-fn head_diameter(thread: &ThreadGeometry, head: HeadType) -> Result<(f64, String), EngineError> {
-    let d = table_diameter(thread);
-    let missing = |what: &str| {
-        EngineError::invalid(
-            "head",
-            format!(
-                "{what} has no table row for {}; {EXPLICIT}",
-                thread.designation
-            ),
-        )
-    };
-    if thread.is_inch() {
-        let (tab, what, basis) = match head {
-            HeadType::HexagonHead => (
-                table::B18_2_1_HEX,
-                "ASME B18.2.1 hex cap screw",
-                "F min taken as bearing face (assumption)",
-            ),
-            HeadType::HeavyHexHead => (
-                table::B18_2_1_HEAVY,
-                "ASME B18.2.1 heavy hex screw",
-                "F min taken as bearing face (assumption)",
-            ),
-            HeadType::SocketHead => (
-                table::B18_3,
-                "ASME B18.3 socket head cap screw",
-                "head diameter A max taken as bearing face (upper estimate), recalled from memory",
-            ),
-            HeadType::HexagonFlange
-            | HeadType::HexagonNut
-            | HeadType::PanHead
-            | HeadType::ButtonHead
-            | HeadType::CountersunkSocket
-            | HeadType::CountersunkSlotted => return Err(missing(head.description())),
-        };
-        let (_, dw) = table::row(tab, d, |r| r.0).ok_or_else(|| missing(what))?;
-        return Ok((dw, format!("d_w {dw} in: {what}, {basis}")));
-    }
-    match head {
-        HeadType::HexagonHead | HeadType::HexagonNut => {
-            let (what, grade_a_to) = if head == HeadType::HexagonHead {
-                ("ISO 4014/4017", 24.0)
-            } else {
-                ("ISO 4032", 16.0)
-            };
-            let (_, _, a, b) =
-                table::row(table::ISO4017, d, |r| r.0).ok_or_else(|| missing(what))?;
-            let (dw, grade) = if d <= grade_a_to && a > 0.0 {
-                (a, "A")
-            } else {
-                (b, "B")
-            };
-            let recalled = !table::iso4017_published(d) || head == HeadType::HexagonNut;
-            Ok((
-                dw,
-                format!(
-                    "d_w {dw} mm: {what} d_w,min product grade {grade}{}",
-                    mem(recalled)
-                ),
-            ))
-        }
-        HeadType::SocketHead => {
-            let (_, _, dw) =
-                table::row(table::ISO4762, d, |r| r.0).ok_or_else(|| missing("ISO 4762"))?;
-            Ok((
-                dw,
-                format!("d_w {dw} mm: ISO 4762 d_w,min, recalled from memory"),
-            ))
-        }
-        HeadType::HexagonFlange => {
-            let (_, dw) =
-                table::row(table::ISO4162, d, |r| r.0).ok_or_else(|| missing("ISO 4162"))?;
-            Ok((
-                dw,
-                format!("d_w {dw} mm: ISO 4162 d_w,min, recalled from memory"),
-            ))
-        }
-        HeadType::PanHead | HeadType::ButtonHead => small_heads::diameter(thread, head),
-        HeadType::CountersunkSocket | HeadType::CountersunkSlotted => {
-            countersunk::diameter(thread, head)
-        }
-        HeadType::HeavyHexHead => Err(EngineError::invalid(
-            "head",
-            format!(
-                "heavy-hex-head is tabulated for Unified inch threads only (ASME B18.2.1), not for {}; {EXPLICIT}",
-                thread.designation
-            ),
-        )),
-    }
-}
-
 /// The bearing surface from the head, washer and hole tables.
 pub fn bearing_surface(
     thread: &ThreadGeometry,
@@ -337,7 +259,7 @@ pub fn bearing_surface(
     washer: Washer,
     hole: HoleSeries,
 ) -> Result<BearingSurface, EngineError> {
-    let (dw, head_source) = head_diameter(thread, head)?;
+    let (dw, head_source) = heads::diameter(thread, head)?;
     let conical_seat = countersunk::is_countersunk(head);
     match washer {
         Washer::None => {
@@ -349,35 +271,22 @@ pub fn bearing_surface(
                 conical_seat,
             })
         }
-        Washer::Plain if conical_seat => Err(EngineError::invalid(
+        _ if conical_seat => Err(EngineError::invalid(
             "washer",
             format!(
                 "a {} seats in a countersink; a plain washer cannot sit under it (give washer none)",
                 head.id()
             ),
         )),
-        Washer::Plain => {
-            let d = table_diameter(thread);
-            let (tab, what) = if thread.is_inch() {
-                (table::B18_22_1, "ASME B18.22.1 type A narrow")
-            } else {
-                (table::ISO7089, "ISO 7089")
-            };
-            let (_, inner, outer) = table::row(tab, d, |r| r.0).ok_or_else(|| {
-                EngineError::invalid(
-                    "washer",
-                    format!(
-                        "{what} plain washers have no table row for {}; {EXPLICIT}",
-                        thread.designation
-                    ),
-                )
-            })?;
+        _ => {
+            let w = washer::row(thread, washer)?;
             let unit = if thread.is_inch() { "in" } else { "mm" };
             Ok(BearingSurface {
-                outer_diameter: length(thread, dw.min(outer)),
-                inner_diameter: length(thread, inner),
+                outer_diameter: length(thread, dw.min(w.outer)),
+                inner_diameter: length(thread, w.inner),
                 source: format!(
-                    "{head_source}; head turns on a plain washer {what} (inner {inner} {unit}, outer {outer} {unit}, recalled from memory): outer = min(d_w, washer outer), inner = washer inner"
+                    "{head_source}; head turns on a plain washer {}: outer = min(d_w, washer outer), inner = washer inner",
+                    w.describe(unit)
                 ),
                 conical_seat: false,
             })

@@ -1,5 +1,6 @@
 //! Strength grades of fasteners: ISO 898-1, ISO 3506-1, SAE J429, ASTM A574,
-//! and the ASTM inch bolting grades A193 B7/B7M, A320 L7, F3125 A325/A490, A449.
+//! the ASTM inch bolting grades A193 B7/B7M, A320 L7, F3125 A325/A490, A449,
+//! and for metric bolts above M39 ASTM A193M B7/B7M/B8/B8M and A320M L7.
 //!
 //! Public surface:
 //! - [`property_classes`] lists every grade with its size ranges;
@@ -15,9 +16,13 @@
 //! a size range of the grade. ISO 898-1 fine threads below M8 are refused:
 //! the standard covers fine threads M8x1 to M39x3 (recalled from memory).
 
+mod large;
+mod refusal;
 mod table;
 #[cfg(test)]
 mod tests;
+#[cfg(test)]
+mod tests_large;
 
 use std::sync::OnceLock;
 
@@ -72,13 +77,15 @@ pub enum GradeFamily {
     AstmA574,
     /// ASTM inch bolting: A193, A320, F3125, A449.
     AstmBolting,
+    /// ASTM metric bolting: A193M, A320M (the sizes above M39).
+    AstmBoltingMetric,
 }
 
 impl GradeFamily {
     /// The thread form the family's standard is written for.
     pub fn thread_form(self) -> ThreadForm {
         match self {
-            Self::Iso898 | Self::Iso3506 => ThreadForm::IsoMetric,
+            Self::Iso898 | Self::Iso3506 | Self::AstmBoltingMetric => ThreadForm::IsoMetric,
             Self::SaeJ429 | Self::AstmA574 | Self::AstmBolting => ThreadForm::Unified,
         }
     }
@@ -133,7 +140,13 @@ pub struct GradeInfo {
 /// Every grade, in the order the reference endpoint lists them.
 pub fn property_classes() -> &'static [GradeInfo] {
     static GRADES: OnceLock<Vec<GradeInfo>> = OnceLock::new();
-    GRADES.get_or_init(|| table::GRADES.iter().map(build).collect())
+    GRADES.get_or_init(|| {
+        table::GRADES
+            .iter()
+            .chain(large::GRADES)
+            .map(build)
+            .collect()
+    })
 }
 
 fn build(g: &table::RawGrade) -> GradeInfo {
@@ -219,6 +232,11 @@ fn key_matches(key: &[u8], id: &str) -> bool {
         "astm-f3125-a325" => matches!(key, b"astmf3125a325" | b"f3125a325" | b"a325" | b"astma325"),
         "astm-f3125-a490" => matches!(key, b"astmf3125a490" | b"f3125a490" | b"a490" | b"astma490"),
         "astm-a449" => matches!(key, b"astma449" | b"a449"),
+        "astm-a193m-b7" => matches!(key, b"astma193mb7" | b"a193mb7"),
+        "astm-a193m-b7m" => matches!(key, b"astma193mb7m" | b"a193mb7m"),
+        "astm-a320m-l7" => matches!(key, b"astma320ml7" | b"a320ml7"),
+        "astm-a193m-b8-1" => matches!(key, b"astma193mb81" | b"a193mb81" | b"a193mb8class1"),
+        "astm-a193m-b8m-1" => matches!(key, b"astma193mb8m1" | b"a193mb8m1" | b"a193mb8mclass1"),
         _ => {
             let compact = id.bytes().filter(u8::is_ascii_alphanumeric);
             key.len() == compact.clone().count()
@@ -297,27 +315,7 @@ pub fn strength_for(id: &str, thread: &ThreadGeometry) -> Result<Strength, Engin
     let grade = find_property_class(id)?;
     let form = grade.family.thread_form();
     if thread.form != form {
-        let (reason, suggestions) = match form {
-            ThreadForm::IsoMetric => (
-                format!(
-                    "{} ({}) applies to ISO metric threads, not to {}",
-                    grade.id, grade.standard, thread.designation
-                ),
-                vec!["sae-j429-5".into(), "sae-j429-8".into(), "astm-a574".into()],
-            ),
-            ThreadForm::Unified => (
-                format!(
-                    "{} ({}) applies to Unified inch threads, not to {}",
-                    grade.name, grade.standard, thread.designation
-                ),
-                vec!["8.8".into(), "10.9".into(), "12.9".into()],
-            ),
-        };
-        return Err(EngineError::Invalid {
-            field: FIELD.into(),
-            reason,
-            suggestions,
-        });
+        return Err(refusal::wrong_form(grade, thread));
     }
     if grade.family == GradeFamily::Iso898
         && thread.series == ThreadSeries::Fine
@@ -333,22 +331,7 @@ pub fn strength_for(id: &str, thread: &ThreadGeometry) -> Result<Strength, Engin
     }
     let d = thread.nominal_diameter;
     let Some(range) = grade.size_ranges.iter().find(|r| r.covers(d)) else {
-        let ranges: Vec<&str> = grade.size_ranges.iter().map(|r| r.label).collect();
-        return Err(EngineError::Invalid {
-            field: FIELD.into(),
-            reason: format!(
-                "{} is defined for {} only ({}); {} is outside",
-                grade.name,
-                ranges.join(", "),
-                grade.standard,
-                thread.designation
-            ),
-            suggestions: property_classes()
-                .iter()
-                .filter(|g| g.family == grade.family && g.size_ranges.iter().any(|r| r.covers(d)))
-                .map(|g| g.id.to_string())
-                .collect(),
-        });
+        return Err(refusal::outside_sizes(grade, thread));
     };
     Ok(Strength {
         id: grade.id.to_string(),

@@ -82,7 +82,8 @@ pub struct PropertyClass {
     pub id: String,
     pub name: String,
     pub standard: String,
-    /// `iso898`, `iso3506`, `sae_j429`, `astm_a574`, `astm_bolting`.
+    /// `iso898`, `iso3506`, `sae_j429`, `astm_a574`, `astm_bolting`,
+    /// `astm_bolting_metric`.
     pub family: String,
     /// Which yield value the standard specifies (`lower_yield`,
     /// `proof_strength02`, `full_size_rpf`, `inch_yield`).

@@ -7,7 +7,7 @@ use uom::si::pressure::megapascal;
 
 use super::super::thread::ThreadGeometry;
 use super::super::EngineError;
-use super::{hole_with_source, length, table, table_diameter, HoleSeries, Washer};
+use super::{hole_with_source, length, table, table_diameter, HoleSeries, Washer, EXPLICIT};
 
 /// Limiting surface pressure p_G taken for a plain steel washer of hardness
 /// class 200 HV (ISO 7089; ASME B18.22.1 type A, unhardened): 200 HV is
@@ -40,21 +40,8 @@ pub fn washer_bearing(
     if washer == Washer::None {
         return Ok(None);
     }
-    let d = table_diameter(thread);
-    let (tab, what) = if thread.is_inch() {
-        (table::B18_22_1, "ASME B18.22.1 type A narrow")
-    } else {
-        (table::ISO7089, "ISO 7089")
-    };
-    let (_, _, outer) = table::row(tab, d, |r| r.0).ok_or_else(|| {
-        EngineError::invalid(
-            "washer",
-            format!(
-                "{what} plain washers have no table row for {}; give bearing diameters explicitly",
-                thread.designation
-            ),
-        )
-    })?;
+    let w = row(thread, washer)?;
+    let outer = w.outer;
     let (hole_d, hole_source) = hole_with_source(thread, hole)?;
     let unit = if thread.is_inch() { "in" } else { "mm" };
     Ok(Some(WasherBearing {
@@ -62,7 +49,87 @@ pub fn washer_bearing(
         part_hole_diameter: hole_d,
         permissible_pressure: Pressure::new::<megapascal>(PLAIN_WASHER_P_G_MPA),
         source: format!(
-            "washer {what} outer {outer} {unit} (recalled from memory) on the part's hole ({hole_source}); washer p_G {PLAIN_WASHER_P_G_MPA} MPa for 200 HV steel (between the VDI 2230 Part 1:2003 rows E295 and C45, as reproduced in a supplier's technical tables; common practice)"
+            "washer {} on the part's hole ({hole_source}); washer p_G {PLAIN_WASHER_P_G_MPA} MPa for 200 HV steel (between the VDI 2230 Part 1:2003 rows E295 and C45, as reproduced in a supplier's technical tables; common practice)",
+            w.describe(unit)
         ),
     }))
+}
+
+/// One washer's dimensions from its standard's table, in the table unit.
+pub(super) struct WasherRow {
+    /// Inner diameter d1 (min).
+    pub inner: f64,
+    /// Outer diameter d2 (max).
+    pub outer: f64,
+    /// Thickness h (nominal); None where the table gives none here.
+    pub thickness: Option<f64>,
+    pub what: &'static str,
+}
+
+impl WasherRow {
+    /// `ISO 7089 (d1 52 mm, d2 92 mm, h 8 mm, recalled from memory)`.
+    pub fn describe(&self, unit: &str) -> String {
+        let h = match self.thickness {
+            Some(h) => format!(", h {h} {unit}"),
+            None => String::new(),
+        };
+        format!(
+            "{} (d1 {} {unit}, d2 {} {unit}{h}, recalled from memory)",
+            self.what, self.inner, self.outer
+        )
+    }
+}
+
+/// The washer's row for the thread's size: ISO 7089 (M1.6 to M64) and
+/// ISO 7090 (M5 to M64) for metric threads, ASME B18.22.1 type A narrow
+/// (1/4 to 1-1/2 in) for inch. Invalid (field `washer`) outside the
+/// standard's range, naming it.
+pub(super) fn row(thread: &ThreadGeometry, washer: Washer) -> Result<WasherRow, EngineError> {
+    let d = table_diameter(thread);
+    let refuse = |what: &str, range: &str| {
+        EngineError::invalid(
+            "washer",
+            format!(
+                "{what} washers are tabulated for {range}; {} is outside; {EXPLICIT}",
+                thread.designation
+            ),
+        )
+    };
+    match (washer, thread.is_inch()) {
+        (Washer::None, _) => Err(EngineError::invalid("washer", "no washer given")),
+        (Washer::Plain, true) => {
+            let what = "ASME B18.22.1 type A narrow";
+            let (_, inner, outer) = table::row(table::B18_22_1, d, |r| r.0)
+                .ok_or_else(|| refuse(what, "1/4 to 1-1/2 in"))?;
+            Ok(WasherRow {
+                inner,
+                outer,
+                thickness: None,
+                what,
+            })
+        }
+        (Washer::PlainChamfered, true) => Err(EngineError::invalid(
+            "washer",
+            format!(
+                "plain-chamfered is an ISO 7090 metric washer; for {} give washer plain (ASME B18.22.1)",
+                thread.designation
+            ),
+        )),
+        (Washer::Plain | Washer::PlainChamfered, false) => {
+            let (what, range, from) = if washer == Washer::Plain {
+                ("ISO 7089", "M1.6 to M64", 1.6)
+            } else {
+                ("ISO 7090", "M5 to M64", 5.0)
+            };
+            let (_, inner, outer, h) = table::row(table::ISO7089, d, |r| r.0)
+                .filter(|_| d >= from - 1e-6)
+                .ok_or_else(|| refuse(what, range))?;
+            Ok(WasherRow {
+                inner,
+                outer,
+                thickness: Some(h),
+                what,
+            })
+        }
+    }
 }

@@ -27,7 +27,7 @@ pub(crate) struct RawGrade {
     pub notes: &'static [&'static str],
 }
 
-const fn r(
+pub(crate) const fn r(
     min: f64,
     min_inclusive: bool,
     max: f64,

@@ -67,11 +67,13 @@ pub(super) fn validate_bearing(b: &BearingSurface) -> Result<(), EngineError> {
     Ok(())
 }
 
-/// True for ISO 3506 austenitic grades (A1–A5, e.g. `A2-70`).
+/// True for ISO 3506 austenitic grades (A1–A5, e.g. `A2-70`) and the
+/// austenitic ASTM A193M grades B8 and B8M.
 pub fn is_stainless_grade(id: &str) -> bool {
     let b = id.as_bytes();
-    b.len() >= 3
-        && b[0].eq_ignore_ascii_case(&b'a')
-        && (b'1'..=b'5').contains(&b[1])
-        && b[2] == b'-'
+    id.starts_with("astm-a193m-b8")
+        || (b.len() >= 3
+            && b[0].eq_ignore_ascii_case(&b'a')
+            && (b'1'..=b'5').contains(&b[1])
+            && b[2] == b'-')
 }
