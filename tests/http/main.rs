@@ -53,6 +53,7 @@ mod specs;
 mod specs_support;
 mod store;
 mod subscriptions;
+mod tag_scope;
 mod ui;
 mod ui_browser;
 mod webhook_receiver;

@@ -177,6 +177,22 @@ fn request_field(path: &str, message: &str) -> String {
     }
 }
 
+/// A joint's tags as a spec request's `joint_tags` (none: `None`).
+pub(crate) fn with_tags(tags: &[String]) -> Option<Vec<String>> {
+    (!tags.is_empty()).then(|| tags.to_vec())
+}
+
+/// A joint's stored request as a spec request computed with the joint's
+/// tags: the friction entries limited to one of them apply.
+pub(crate) fn joint_spec_request(
+    request: &Value,
+    tags: &[String],
+) -> Result<SpecRequest, serde_json::Error> {
+    let mut req: SpecRequest = serde_json::from_value(request.clone())?;
+    req.joint_tags = with_tags(tags);
+    Ok(req)
+}
+
 impl App {
     /// Every problem of a definition body: the registry's reading, then the
     /// request as a spec request computed against the current catalogue,
@@ -192,7 +208,20 @@ impl App {
             Ok(_) => Vec::new(),
         };
         if let Some(request @ Value::Object(_)) = body.get("request") {
-            problems.extend(self.request_problems(request));
+            let tags: Vec<String> = match &read {
+                Ok(def) => def.tags.clone(),
+                Err(_) => body
+                    .get("tags")
+                    .and_then(Value::as_array)
+                    .map(|t| {
+                        t.iter()
+                            .filter_map(Value::as_str)
+                            .map(str::to_string)
+                            .collect()
+                    })
+                    .unwrap_or_default(),
+            };
+            problems.extend(self.request_problems(request, &tags));
         }
         if let Some(setpoints) = body.get("setpoints").and_then(Value::as_object) {
             problems.extend(setpoint_problems(setpoints));
@@ -203,16 +232,26 @@ impl App {
         }
     }
 
-    /// The problems of a joint's spec request: unreadable fields, then
-    /// what keeps it from computing at the current catalogue revision.
-    fn request_problems(&self, request: &Value) -> Vec<FieldProblem> {
-        let req: SpecRequest = match serde_path_to_error::deserialize(request) {
+    /// The problems of a joint's spec request: unreadable fields, a
+    /// `joint_tags` of its own (the joint's `tags` are its tags), then what
+    /// keeps it from computing with the joint's tags at the current
+    /// catalogue revision (a problem of the tags is named under `tags`).
+    fn request_problems(&self, request: &Value, tags: &[String]) -> Vec<FieldProblem> {
+        let mut req: SpecRequest = match serde_path_to_error::deserialize(request) {
             Ok(r) => r,
             Err(e) => {
                 let field = request_field(&e.path().to_string(), &e.inner().to_string());
                 return vec![FieldProblem::invalid(field, e.into_inner().to_string())];
             }
         };
+        if req.joint_tags.is_some() {
+            return vec![FieldProblem::invalid(
+                "request.joint_tags",
+                "a joint's request takes no joint_tags: the joint's own tags choose the \
+                 friction entries limited to a tag; give them in tags",
+            )];
+        }
+        req.joint_tags = with_tags(tags);
         match compute_one(&req, &self.current()) {
             Ok(_) => Vec::new(),
             Err(e) => {
@@ -223,6 +262,8 @@ impl App {
                         class: super::ProblemClass::Invalid,
                         field: if p.field.is_empty() {
                             "request".into()
+                        } else if let Some(rest) = p.field.strip_prefix("joint_tags") {
+                            format!("tags{rest}")
                         } else {
                             format!("request.{}", p.field)
                         },
