@@ -16,11 +16,15 @@ use super::spec::rounding::check_resolution;
 use super::spec::tool::torque_unit;
 use super::spec::{compute_one, SpecRequest};
 use super::{App, AppError, FieldProblem};
+
+mod request;
 use crate::catalogue::ChangeProblem;
 use crate::registry::joint::TAG_MAX;
 use crate::registry::{Joint, JointDefinition, JointId, Page, RegistryError, ReleaseStatus};
 use crate::store::joints::JointFilter;
 use crate::store::{RegistryStoreError, StoreError};
+pub(crate) use request::joint_spec_request;
+use request::{readable_tags, request_field, with_tags};
 
 /// Ids read to find the near ones of an unknown id.
 pub const NEAR_IDS_SCANNED: u32 = 200;
@@ -154,45 +158,6 @@ impl From<RegistryStoreError> for AppError {
     }
 }
 
-/// The field a serde refusal of the spec request names, under `request.`:
-/// the path serde was at, or the key an unknown-field message quotes.
-fn request_field(path: &str, message: &str) -> String {
-    let quoted = || {
-        let rest = message.split_once('`')?.1;
-        Some(rest.split_once('`')?.0.to_string())
-    };
-    let inner = if path.is_empty() || path == "." {
-        message
-            .starts_with("unknown field")
-            .then(quoted)
-            .flatten()
-            .unwrap_or_default()
-    } else {
-        path.to_string()
-    };
-    if inner.is_empty() {
-        "request".into()
-    } else {
-        format!("request.{inner}")
-    }
-}
-
-/// A joint's tags as a spec request's `joint_tags` (none: `None`).
-pub(crate) fn with_tags(tags: &[String]) -> Option<Vec<String>> {
-    (!tags.is_empty()).then(|| tags.to_vec())
-}
-
-/// A joint's stored request as a spec request computed with the joint's
-/// tags: the friction entries limited to one of them apply.
-pub(crate) fn joint_spec_request(
-    request: &Value,
-    tags: &[String],
-) -> Result<SpecRequest, serde_json::Error> {
-    let mut req: SpecRequest = serde_json::from_value(request.clone())?;
-    req.joint_tags = with_tags(tags);
-    Ok(req)
-}
-
 impl App {
     /// Every problem of a definition body: the registry's reading, then the
     /// request as a spec request computed against the current catalogue,
@@ -210,16 +175,7 @@ impl App {
         if let Some(request @ Value::Object(_)) = body.get("request") {
             let tags: Vec<String> = match &read {
                 Ok(def) => def.tags.clone(),
-                Err(_) => body
-                    .get("tags")
-                    .and_then(Value::as_array)
-                    .map(|t| {
-                        t.iter()
-                            .filter_map(Value::as_str)
-                            .map(str::to_string)
-                            .collect()
-                    })
-                    .unwrap_or_default(),
+                Err(_) => readable_tags(body),
             };
             problems.extend(self.request_problems(request, &tags));
         }
