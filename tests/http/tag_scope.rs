@@ -5,7 +5,7 @@
 //! say why, an untagged joint keeps the generic entry, a second active
 //! entry for the same scope is refused as any duplicate is, two scoped
 //! entries for two tags of one joint are refused naming both, and the
-//! export carries the scope. Friction values are demo data.
+//! page and the export show the scope. Friction values are demo data.
 
 use reqwest::StatusCode;
 use serde_json::{json, Value};
@@ -226,6 +226,27 @@ async fn a_tag_scoped_entry_applies_to_the_joints_carrying_the_tag(db: &TestDb) 
     .await;
     assert_eq!(st, StatusCode::UNPROCESSABLE_ENTITY, "{p}");
     assert_eq!(problem_fields(&p), ["tags"]);
+
+    // The engineer's page shows the scope in the list and on the entry.
+    for path in [
+        "/ui/catalogue".to_string(),
+        format!("/ui/catalogue/entries/{scoped_id}"),
+    ] {
+        let r = app.get(&path).await;
+        assert_eq!(r.status(), StatusCode::OK, "{path}");
+        let page = r.text().await.unwrap();
+        assert!(
+            page.contains("joints tagged") && page.contains(TAG),
+            "{path}"
+        );
+    }
+    let page = app
+        .get(&format!("/ui/catalogue/entries/{generic_id}"))
+        .await
+        .text()
+        .await
+        .unwrap();
+    assert!(page.contains("every joint (generic)"));
 
     // The export carries the scope (JSON and CSV).
     let export = app.get_json("/v1/catalogue/export?format=json").await;
