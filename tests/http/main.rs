@@ -55,6 +55,7 @@ mod specs;
 mod specs_support;
 mod store;
 mod subscriptions;
+mod tag_scope;
 mod ui;
 mod ui_browser;
 mod ui_impact;

@@ -206,7 +206,9 @@ pub fn catalogue_problems(e: &CatalogueError) -> Vec<FieldProblem> {
         | CatalogueError::NoFrictionEntry { .. }
         | CatalogueError::NotFound { .. }
         | CatalogueError::UnknownRevision { .. } => ProblemClass::Unknown,
-        CatalogueError::Stale { .. } | CatalogueError::Invalid { .. } => ProblemClass::Invalid,
+        CatalogueError::Stale { .. }
+        | CatalogueError::Invalid { .. }
+        | CatalogueError::AmbiguousFriction { .. } => ProblemClass::Invalid,
     };
     match e {
         CatalogueError::Unknown { kind, given, .. } => {
@@ -227,6 +229,14 @@ pub fn catalogue_problems(e: &CatalogueError) -> Vec<FieldProblem> {
             ),
         )
         .with_suggestions(e.suggestions().to_vec())],
+        CatalogueError::AmbiguousFriction { field, .. } => {
+            let text = e.to_string();
+            let reason = text
+                .strip_prefix(&format!("{field}: "))
+                .unwrap_or(&text)
+                .to_string();
+            vec![FieldProblem::new(class, field.clone(), reason)]
+        }
         _ => e
             .problems()
             .into_iter()

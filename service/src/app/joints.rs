@@ -16,11 +16,15 @@ use super::spec::rounding::check_resolution;
 use super::spec::tool::torque_unit;
 use super::spec::{compute_one, SpecRequest};
 use super::{App, AppError, FieldProblem};
+
+mod request;
 use crate::catalogue::ChangeProblem;
 use crate::registry::joint::TAG_MAX;
 use crate::registry::{Joint, JointDefinition, JointId, Page, RegistryError, ReleaseStatus};
 use crate::store::joints::JointFilter;
 use crate::store::{RegistryStoreError, StoreError};
+pub(crate) use request::joint_spec_request;
+use request::{readable_tags, request_field, with_tags};
 
 /// Ids read to find the near ones of an unknown id.
 pub const NEAR_IDS_SCANNED: u32 = 200;
@@ -154,29 +158,6 @@ impl From<RegistryStoreError> for AppError {
     }
 }
 
-/// The field a serde refusal of the spec request names, under `request.`:
-/// the path serde was at, or the key an unknown-field message quotes.
-fn request_field(path: &str, message: &str) -> String {
-    let quoted = || {
-        let rest = message.split_once('`')?.1;
-        Some(rest.split_once('`')?.0.to_string())
-    };
-    let inner = if path.is_empty() || path == "." {
-        message
-            .starts_with("unknown field")
-            .then(quoted)
-            .flatten()
-            .unwrap_or_default()
-    } else {
-        path.to_string()
-    };
-    if inner.is_empty() {
-        "request".into()
-    } else {
-        format!("request.{inner}")
-    }
-}
-
 impl App {
     /// Every problem of a definition body: the registry's reading, then the
     /// request as a spec request computed against the current catalogue,
@@ -192,7 +173,11 @@ impl App {
             Ok(_) => Vec::new(),
         };
         if let Some(request @ Value::Object(_)) = body.get("request") {
-            problems.extend(self.request_problems(request));
+            let tags: Vec<String> = match &read {
+                Ok(def) => def.tags.clone(),
+                Err(_) => readable_tags(body),
+            };
+            problems.extend(self.request_problems(request, &tags));
         }
         if let Some(setpoints) = body.get("setpoints").and_then(Value::as_object) {
             problems.extend(setpoint_problems(setpoints));
@@ -203,16 +188,26 @@ impl App {
         }
     }
 
-    /// The problems of a joint's spec request: unreadable fields, then
-    /// what keeps it from computing at the current catalogue revision.
-    fn request_problems(&self, request: &Value) -> Vec<FieldProblem> {
-        let req: SpecRequest = match serde_path_to_error::deserialize(request) {
+    /// The problems of a joint's spec request: unreadable fields, a
+    /// `joint_tags` of its own (the joint's `tags` are its tags), then what
+    /// keeps it from computing with the joint's tags at the current
+    /// catalogue revision (a problem of the tags is named under `tags`).
+    fn request_problems(&self, request: &Value, tags: &[String]) -> Vec<FieldProblem> {
+        let mut req: SpecRequest = match serde_path_to_error::deserialize(request) {
             Ok(r) => r,
             Err(e) => {
                 let field = request_field(&e.path().to_string(), &e.inner().to_string());
                 return vec![FieldProblem::invalid(field, e.into_inner().to_string())];
             }
         };
+        if req.joint_tags.is_some() {
+            return vec![FieldProblem::invalid(
+                "request.joint_tags",
+                "a joint's request takes no joint_tags: the joint's own tags choose the \
+                 friction entries limited to a tag; give them in tags",
+            )];
+        }
+        req.joint_tags = with_tags(tags);
         match compute_one(&req, &self.current()) {
             Ok(_) => Vec::new(),
             Err(e) => {
@@ -223,6 +218,8 @@ impl App {
                         class: super::ProblemClass::Invalid,
                         field: if p.field.is_empty() {
                             "request".into()
+                        } else if let Some(rest) = p.field.strip_prefix("joint_tags") {
+                            format!("tags{rest}")
                         } else {
                             format!("request.{}", p.field)
                         },

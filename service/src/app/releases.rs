@@ -18,6 +18,7 @@ pub mod view;
 use chrono::Utc;
 use serde_json::{json, Value};
 
+use super::joints::joint_spec_request;
 use super::spec::checks::known_codes;
 use super::spec::setpoints::setpoints;
 use super::spec::tool::{torque_unit, ToolAsk};
@@ -56,6 +57,7 @@ fn under_definition(e: AppError) -> AppError {
                         }
                         f if f.starts_with("torque_unit.") => format!("setpoints.{f}"),
                         "" => "request".into(),
+                        f if f.starts_with("joint_tags") => f.replacen("joint_tags", "tags", 1),
                         f => format!("request.{f}"),
                     };
                     p
@@ -103,12 +105,13 @@ impl App {
     /// Computes the joint's spec and setpoints at the current catalogue
     /// revision and serialises both answers as they are served.
     fn freeze(&self, joint: &Joint, ask: &ReleaseAsk) -> Result<Frozen, AppError> {
-        let mut req: SpecRequest = serde_json::from_value(joint.request.clone()).map_err(|e| {
-            FieldProblem::invalid(
-                "request",
-                format!("the joint's request no longer reads as a spec request: {e}"),
-            )
-        })?;
+        let mut req: SpecRequest =
+            joint_spec_request(&joint.request, &joint.tags).map_err(|e| {
+                FieldProblem::invalid(
+                    "request",
+                    format!("the joint's request no longer reads as a spec request: {e}"),
+                )
+            })?;
         // A release is computed at the current revision, whatever the
         // definition pins.
         req.catalogue_revision = None;

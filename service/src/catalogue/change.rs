@@ -18,6 +18,9 @@ pub struct EntryInput {
     pub lubricant: String,
     #[serde(default)]
     pub bearing_surface: Option<String>,
+    /// Limits the entry to joints carrying this tag; absent: generic.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub joint_tag: Option<String>,
     pub thread_friction: RangeInput,
     pub bearing_friction: RangeInput,
     #[serde(default)]
@@ -194,6 +197,7 @@ impl From<&FrictionEntry> for EntryInput {
             finish: e.finish.clone(),
             lubricant: e.lubricant.clone(),
             bearing_surface: e.bearing_surface.clone(),
+            joint_tag: e.joint_tag.clone(),
             thread_friction: e.thread_friction.into(),
             bearing_friction: e.bearing_friction.into(),
             total_friction: e.total_friction.map(Into::into),

@@ -6,6 +6,7 @@ fn input(finish: &str, lubricant: &str, min: f64, max: f64) -> EntryInput {
         finish: finish.into(),
         lubricant: lubricant.into(),
         bearing_surface: None,
+        joint_tag: None,
         thread_friction: RangeInput { min, max },
         bearing_friction: RangeInput { min, max },
         total_friction: None,
@@ -177,6 +178,7 @@ fn identical_update_and_double_retire_refused() {
         finish: e.finish.clone(),
         lubricant: e.lubricant.clone(),
         bearing_surface: None,
+        joint_tag: None,
         thread_friction: e.thread_friction.into(),
         bearing_friction: e.bearing_friction.into(),
         total_friction: e.total_friction.map(Into::into),
@@ -271,4 +273,49 @@ fn finishes_and_lubricants_are_versioned_items() {
         panic!()
     };
     assert!(problems[0].reason.contains("cannot be retired"));
+}
+
+#[test]
+fn a_tag_scoped_entry_sits_beside_the_generic_one_but_not_twice() {
+    let seed = Snapshot::seed_revision_1();
+    let generic = seed
+        .friction_for("zinc-electroplated", "none")
+        .unwrap()
+        .clone();
+    let scoped = |tag: &str| EntryInput {
+        joint_tag: Some(tag.into()),
+        ..input("zinc-electroplated", "none", 0.10, 0.14)
+    };
+    let set = ChangeSet::single("a", "r", Change::CreateEntry(scoped("kestrel-k4")));
+    let applied = apply(&seed, &set).unwrap();
+    let created = applied.snapshot.entries.last().unwrap();
+    assert_eq!(created.joint_tag.as_deref(), Some("kestrel-k4"));
+    assert!(applied
+        .snapshot
+        .entry(generic.id)
+        .unwrap()
+        .status
+        .is_active());
+    // the same scope again is the duplicate rule's refusal
+    let again = ChangeSet::single("a", "r", Change::CreateEntry(scoped("kestrel-k4")));
+    match apply(&applied.snapshot, &again) {
+        Err(CatalogueError::Invalid { problems }) => {
+            assert_eq!(problems[0].field, "lubricant");
+            assert!(
+                problems[0].reason.contains("joint tag 'kestrel-k4'"),
+                "{problems:?}"
+            );
+        }
+        other => panic!("{other:?}"),
+    }
+    // a blank or control-character tag is refused naming joint_tag
+    for bad in [" ", "a\tb"] {
+        let set = ChangeSet::single("a", "r", Change::CreateEntry(scoped(bad)));
+        match apply(&seed, &set) {
+            Err(CatalogueError::Invalid { problems }) => {
+                assert_eq!(problems[0].field, "joint_tag", "{problems:?}");
+            }
+            other => panic!("{other:?}"),
+        }
+    }
 }

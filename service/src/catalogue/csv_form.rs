@@ -14,7 +14,8 @@ use super::types::{RangeInput, Status};
 use super::Snapshot;
 
 /// Column order of the CSV form.
-pub const CSV_COLUMNS: [&str; 15] = [
+/// `joint_tag` is last so that files written before it import unchanged.
+pub const CSV_COLUMNS: [&str; 16] = [
     "id",
     "finish",
     "lubricant",
@@ -30,6 +31,7 @@ pub const CSV_COLUMNS: [&str; 15] = [
     "status",
     "revision",
     "evidence",
+    "joint_tag",
 ];
 
 /// Characters that make a spreadsheet evaluate a cell when it starts with
@@ -109,6 +111,7 @@ pub fn to_csv_with(s: &Snapshot, options: &CsvOptions<'_>) -> Result<String, Str
                     .and_then(|m| m.get(&e.revision))
                     .map_or("", String::as_str),
             ),
+            neutralise(e.joint_tag.as_deref().unwrap_or_default()),
         ])
         .map_err(|e| e.to_string())?;
     }
@@ -117,7 +120,7 @@ pub fn to_csv_with(s: &Snapshot, options: &CsvOptions<'_>) -> Result<String, Str
 }
 
 /// Reads a CSV import file (entries only; header row with [`CSV_COLUMNS`],
-/// `revision` and `evidence` optional, the latter not read: evidence
+/// `revision`, `evidence` and `joint_tag` optional, the latter not read: evidence
 /// belongs to a revision). A leading byte order mark is skipped. Every bad
 /// cell is reported.
 pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<ChangeProblem>> {
@@ -238,6 +241,7 @@ pub fn parse_csv(text: &str) -> Result<ImportFile, Vec<ChangeProblem>> {
             finish: cell("finish").to_string(),
             lubricant: cell("lubricant").to_string(),
             bearing_surface: Some(cell("bearing_surface").to_string()).filter(|s| !s.is_empty()),
+            joint_tag: Some(cell("joint_tag").to_string()).filter(|s| !s.is_empty()),
             thread_friction: RangeInput {
                 min: tmin,
                 max: tmax,

@@ -61,6 +61,21 @@ pub enum CatalogueError {
         lubricant: String,
         suggestions: Vec<String>,
     },
+    /// Active friction entries limited to different tags of one joint all
+    /// match (422): the service does not choose between them. `entries`
+    /// holds each entry's id and tag.
+    #[error(
+        "{field}: friction entries {} for finish '{finish}' with lubricant '{lubricant}' are \
+         each limited to a different tag of this joint, so none is more specific; retire one \
+         of them or take one of the tags off the joint",
+        entries.iter().map(|(id, tag)| format!("{id} (joint tag '{tag}')")).collect::<Vec<_>>().join(" and ")
+    )]
+    AmbiguousFriction {
+        field: String,
+        finish: String,
+        lubricant: String,
+        entries: Vec<(i64, String)>,
+    },
     /// A catalogue item addressed by id does not exist (404).
     #[error("{field}: no {kind} with id '{id}'")]
     NotFound {
@@ -106,6 +121,7 @@ impl CatalogueError {
         match self {
             Self::Unknown { field, .. }
             | Self::NoFrictionEntry { field, .. }
+            | Self::AmbiguousFriction { field, .. }
             | Self::NotFound { field, .. }
             | Self::UnknownRevision { field, .. }
             | Self::Stale { field, .. } => field,

@@ -41,6 +41,8 @@ pub struct ImportEntry {
     pub lubricant: String,
     #[serde(default)]
     pub bearing_surface: Option<String>,
+    #[serde(default)]
+    pub joint_tag: Option<String>,
     pub thread_friction: RangeInput,
     pub bearing_friction: RangeInput,
     #[serde(default)]
@@ -148,6 +150,7 @@ pub fn changes_for(current: &Snapshot, file: &ImportFile) -> Vec<ChangeItem> {
             finish: e.finish.clone(),
             lubricant: e.lubricant.clone(),
             bearing_surface: e.bearing_surface.clone(),
+            joint_tag: e.joint_tag.clone(),
             thread_friction: e.thread_friction,
             bearing_friction: e.bearing_friction,
             total_friction: e.total_friction,

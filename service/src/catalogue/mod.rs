@@ -30,7 +30,7 @@ pub use diff::{diff, DiffItem, DiffKind};
 pub use error::{CatalogueError, ChangeProblem, CurrentState};
 pub use item::CatalogueItem;
 pub use live::Live;
-pub use snapshot::Snapshot;
+pub use snapshot::{FrictionMatch, Snapshot};
 pub use types::{
     item_etag, revision_from_etag, Finish, FrictionEntry, Lubricant, RangeInput, Status,
     TabulatedFriction, FRICTION_MAX, FRICTION_MIN,

@@ -9,7 +9,8 @@ use super::change::EntryInput;
 use super::error::{suggest, CatalogueError, ChangeProblem, CurrentState};
 use super::item::CatalogueItem;
 use super::types::{
-    is_slug, Finish, FrictionEntry, Lubricant, RangeInput, Status, TabulatedFriction,
+    is_slug, joint_tag_problem, Finish, FrictionEntry, Lubricant, RangeInput, Status,
+    TabulatedFriction,
 };
 use super::Snapshot;
 
@@ -107,6 +108,9 @@ pub(super) fn entry_from(
             ));
         }
     }
+    if let Some(problem) = input.joint_tag.as_deref().and_then(joint_tag_problem) {
+        problems.push(ChangeProblem::new(format!("{at}joint_tag"), problem));
+    }
     if input.source.trim().is_empty() {
         problems.push(ChangeProblem::new(
             format!("{at}source"),
@@ -124,6 +128,7 @@ pub(super) fn entry_from(
         finish: input.finish.clone(),
         lubricant: input.lubricant.clone(),
         bearing_surface: input.bearing_surface.clone(),
+        joint_tag: input.joint_tag.clone(),
         thread_friction,
         bearing_friction,
         total_friction,
@@ -170,8 +175,9 @@ pub(super) fn check_whole(
             problems.push(ChangeProblem::new(
                 format!("{at}lubricant"),
                 format!(
-                    "an active friction entry (id {}) already exists for finish '{}', lubricant '{}', bearing surface '{}'; update or retire it instead",
-                    other.id, e.finish, e.lubricant, e.bearing_surface.as_deref().unwrap_or("any")
+                    "an active friction entry (id {}) already exists for finish '{}', lubricant '{}', bearing surface '{}', {}; update or retire it instead",
+                    other.id, e.finish, e.lubricant, e.bearing_surface.as_deref().unwrap_or("any"),
+                    e.joint_tag.as_deref().map_or("for every joint".to_string(), |t| format!("joint tag '{t}'"))
                 ),
             ));
         }

@@ -130,6 +130,7 @@ pub(super) fn parse() -> Result<(Snapshot, String), String> {
                 finish: e.finish,
                 lubricant: e.lubricant,
                 bearing_surface: e.bearing_surface,
+                joint_tag: None,
                 thread_friction: e.thread_friction,
                 bearing_friction: e.bearing_friction,
                 total_friction: e.total_friction,

@@ -9,6 +9,51 @@ use serde::{Deserialize, Serialize};
 use super::error::{suggest, CatalogueError};
 use super::types::{Finish, FrictionEntry, Lubricant};
 
+/// The friction entry a look-up chose, and what it was chosen for.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct FrictionMatch<'a> {
+    pub entry: &'a FrictionEntry,
+    /// Whether the look-up was given any joint tags.
+    pub joint_tags_given: bool,
+}
+
+impl FrictionMatch<'_> {
+    /// The joint tag that selected the entry (a tag-scoped entry won).
+    pub fn joint_tag(&self) -> Option<&str> {
+        self.entry.joint_tag.as_deref()
+    }
+
+    /// Why this entry applies, in plain words.
+    pub fn reason(&self) -> String {
+        match (self.joint_tag(), self.joint_tags_given) {
+            (Some(tag), _) => format!(
+                "the entry is limited to joints tagged '{tag}', which this joint carries; an \
+                 entry limited to a joint tag wins over the generic entry for the same finish \
+                 and lubricant"
+            ),
+            (None, true) => "the generic entry for this finish and lubricant: no active entry \
+                 for them is limited to any of this joint's tags"
+                .into(),
+            (None, false) => "the generic entry for this finish and lubricant (no joint tags \
+                 given)"
+                .into(),
+        }
+    }
+}
+
+/// The entry of `list` for exactly the named surface (none named: none).
+fn for_surface<'a>(list: &[&'a FrictionEntry], surface: Option<&str>) -> Option<&'a FrictionEntry> {
+    let surface = surface?;
+    list.iter()
+        .find(|e| e.bearing_surface.as_deref() == Some(surface))
+        .copied()
+}
+
+/// The entry of `list` for any bearing surface.
+fn for_any_surface<'a>(list: &[&'a FrictionEntry]) -> Option<&'a FrictionEntry> {
+    list.iter().find(|e| e.bearing_surface.is_none()).copied()
+}
+
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Snapshot {
     pub revision: i64,
@@ -89,6 +134,32 @@ impl Snapshot {
         lubricant: &str,
         bearing_surface: Option<&str>,
     ) -> Result<&FrictionEntry, CatalogueError> {
+        self.friction_for_joint(finish, lubricant, bearing_surface, &[])
+            .map(|m| m.entry)
+    }
+
+    /// The active friction entry for a finish and lubricant on a joint
+    /// carrying `joint_tags`, and why it was chosen. The most specific
+    /// entry wins; the joint tag is the first dimension, the bearing
+    /// surface the second:
+    ///
+    /// 1. an entry limited to one of the joint's tags, for exactly the
+    ///    named bearing surface;
+    /// 2. an entry limited to one of the joint's tags, for any surface;
+    /// 3. a generic entry (no tag) for exactly the named bearing surface;
+    /// 4. a generic entry for any surface;
+    /// 5. with no surface named, the generic entry for a named surface
+    ///    with the lowest id (as before tags existed).
+    ///
+    /// Tag-scoped entries (steps 1 and 2) limited to two different tags of
+    /// the joint are ambiguous: refused naming both, never picked.
+    pub fn friction_for_joint(
+        &self,
+        finish: &str,
+        lubricant: &str,
+        bearing_surface: Option<&str>,
+        joint_tags: &[String],
+    ) -> Result<FrictionMatch<'_>, CatalogueError> {
         self.finish(finish)?;
         self.lubricant(lubricant)?;
         let mut candidates: Vec<&FrictionEntry> = self
@@ -97,24 +168,57 @@ impl Snapshot {
             .filter(|e| e.status.is_active() && e.finish == finish && e.lubricant == lubricant)
             .collect();
         candidates.sort_by_key(|e| e.id);
-        let exact = bearing_surface.and_then(|s| {
-            candidates
-                .iter()
-                .find(|e| e.bearing_surface.as_deref() == Some(s))
-        });
-        let any = candidates.iter().find(|e| e.bearing_surface.is_none());
-        if let Some(e) = exact.or(any) {
-            return Ok(e);
+        let fits_surface = |e: &&&FrictionEntry| {
+            e.bearing_surface.is_none() || e.bearing_surface.as_deref() == bearing_surface
+        };
+        let scoped: Vec<&FrictionEntry> = candidates
+            .iter()
+            .filter(|e| e.joint_tag.as_ref().is_some_and(|t| joint_tags.contains(t)))
+            .filter(fits_surface)
+            .copied()
+            .collect();
+        let mut tags: Vec<&str> = scoped
+            .iter()
+            .filter_map(|e| e.joint_tag.as_deref())
+            .collect();
+        tags.sort_unstable();
+        tags.dedup();
+        if tags.len() > 1 {
+            return Err(CatalogueError::AmbiguousFriction {
+                field: "joint_tags".into(),
+                finish: finish.into(),
+                lubricant: lubricant.into(),
+                entries: scoped
+                    .iter()
+                    .map(|e| (e.id, e.joint_tag.clone().unwrap_or_default()))
+                    .collect(),
+            });
         }
-        if bearing_surface.is_none() {
-            if let Some(e) = candidates.first() {
-                return Ok(e);
-            }
+        let generic: Vec<&FrictionEntry> = candidates
+            .iter()
+            .filter(|e| e.joint_tag.is_none())
+            .copied()
+            .collect();
+        let found = for_surface(&scoped, bearing_surface)
+            .or_else(|| for_any_surface(&scoped))
+            .or_else(|| for_surface(&generic, bearing_surface))
+            .or_else(|| for_any_surface(&generic))
+            .or_else(|| {
+                bearing_surface
+                    .is_none()
+                    .then(|| generic.first().copied())
+                    .flatten()
+            });
+        if let Some(entry) = found {
+            return Ok(FrictionMatch {
+                entry,
+                joint_tags_given: !joint_tags.is_empty(),
+            });
         }
         let mut with_entry: Vec<String> = self
             .entries
             .iter()
-            .filter(|e| e.status.is_active() && e.finish == finish)
+            .filter(|e| e.status.is_active() && e.finish == finish && e.joint_tag.is_none())
             .map(|e| e.lubricant.clone())
             .collect();
         with_entry.sort();
@@ -204,3 +308,7 @@ mod tests {
         ));
     }
 }
+
+#[cfg(test)]
+#[path = "scope_tests.rs"]
+mod scope_tests;

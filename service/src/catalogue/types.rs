@@ -183,6 +183,11 @@ pub struct FrictionEntry {
     /// Condition of the mating/bearing surface when the entry applies to a
     /// particular one (e.g. `hardened-steel-washer`); absent means "any".
     pub bearing_surface: Option<String>,
+    /// The joint tag this entry is limited to (e.g. one part family): it
+    /// applies only to joints carrying that tag, and there it wins over the
+    /// generic entry for the same finish and lubricant. Absent: generic.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub joint_tag: Option<String>,
     pub thread_friction: TabulatedFriction,
     pub bearing_friction: TabulatedFriction,
     pub total_friction: Option<TabulatedFriction>,
@@ -196,12 +201,14 @@ pub struct FrictionEntry {
 }
 
 impl FrictionEntry {
-    /// The key that at most one active entry may have.
-    pub fn key(&self) -> (&str, &str, Option<&str>) {
+    /// The key that at most one active entry may have: finish, lubricant,
+    /// bearing surface and joint tag.
+    pub fn key(&self) -> (&str, &str, Option<&str>, Option<&str>) {
         (
             self.finish.as_str(),
             self.lubricant.as_str(),
             self.bearing_surface.as_deref(),
+            self.joint_tag.as_deref(),
         )
     }
 
@@ -225,6 +232,26 @@ pub fn revision_from_etag(tag: &str) -> Option<i64> {
     let t = t.strip_prefix('"')?.strip_suffix('"')?;
     let (_, rev) = t.rsplit_once("-r")?;
     rev.parse().ok()
+}
+
+/// Longest joint tag an entry may be limited to, in characters (the
+/// registry's longest tag).
+pub const JOINT_TAG_MAX: usize = 64;
+
+/// Why `tag` cannot scope a friction entry, if it cannot: a joint tag is
+/// 1–[`JOINT_TAG_MAX`] characters, not blank, without control characters
+/// (the registry's rule for a joint's tags).
+pub fn joint_tag_problem(tag: &str) -> Option<String> {
+    let n = tag.chars().count();
+    if tag.trim().is_empty() || n > JOINT_TAG_MAX {
+        Some(format!(
+            "a joint tag has 1 to {JOINT_TAG_MAX} characters and is not blank ({n} given)"
+        ))
+    } else if tag.chars().any(char::is_control) {
+        Some("a joint tag may not hold control characters".into())
+    } else {
+        None
+    }
 }
 
 /// True when `s` is a valid catalogue slug: 1–64 of `a-z`, `0-9`, `-`,

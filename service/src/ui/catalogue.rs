@@ -118,13 +118,14 @@ pub async fn entries(
         (filter_form(&q))
         table.list id="entries" {
             thead { tr { th { "Entry" } th { "Finish" } th { "Lubricant" } th { "Bearing surface" }
-                         th { "Thread μ_G" } th { "Bearing μ_K" } th { "Status" } th { "Source" } } }
+                         th { "Scope" } th { "Thread μ_G" } th { "Bearing μ_K" } th { "Status" } th { "Source" } } }
             tbody {
                 @for e in &listed.value {
                     tr {
                         td { a href={ "/ui/catalogue/entries/" (e.id) } { "#" (e.id) } }
                         td { (e.finish) } td { (e.lubricant) }
                         td { (e.bearing_surface.as_deref().unwrap_or("any")) }
+                        td.scope { (scope_words(e.joint_tag.as_deref())) }
                         td.num { (range(e.thread_friction.min, e.thread_friction.max)) }
                         td.num { (range(e.bearing_friction.min, e.bearing_friction.max)) }
                         td { (e.status.as_str()) }
@@ -154,6 +155,14 @@ fn side(after: &Value, key: &str) -> String {
     }
 }
 
+/// An entry's scope in words: the joint tag it is limited to, or generic.
+fn scope_words(joint_tag: Option<&str>) -> String {
+    match joint_tag {
+        Some(tag) => format!("joints tagged '{tag}' only"),
+        None => "every joint (generic)".into(),
+    }
+}
+
 /// `GET /ui/catalogue/entries/{id}`: every change to one entry.
 pub async fn entry(
     req: HttpRequest,
@@ -177,6 +186,7 @@ pub async fn entry(
             p.lead { (a["finish"].as_str().unwrap_or("?")) " with " (a["lubricant"].as_str().unwrap_or("?"))
                 ": thread μ_G " (side(a, "thread_friction")) ", bearing μ_K " (side(a, "bearing_friction"))
                 " (" (a["status"].as_str().unwrap_or("?")) ")." }
+            p id="scope" { "Scope: " (scope_words(a["joint_tag"].as_str())) "." }
         }
         div.stack {
             table.list id="history" {

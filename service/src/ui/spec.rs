@@ -34,6 +34,7 @@ const SECTIONS: [(&str, &[&str]); 5] = [
             "bearing_friction",
             "bearing_friction_min",
             "bearing_friction_max",
+            "joint_tags",
         ],
     ),
     (

@@ -12,9 +12,10 @@
 use serde_json::Value;
 
 use super::{served, window, SpecChart};
+use crate::app::joints::joint_spec_request;
 use crate::app::releases::view::{FrozenAnswer, ReleasedAnswer};
 use crate::app::spec::view::spec_response;
-use crate::app::spec::{compute_one, snapshot::pinned, SpecRequest};
+use crate::app::spec::{compute_one, snapshot::pinned};
 use crate::app::{App, AppError};
 
 /// A release's window chart and the ETag made of the release's own.
@@ -59,7 +60,7 @@ impl App {
         let joint = self.joint(id).await?;
         let history = self.store().joint_history(&joint.id).await?;
         // The current definition, then the recorded ones newest first.
-        let mut requests = vec![joint.request.clone()];
+        let mut requests = vec![(joint.request.clone(), joint.tags.clone())];
         for change in history.iter().rev() {
             for json in [&change.after_json, &change.before_json]
                 .into_iter()
@@ -67,15 +68,26 @@ impl App {
             {
                 if let Ok(def) = serde_json::from_str::<Value>(json) {
                     if let Some(req) = def.get("request") {
-                        if !requests.contains(req) {
-                            requests.push(req.clone());
+                        let tags: Vec<String> = def
+                            .get("tags")
+                            .and_then(Value::as_array)
+                            .map(|t| {
+                                t.iter()
+                                    .filter_map(Value::as_str)
+                                    .map(str::to_string)
+                                    .collect()
+                            })
+                            .unwrap_or_default();
+                        let both = (req.clone(), tags);
+                        if !requests.contains(&both) {
+                            requests.push(both);
                         }
                     }
                 }
             }
         }
-        for request in requests {
-            let Ok(mut req) = serde_json::from_value::<SpecRequest>(request) else {
+        for (request, tags) in requests {
+            let Ok(mut req) = joint_spec_request(&request, &tags) else {
                 continue;
             };
             req.catalogue_revision = Some(r.catalogue_revision);

@@ -24,6 +24,7 @@ use serde::Serialize;
 use serde_json::{json, Value};
 use utoipa::ToSchema;
 
+use super::joints::joint_spec_request;
 use super::spec::setpoints::setpoints;
 use super::spec::tool::{torque_unit, ToolAsk};
 use super::spec::view::{spec_response, SetpointResponse};
@@ -138,7 +139,7 @@ pub const CAUTION: &str = "Estimates from the catalogue's friction data, to be c
 /// `joint` computed against `snap`, or why it does not compute.
 fn answers(joint: &Joint, snap: &Snapshot) -> Result<(SetpointResponse, Value), String> {
     let mut req: SpecRequest =
-        serde_json::from_value(joint.request.clone()).map_err(|e| e.to_string())?;
+        joint_spec_request(&joint.request, &joint.tags).map_err(|e| e.to_string())?;
     req.catalogue_revision = None;
     let describe = |e: AppError| {
         e.problems()

@@ -4,7 +4,8 @@
 //! or "given in the request") and turns it into the engine's validated
 //! friction ranges.
 
-use crate::catalogue::{FrictionEntry, Snapshot};
+use crate::catalogue::types::joint_tag_problem;
+use crate::catalogue::{FrictionEntry, FrictionMatch, Snapshot};
 use crate::engine::quantity::FrictionRange;
 
 use super::request::{FrictionInput, SpecRequest};
@@ -21,6 +22,43 @@ pub enum FrictionOrigin {
         entry_revision: i64,
         reference: String,
     },
+}
+
+/// Why the catalogue entry used was chosen: the joint tag it is limited
+/// to (absent: the generic entry) and the reason in words.
+#[derive(Debug, Clone, PartialEq)]
+pub struct FrictionScope {
+    pub joint_tag: Option<String>,
+    pub reason: String,
+}
+
+/// The joint tags of a request, each checked as a catalogue entry's tag
+/// is (1–64 characters, not blank, no control characters), at most
+/// [`JOINT_TAGS_MAX`], none repeated; problems name `joint_tags[i]`.
+pub const JOINT_TAGS_MAX: usize = 32;
+
+fn joint_tags(req: &SpecRequest, problems: &mut Vec<FieldProblem>) -> Vec<String> {
+    let Some(tags) = &req.joint_tags else {
+        return Vec::new();
+    };
+    if tags.len() > JOINT_TAGS_MAX {
+        problems.push(FieldProblem::invalid(
+            "joint_tags",
+            format!("at most {JOINT_TAGS_MAX} joint tags, {} given", tags.len()),
+        ));
+        return Vec::new();
+    }
+    for (i, tag) in tags.iter().enumerate() {
+        if let Some(reason) = joint_tag_problem(tag) {
+            problems.push(FieldProblem::invalid(format!("joint_tags[{i}]"), reason));
+        } else if let Some(j) = tags[..i].iter().position(|t| t == tag) {
+            problems.push(FieldProblem::invalid(
+                format!("joint_tags[{i}]"),
+                format!("repeats joint_tags[{j}]"),
+            ));
+        }
+    }
+    tags.clone()
 }
 
 /// Friction values resolved for one request, with the catalogue facts the
@@ -48,6 +86,9 @@ pub struct ResolvedFriction {
     /// The catalogue entry's thread and bearing ranges, when an entry
     /// applies, so the engine can flag request values outside them.
     pub catalogue_ranges: Option<(FrictionRange, FrictionRange)>,
+    /// Why the catalogue entry was chosen, when one side's values come
+    /// from it.
+    pub scope: Option<FrictionScope>,
 }
 
 fn origin_of(entry: &FrictionEntry) -> FrictionOrigin {
@@ -84,6 +125,7 @@ pub fn resolve_friction(
     };
     let thread_given = check("thread_friction", req.thread_friction);
     let bearing_given = check("bearing_friction", req.bearing_friction);
+    let tags = joint_tags(req, problems);
 
     let finish = req
         .finish
@@ -129,9 +171,9 @@ pub fn resolve_friction(
         }
     }
 
-    let entry = match (finish, lubricant) {
-        (Some(f), Some(l)) => match snapshot.friction_for(&f.id, &l.id) {
-            Ok(e) => Some(e),
+    let found: Option<FrictionMatch<'_>> = match (finish, lubricant) {
+        (Some(f), Some(l)) => match snapshot.friction_for_joint(&f.id, &l.id, None, &tags) {
+            Ok(m) => Some(m),
             Err(e) => {
                 // Only a problem when the catalogue values are needed.
                 if need_catalogue {
@@ -142,6 +184,7 @@ pub fn resolve_friction(
         },
         _ => None,
     };
+    let entry = found.map(|m| m.entry);
 
     let catalogue_ranges = entry.and_then(|e| {
         let t = FrictionRange::new(
@@ -181,6 +224,9 @@ pub fn resolve_friction(
         (None, Some(e), Some((_, b))) => (b, origin_of(e)),
         _ => return None,
     };
+    let uses_catalogue = [&thread_origin, &bearing_origin]
+        .iter()
+        .any(|o| matches!(o, FrictionOrigin::Catalogue { .. }));
     Some(ResolvedFriction {
         thread,
         thread_origin,
@@ -194,6 +240,10 @@ pub fn resolve_friction(
         acid_cleaned: finish.is_some_and(|f| f.acid_cleaned()),
         dry: lubricant.is_some_and(|l| l.dry),
         catalogue_ranges,
+        scope: found.filter(|_| uses_catalogue).map(|m| FrictionScope {
+            joint_tag: m.joint_tag().map(str::to_string),
+            reason: m.reason(),
+        }),
     })
 }
 

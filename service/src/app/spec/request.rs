@@ -271,6 +271,14 @@ pub struct SpecRequest {
     /// threaded inserts, which are outside VDI 2230.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub permissible_torque: Option<Quantity>,
+    /// The tags of the joint this spec is for (e.g. a part family): a
+    /// friction entry limited to one of them wins over the generic entry
+    /// for the same finish and lubricant. Lets the calculator reproduce a
+    /// registered joint's answer; a joint's own request may not hold it
+    /// (the joint's `tags` are used).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    #[schema(max_items = 32)]
+    pub joint_tags: Option<Vec<String>>,
     /// Units of the response: `si` (default) or `us`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub units: Option<Units>,

@@ -214,6 +214,7 @@ pub fn resolve(req: &SpecRequest, snapshot: &Snapshot) -> Result<Resolved, AppEr
         tapped_part_material: mating.parts.tapped_part.as_ref().map(|m| m.id.as_str()),
         nut_property_class: mating.parts.nut.as_ref().map(|n| n.id),
         permissible_torque_nm: q.permissible_torque.map(|t| t.get::<newton_meter>()),
+        friction_joint_tag: friction.scope.as_ref().and_then(|s| s.joint_tag.as_deref()),
     };
     let bytes = serde_json::to_vec(&normalised).map_err(|e| {
         AppError::field(FieldProblem::malformed(

@@ -355,6 +355,10 @@ pub fn spec_response(spec: &Spec, resolved: &Resolved, stale: bool) -> SpecRespo
             lubricant: f.lubricant.clone(),
             catalogue_entry: entry_ref(&f.thread_origin).or_else(|| entry_ref(&f.bearing_origin)),
             catalogue_revision: resolved.revision,
+            scope: f.scope.as_ref().map(|s| parts::FrictionScopeOut {
+                joint_tag: s.joint_tag.clone(),
+                reason: s.reason.clone(),
+            }),
             source: spec.friction_source.clone(),
         },
         figures: FiguresPair {

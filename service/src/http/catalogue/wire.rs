@@ -175,6 +175,9 @@ pub struct EntryWrite {
     pub finish: Option<String>,
     pub lubricant: Option<String>,
     pub bearing_surface: Option<String>,
+    /// Limits the entry to joints carrying this tag (e.g. one part family);
+    /// absent: the generic entry for every joint.
+    pub joint_tag: Option<String>,
     pub thread_friction: Option<RangeInput>,
     pub bearing_friction: Option<RangeInput>,
     pub total_friction: Option<RangeInput>,
@@ -214,6 +217,7 @@ impl EntryWrite {
                     finish,
                     lubricant,
                     bearing_surface: self.bearing_surface,
+                    joint_tag: self.joint_tag,
                     thread_friction,
                     bearing_friction,
                     total_friction: self.total_friction,

@@ -194,6 +194,11 @@ macro_rules! spec_query {
             /// e.g. `1.2N·m`; required for plastics and threaded inserts.
             #[arg(long)]
             pub permissible_torque: Option<String>,
+            /// The joint's tags separated by commas, e.g. `k4-rear-axle,station-12`:
+            /// a friction entry limited to one of them wins over the generic
+            /// entry (a tag holding a comma can be given only in the POST body).
+            #[arg(long)]
+            pub joint_tags: Option<String>,
             /// Units of the response: `si` (default) or `us`.
             #[arg(long, value_enum)]
             pub units: Option<Units>,
@@ -335,6 +340,10 @@ macro_rules! spec_query {
                         .clone()
                         .map(|property_class| NutRequest { property_class }),
                     permissible_torque,
+                    joint_tags: self
+                        .joint_tags
+                        .as_deref()
+                        .map(|t| t.split(',').map(|s| s.trim().to_string()).collect()),
                     units: self.units,
                     catalogue_revision: self.catalogue_revision,
                 })

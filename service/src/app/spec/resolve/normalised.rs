@@ -58,6 +58,11 @@ pub(super) struct Normalised<'a> {
     pub nut_property_class: Option<&'static str>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub permissible_torque_nm: Option<f64>,
+    /// The joint tag that chose the catalogue entry used (a tag-scoped
+    /// entry); left out for the generic entry or no catalogue values, so
+    /// only a tag that changed the look-up changes the hash.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub friction_joint_tag: Option<&'a str>,
 }
 
 /// The described bolt after validation: lengths in mm, the shank sections

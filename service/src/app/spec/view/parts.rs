@@ -168,8 +168,23 @@ pub struct FrictionOut {
     pub catalogue_entry: Option<CatalogueEntryRef>,
     /// The catalogue revision the look-up used.
     pub catalogue_revision: i64,
+    /// Why that catalogue entry applies: the joint tag it is limited to,
+    /// or absent for the generic entry (present when `catalogue_entry` is).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub scope: Option<FrictionScopeOut>,
     /// Provenance in words.
     pub source: String,
+}
+
+/// Why a catalogue entry was used: the most specific active entry wins
+/// (an entry limited to one of the joint's tags over the generic entry).
+#[derive(Debug, Clone, Serialize, ToSchema)]
+pub struct FrictionScopeOut {
+    /// The joint tag the entry is limited to; absent for the generic entry.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub joint_tag: Option<String>,
+    /// The reason in words.
+    pub reason: String,
 }
 
 /// Shares of the torque (fractions summing to 1).
