@@ -17,6 +17,7 @@ mod auth;
 mod batch;
 mod batch_setpoints;
 mod bolt_spec;
+mod bulk_releases;
 mod catalogue;
 mod catalogue_cli;
 mod catalogue_instances;
