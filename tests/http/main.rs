@@ -18,6 +18,7 @@ mod batch;
 mod batch_setpoints;
 mod big_sizes;
 mod bolt_spec;
+mod bulk_releases;
 mod catalogue;
 mod catalogue_cli;
 mod catalogue_instances;

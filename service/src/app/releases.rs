@@ -13,6 +13,7 @@
 //! requester, with the role `approver`, approves it.
 
 pub mod body;
+pub mod bulk;
 pub mod view;
 
 use chrono::Utc;
@@ -25,6 +26,7 @@ use super::spec::tool::{torque_unit, ToolAsk};
 use super::spec::view::spec_response;
 use super::spec::{compute_one, SpecRequest, METHOD_VERSION, SERVICE_VERSION};
 use super::{App, AppError, FieldProblem};
+use crate::catalogue::Snapshot;
 use crate::registry::event::{JOINT_RELEASED, JOINT_WITHDRAWN};
 use crate::registry::{Joint, JointId, NewRelease, OutboxEvent, Release, ReleaseEventKind};
 use crate::store::outbox::new_event_id;
@@ -39,6 +41,8 @@ struct Frozen {
     setpoints: String,
     spec_hash: String,
     revision: i64,
+    /// The accepted error-check codes that apply to these values.
+    applied: Vec<&'static str>,
 }
 
 /// A problem of computing the joint's stored definition, named under the
@@ -101,38 +105,55 @@ fn release_number(number: i64) -> Result<i64, AppError> {
     Ok(number)
 }
 
+/// Computes the joint's spec and setpoints at `snapshot` and serialises
+/// both answers as they are served. Accepted codes that do not apply are
+/// left out of `applied` (the caller decides whether that is a refusal).
+fn freeze_at(snapshot: &Snapshot, joint: &Joint, ask: &ReleaseAsk) -> Result<Frozen, AppError> {
+    let mut req: SpecRequest = joint_spec_request(&joint.request, &joint.tags).map_err(|e| {
+        FieldProblem::invalid(
+            "request",
+            format!("the joint's request no longer reads as a spec request: {e}"),
+        )
+    })?;
+    // A release is computed at the current revision, whatever the
+    // definition pins.
+    req.catalogue_revision = None;
+    let (resolved, spec) = compute_one(&req, snapshot).map_err(under_definition)?;
+    let unit = torque_unit(joint.setpoints.torque_unit.as_deref())
+        .map_err(|p| under_definition(p.into()))?;
+    let codes = ask.accept_checks.iter().map(|c| c.code.as_str());
+    let accept = known_codes("accept_checks", codes).map_err(AppError::field)?;
+    let tool = ToolAsk {
+        unit,
+        resolution: joint.setpoints.resolution,
+        angle_resolution: joint.setpoints.angle_resolution,
+        accept,
+    };
+    let answer = setpoints(&spec, &resolved, &tool, false).map_err(under_definition)?;
+    let spec_body = spec_response(&spec, &resolved, false);
+    let encode = |what: &str, e: serde_json::Error| {
+        AppError::Internal(format!("the {what} answer could not be serialised: {e}"))
+    };
+    Ok(Frozen {
+        spec: serde_json::to_string(&spec_body).map_err(|e| encode("spec", e))?,
+        setpoints: serde_json::to_string(&answer).map_err(|e| encode("setpoint", e))?,
+        spec_hash: answer.spec_hash,
+        revision: resolved.revision,
+        applied: answer.accepted_checks,
+    })
+}
+
 impl App {
     /// Computes the joint's spec and setpoints at the current catalogue
-    /// revision and serialises both answers as they are served.
+    /// revision and serialises both answers as they are served; an
+    /// accepted check that does not apply is refused.
     fn freeze(&self, joint: &Joint, ask: &ReleaseAsk) -> Result<Frozen, AppError> {
-        let mut req: SpecRequest =
-            joint_spec_request(&joint.request, &joint.tags).map_err(|e| {
-                FieldProblem::invalid(
-                    "request",
-                    format!("the joint's request no longer reads as a spec request: {e}"),
-                )
-            })?;
-        // A release is computed at the current revision, whatever the
-        // definition pins.
-        req.catalogue_revision = None;
-        let snapshot = self.current();
-        let (resolved, spec) = compute_one(&req, &snapshot).map_err(under_definition)?;
-        let unit = torque_unit(joint.setpoints.torque_unit.as_deref())
-            .map_err(|p| under_definition(p.into()))?;
-        let codes = ask.accept_checks.iter().map(|c| c.code.as_str());
-        let accept = known_codes("accept_checks", codes).map_err(AppError::field)?;
-        let tool = ToolAsk {
-            unit,
-            resolution: joint.setpoints.resolution,
-            angle_resolution: joint.setpoints.angle_resolution,
-            accept,
-        };
-        let answer = setpoints(&spec, &resolved, &tool, false).map_err(under_definition)?;
+        let frozen = freeze_at(&self.current(), joint, ask)?;
         let unneeded: Vec<FieldProblem> = ask
             .accept_checks
             .iter()
             .enumerate()
-            .filter(|(_, c)| !answer.accepted_checks.contains(&c.code.as_str()))
+            .filter(|(_, c)| !frozen.applied.contains(&c.code.as_str()))
             .map(|(i, c)| {
                 FieldProblem::invalid(
                     format!("accept_checks[{i}].code"),
@@ -140,10 +161,10 @@ impl App {
                         "error check {} does not apply to this joint's values; accept only \
                          the error checks that apply ({})",
                         c.code,
-                        if answer.accepted_checks.is_empty() {
+                        if frozen.applied.is_empty() {
                             "none does".to_string()
                         } else {
-                            answer.accepted_checks.join(", ")
+                            frozen.applied.join(", ")
                         }
                     ),
                 )
@@ -152,16 +173,7 @@ impl App {
         if !unneeded.is_empty() {
             return Err(AppError::Fields(unneeded));
         }
-        let spec_body = spec_response(&spec, &resolved, false);
-        let encode = |what: &str, e: serde_json::Error| {
-            AppError::Internal(format!("the {what} answer could not be serialised: {e}"))
-        };
-        Ok(Frozen {
-            spec: serde_json::to_string(&spec_body).map_err(|e| encode("spec", e))?,
-            setpoints: serde_json::to_string(&answer).map_err(|e| encode("setpoint", e))?,
-            spec_hash: answer.spec_hash,
-            revision: resolved.revision,
-        })
+        Ok(frozen)
     }
 
     /// Releases joint `id` (see the module): a draft under the four-eyes

@@ -12,6 +12,7 @@ use std::io::Write;
 
 use serde_json::{json, Value};
 
+use super::joint_release::Releasing;
 use crate::app::joints::{JointQuery, JointView};
 use crate::app::joints_bulk::{csv_form, export_json, ImportReport};
 use crate::app::releases::view::ReleaseView;
@@ -64,10 +65,15 @@ pub enum JointCommand {
         id: String,
     },
     /// Release a joint: compute and freeze its spec and setpoints at the
-    /// current catalogue revision.
+    /// current catalogue revision. Several ids, or `--tag`, release every
+    /// one of them at once, all or nothing (at most 1,000).
     Release {
-        /// The joint's id.
-        id: String,
+        /// The joint's id (or several).
+        #[arg(required_unless_present = "tag", conflicts_with = "tag")]
+        ids: Vec<String>,
+        /// Release every joint carrying this tag instead.
+        #[arg(long)]
+        tag: Option<String>,
         /// Who releases (recorded).
         #[arg(long)]
         by: String,
@@ -126,7 +132,7 @@ pub enum JointCommand {
 }
 
 /// A refusal as lines: the detail, then each field and its reason.
-fn refusal(e: AppError) -> String {
+pub(super) fn refusal(e: AppError) -> String {
     let mut lines = vec![e.to_string()];
     for p in e.problems() {
         let near = if p.suggestions.is_empty() {
@@ -139,18 +145,7 @@ fn refusal(e: AppError) -> String {
     lines.join("\n")
 }
 
-/// `--accept CODE=REASON` as the release body's `accept_checks`.
-fn accepted(given: &[String]) -> Result<Vec<Value>, String> {
-    given
-        .iter()
-        .map(|a| match a.split_once('=') {
-            Some((code, reason)) => Ok(json!({"code": code.trim(), "reason": reason.trim()})),
-            None => Err(format!("--accept '{a}': write CODE=REASON")),
-        })
-        .collect()
-}
-
-fn release_line(r: &ReleaseView) -> String {
+pub(super) fn release_line(r: &ReleaseView) -> String {
     let approved = r
         .approved_by
         .as_deref()
@@ -258,14 +253,14 @@ pub async fn run_on(app: &App, args: &JointArgs, out: &mut dyn Write) -> CliResu
             }
         }
         JointCommand::Release {
-            id,
+            ids,
+            tag,
             by,
             reason,
             accept,
         } => {
-            let body = json!({"reason": reason, "accept_checks": accepted(accept)?});
-            let r = app.release_joint(by, id, &body).await.map_err(refusal)?;
-            print_release(out, ReleaseView::of(&r, None))?;
+            let who = Releasing { by, reason, accept };
+            super::joint_release::release(app, args.json, ids, tag.as_deref(), &who, out).await?;
         }
         JointCommand::Approve {
             id,
@@ -363,19 +358,4 @@ async fn import(
         app.import_joints_json(by, &body).await
     };
     Ok(report.map_err(refusal)?)
-}
-
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn accepted_checks_are_code_equals_reason() {
-        let got = accepted(&["surface_pressure_exceeded= hardened washer".into()]).unwrap();
-        assert_eq!(
-            got,
-            [json!({"code": "surface_pressure_exceeded", "reason": "hardened washer"})]
-        );
-        assert!(accepted(&["surface_pressure_exceeded".into()]).is_err());
-    }
 }

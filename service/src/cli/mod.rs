@@ -5,6 +5,7 @@ mod args;
 pub mod catalogue;
 pub mod friction;
 pub mod joint;
+pub mod joint_release;
 pub mod openapi;
 pub mod spec;
 pub mod token;

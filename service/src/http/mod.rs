@@ -8,8 +8,8 @@
 //! `deadline` (body-read and request deadlines), `state`, `openapi` and
 //! `routes_table` (404 versus 405 from the document), `root` (a browser
 //! asking for `/` is sent to the page). Routes: `health`, `reference` and `reference_lists`, and the
-//! feature modules `specs`, `charts` (SVG pictures), `catalogue`, `friction_tests`, `joints`, `releases` and
-//! `subscriptions`, all registered
+//! feature modules `specs`, `charts` (SVG pictures), `catalogue`, `friction_tests`, `joints`, `releases` (and
+//! `releases_bulk`) and `subscriptions`, all registered
 //! in `routes`.
 
 pub mod accept;
@@ -33,6 +33,7 @@ pub mod problem_responses;
 pub mod reference;
 pub mod reference_lists;
 pub mod releases;
+pub mod releases_bulk;
 pub mod request_id;
 pub mod root;
 pub mod routes_table;
@@ -56,6 +57,7 @@ pub fn routes(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
     catalogue::configure(cfg);
     friction_tests::configure(cfg);
     joints_bulk::configure(cfg);
+    releases_bulk::configure(cfg);
     joints::configure(cfg);
     releases::configure(cfg);
     impact::configure(cfg);

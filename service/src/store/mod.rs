@@ -9,7 +9,8 @@
 //! - `friction_series` — stored friction test series and their uses;
 //! - `tokens` — API tokens;
 //! - `joints` — the joint registry's definitions, their history and review
-//!   marks; `releases` — frozen releases and their status events;
+//!   marks; `releases` — frozen releases and their status events
+//!   (`releases_bulk`: many joints' releases in one transaction);
 //!   `outbox` — events written with the change they announce (and a
 //!   delivery per subscription to their type);
 //! - `subscriptions` — webhook subscriptions and their delivery log;
@@ -32,6 +33,7 @@ pub mod joints;
 pub mod joints_bulk;
 pub mod outbox;
 pub mod releases;
+pub mod releases_bulk;
 mod snapshots;
 pub mod subscriptions;
 pub mod tokens;

@@ -214,6 +214,65 @@ async fn one_in(tx: &mut Tx, id: &JointId, number: i64) -> Result<Release, Store
         .ok_or_else(|| release_not_found(id, number))
 }
 
+/// Writes one release inside `tx` (see [`Store::write_release`]; `new`
+/// already checked): the joint's row locked, the next number, the release,
+/// its first event, the activation, the outbox event. With `version`, a
+/// joint no longer at that definition version is a conflict naming
+/// `joints[<id>]` (it changed after it was read).
+pub(super) async fn write_in(
+    tx: &mut Tx,
+    new: &NewRelease,
+    first: ReleaseEventKind,
+    version: Option<i64>,
+    event: impl FnOnce(&Release) -> Option<OutboxEvent>,
+) -> Result<Release, StoreError> {
+    let id = &new.joint_id;
+    match (tx.lock_joint(id.as_str()).await?, version) {
+        (None, _) => return Err(joints::not_found(id)),
+        (Some(now), Some(read)) if now != read => {
+            return Err(StoreError::Conflict {
+                field: format!("joints[{id}]"),
+                reason: format!(
+                    "joint '{id}' changed while it was being released (version {read} read, \
+                     {now} now); release again"
+                ),
+            })
+        }
+        _ => {}
+    }
+    let number: i64 = dispatch!(Tx, tx, |c| sqlx::query_scalar(NEXT_NUMBER)
+        .bind(id.as_str())
+        .fetch_one(&mut **c)
+        .await?);
+    let now = Utc::now();
+    let accepted = serde_json::to_string(&new.accepted_checks)?;
+    dispatch!(Tx, tx, |c| sqlx::query(INSERT)
+        .bind(id.as_str())
+        .bind(number)
+        .bind(&new.spec_hash)
+        .bind(new.catalogue_revision)
+        .bind(&new.service_version)
+        .bind(&new.method_version)
+        .bind(&new.requested_by)
+        .bind(&new.reason)
+        .bind(&accepted)
+        .bind(&new.spec)
+        .bind(&new.setpoints)
+        .bind(now)
+        .execute(&mut **c)
+        .await
+        .map(drop)?);
+    insert_event(tx, id, number, first, &new.requested_by, &new.reason, now).await?;
+    if first.status() == ReleaseStatus::Released {
+        activate(tx, id, number, &new.requested_by, now).await?;
+    }
+    let release = one_in(tx, id, number).await?;
+    if let Some(event) = event(&release) {
+        outbox::insert_in(tx, &event).await?;
+    }
+    Ok(release)
+}
+
 impl Store {
     /// Writes a release with the next number, its first event (`requested`:
     /// a draft; `released`: active at once) and the outbox event `event`
@@ -226,52 +285,10 @@ impl Store {
         event: impl FnOnce(&Release) -> Option<OutboxEvent>,
     ) -> Result<Release, RegistryStoreError> {
         new.check()?;
-        let status = first.apply(None, "status")?;
-        let id = &new.joint_id;
+        first.apply(None, "status")?;
         let mut tx = Tx::write(self).await?;
-        if tx.lock_joint(id.as_str()).await?.is_none() {
-            tx.rollback().await?;
-            return Err(joints::not_found(id).into());
-        }
-        let number: i64 = dispatch!(Tx, &mut tx, |c| sqlx::query_scalar(NEXT_NUMBER)
-            .bind(id.as_str())
-            .fetch_one(&mut **c)
-            .await?);
-        let now = Utc::now();
-        let accepted = serde_json::to_string(&new.accepted_checks)?;
-        dispatch!(Tx, &mut tx, |c| sqlx::query(INSERT)
-            .bind(id.as_str())
-            .bind(number)
-            .bind(&new.spec_hash)
-            .bind(new.catalogue_revision)
-            .bind(&new.service_version)
-            .bind(&new.method_version)
-            .bind(&new.requested_by)
-            .bind(&new.reason)
-            .bind(&accepted)
-            .bind(&new.spec)
-            .bind(&new.setpoints)
-            .bind(now)
-            .execute(&mut **c)
-            .await
-            .map(drop)?);
-        insert_event(
-            &mut tx,
-            id,
-            number,
-            first,
-            &new.requested_by,
-            &new.reason,
-            now,
-        )
-        .await?;
-        if status == ReleaseStatus::Released {
-            activate(&mut tx, id, number, &new.requested_by, now).await?;
-        }
-        let release = one_in(&mut tx, id, number).await?;
-        if let Some(event) = event(&release) {
-            outbox::insert_in(&mut tx, &event).await?;
-        }
+        // On a refusal the transaction is dropped, which rolls it back.
+        let release = write_in(&mut tx, new, first, None, event).await?;
         tx.commit().await?;
         Ok(release)
     }

@@ -1,13 +1,15 @@
 //! The bodies of the release routes, read field by field with every
 //! problem named: a release `{"reason", "accept_checks": [{"code",
-//! "reason"}]}` and a status change (approve, withdraw) `{"reason"}`.
+//! "reason"}]}`, a bulk release (the same with `ids` or `tag`) and a
+//! status change (approve, withdraw) `{"reason"}`.
 
 use serde_json::{Map, Value};
 
 use crate::app::reading::suggest;
 use crate::app::{AppError, FieldProblem};
 use crate::engine::checks::CODES;
-use crate::registry::AcceptedCheck;
+use crate::registry::joint::TAG_MAX;
+use crate::registry::{AcceptedCheck, JointId};
 
 /// Longest reason, in characters.
 pub const REASON_MAX: usize = 1000;
@@ -154,6 +156,122 @@ pub fn release_ask(body: &Value) -> Result<ReleaseAsk, AppError> {
     }
 }
 
+/// Most joints in one bulk release.
+pub const BULK_RELEASE_MAX: usize = 1_000;
+
+/// Which joints a bulk release takes.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Selection {
+    /// These joints, in the order given (1 to [`BULK_RELEASE_MAX`], no
+    /// repeats).
+    Ids(Vec<JointId>),
+    /// Every joint carrying this tag.
+    Tag(String),
+}
+
+/// What a bulk release asks for.
+#[derive(Debug, Clone, PartialEq)]
+pub struct BulkReleaseAsk {
+    pub joints: Selection,
+    pub ask: ReleaseAsk,
+}
+
+fn ids(items: &[Value], out: &mut Vec<FieldProblem>) -> Vec<JointId> {
+    let mut ids: Vec<JointId> = Vec::with_capacity(items.len());
+    let mut seen = std::collections::HashMap::with_capacity(items.len());
+    for (i, item) in items.iter().enumerate() {
+        let at = format!("ids[{i}]");
+        let Some(text) = item.as_str() else {
+            out.push(FieldProblem::invalid(at, "must be a joint id (a string)"));
+            continue;
+        };
+        match JointId::parse(&at, text) {
+            Ok(id) => {
+                if let Some(j) = seen.insert(text.to_string(), i) {
+                    out.push(FieldProblem::invalid(at, format!("repeats ids[{j}]")));
+                } else {
+                    ids.push(id);
+                }
+            }
+            Err(p) => out.push(FieldProblem::invalid(p.field, p.reason)),
+        }
+    }
+    ids
+}
+
+fn selection(obj: &Map<String, Value>, out: &mut Vec<FieldProblem>) -> Option<Selection> {
+    match (obj.get("ids"), obj.get("tag")) {
+        (Some(_), Some(_)) => {
+            out.push(FieldProblem::invalid(
+                "tag",
+                "give the joints by ids or by tag, not both",
+            ));
+            None
+        }
+        (None, None) => {
+            out.push(FieldProblem::invalid(
+                "ids",
+                "required: the joints' ids, or a tag that selects them",
+            ));
+            None
+        }
+        (Some(Value::Array(items)), None) if (1..=BULK_RELEASE_MAX).contains(&items.len()) => {
+            Some(Selection::Ids(ids(items, out)))
+        }
+        (Some(Value::Array(items)), None) => {
+            out.push(FieldProblem::invalid(
+                "ids",
+                format!(
+                    "1 to {BULK_RELEASE_MAX} joint ids in one bulk release, {} given",
+                    items.len()
+                ),
+            ));
+            None
+        }
+        (Some(_), None) => {
+            out.push(FieldProblem::invalid("ids", "must be a list of joint ids"));
+            None
+        }
+        (None, Some(Value::String(tag))) => {
+            let n = tag.chars().count();
+            if tag.trim().is_empty() || n > TAG_MAX {
+                out.push(FieldProblem::invalid(
+                    "tag",
+                    format!("a tag has 1 to {TAG_MAX} characters and is not blank ({n} given)"),
+                ));
+                return None;
+            }
+            Some(Selection::Tag(tag.clone()))
+        }
+        (None, Some(_)) => {
+            out.push(FieldProblem::invalid("tag", "must be a string"));
+            None
+        }
+    }
+}
+
+/// Reads a bulk release body `{"ids": [...]}` or `{"tag"}` with `reason`
+/// and `accept_checks` as a release's; every problem named.
+pub fn bulk_release_ask(body: &Value) -> Result<BulkReleaseAsk, AppError> {
+    const KNOWN: [&str; 4] = ["ids", "tag", "reason", "accept_checks"];
+    let obj = object(body, &KNOWN)?;
+    let mut problems = Vec::new();
+    unknown_keys(obj, &KNOWN, &mut problems);
+    let joints = selection(obj, &mut problems);
+    let reason = reason(obj.get("reason"), "reason", &mut problems);
+    let accept_checks = accepted(obj.get("accept_checks"), &mut problems);
+    match joints {
+        Some(joints) if problems.is_empty() => Ok(BulkReleaseAsk {
+            joints,
+            ask: ReleaseAsk {
+                reason,
+                accept_checks,
+            },
+        }),
+        _ => Err(AppError::Fields(problems)),
+    }
+}
+
 /// Reads the `{"reason"}` of an approval or a withdrawal.
 pub fn status_reason(body: &Value) -> Result<String, AppError> {
     let obj = object(body, &["reason"])?;
@@ -223,5 +341,24 @@ mod tests {
             ["reason"]
         );
         assert_eq!(status_reason(&json!({"reason": "ok"})).unwrap(), "ok");
+    }
+
+    #[test]
+    fn a_bulk_release_takes_ids_or_a_tag() {
+        let ask = bulk_release_ask(&json!({"ids": ["K4-1", "K4-2"], "reason": "r"})).unwrap();
+        assert!(matches!(ask.joints, Selection::Ids(ref v) if v.len() == 2));
+        let ask = bulk_release_ask(&json!({"tag": "line-1", "reason": "r"})).unwrap();
+        assert_eq!(ask.joints, Selection::Tag("line-1".into()));
+        let e = bulk_release_ask(&json!({"ids": ["a", "a b", "a", 3], "reason": "r"})).unwrap_err();
+        assert_eq!(fields(e), ["ids[1]", "ids[2]", "ids[3]"]);
+        let e = bulk_release_ask(&json!({"ids": ["a"], "tag": "t", "reason": "r"})).unwrap_err();
+        assert_eq!(fields(e), ["tag"]);
+        let e = bulk_release_ask(&json!({"reason": ""})).unwrap_err();
+        assert_eq!(fields(e), ["ids", "reason"]);
+        let many: Vec<String> = (0..=BULK_RELEASE_MAX).map(|i| format!("J{i}")).collect();
+        let e = bulk_release_ask(&json!({"ids": many, "reason": "r"})).unwrap_err();
+        assert_eq!(fields(e), ["ids"]);
+        let e = bulk_release_ask(&json!({"ids": [], "reason": "r"})).unwrap_err();
+        assert_eq!(fields(e), ["ids"]);
     }
 }
