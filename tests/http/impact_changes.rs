@@ -184,13 +184,10 @@ async fn each_change_shows_its_effect_on_the_released_joints_and_writes_nothing(
     assert_eq!(waxed["changed"], true, "{waxed}");
     assert_eq!(waxed["before"], waxed["after"], "{waxed}");
     assert_eq!(waxed["change_percent"], 0.0);
-    // Once per side: both ranges lie outside the new entry's.
+    // Raised for both ranges (thread and bearing), listed once.
     assert_eq!(
         waxed["checks_added"],
-        json!([
-            "friction_outside_measured_range",
-            "friction_outside_measured_range"
-        ])
+        json!(["friction_outside_measured_range"])
     );
     assert_eq!(waxed["checks_removed"], json!([]));
     unchanged(&created, PLATED);

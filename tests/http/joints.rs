@@ -187,6 +187,19 @@ async fn refused_joint_writes_name_their_fields_and_write_nothing(db: &TestDb) {
     .await;
     assert_eq!(problem_fields(&p), ["id"]);
 
+    // a fixed path word under /v1/joints/ as the id: 422 naming id
+    let p = problem(
+        app.post_json(
+            Some(&editor),
+            "/v1/joints",
+            &definition("export", &[], "M10"),
+        )
+        .await,
+        StatusCode::UNPROCESSABLE_ENTITY,
+    )
+    .await;
+    assert_eq!(problem_fields(&p), ["id"]);
+
     // an unknown joint: 404 naming id, on read and on change
     let p = problem(app.get("/v1/joints/K4-RA-999").await, StatusCode::NOT_FOUND).await;
     assert_eq!(problem_fields(&p), ["id"]);

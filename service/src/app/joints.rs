@@ -51,7 +51,7 @@ pub struct ReviewDueView {
 /// (the `If-Match` of the next change) and its review mark.
 #[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
 pub struct JointView {
-    /// The plant's key: 1–64 of `A–Z a–z 0–9 . _ -`.
+    /// The plant's key: 1–64 of `A–Z a–z 0–9 . _ -`; not `export`, `import` or `releases`.
     pub id: String,
     pub title: String,
     pub tags: Vec<String>,

@@ -42,7 +42,7 @@ pub struct SetpointsWrite {
 #[derive(Debug, Serialize, Deserialize, ToSchema)]
 #[serde(deny_unknown_fields)]
 pub struct JointWrite {
-    /// The plant's key: 1–64 of `A–Z a–z 0–9 . _ -`, case kept.
+    /// The plant's key: 1–64 of `A–Z a–z 0–9 . _ -`, case kept; not `export`, `import` or `releases` (fixed paths under `/v1/joints/`).
     pub id: String,
     /// 1–200 characters.
     pub title: String,

@@ -63,7 +63,27 @@ impl JointId {
     pub fn as_str(&self) -> &str {
         &self.0
     }
+
+    /// Refuses, for a new definition, an id that is one of the fixed path
+    /// words under `/v1/joints/` ([`RESERVED_IDS`]): such a joint could
+    /// not be read by its own path. Ids already stored are read as they are.
+    pub fn not_reserved(self) -> Result<JointId, ChangeProblem> {
+        if RESERVED_IDS.contains(&self.0.as_str()) {
+            return Err(ChangeProblem::new(
+                "id",
+                format!(
+                    "'{}' is a fixed path under /v1/joints/ ({}); choose another id",
+                    self.0,
+                    RESERVED_IDS.join(", ")
+                ),
+            ));
+        }
+        Ok(self)
+    }
 }
+
+/// Path words under `/v1/joints/` that name a route, not a joint.
+pub const RESERVED_IDS: [&str; 3] = ["export", "import", "releases"];
 
 impl std::fmt::Display for JointId {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
@@ -190,7 +210,10 @@ impl JointDefinition {
         let mut problems = Vec::new();
         unknown_keys(obj, "", &FIELDS, &mut problems);
         let id = match obj.get("id") {
-            Some(Value::String(s)) => JointId::parse("id", s).map_err(|p| problems.push(p)).ok(),
+            Some(Value::String(s)) => JointId::parse("id", s)
+                .and_then(JointId::not_reserved)
+                .map_err(|p| problems.push(p))
+                .ok(),
             other => {
                 problems.push(required(other, "id", "a string"));
                 None

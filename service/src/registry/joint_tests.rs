@@ -52,6 +52,23 @@ fn ids_are_url_safe_and_case_preserving() {
 }
 
 #[test]
+fn a_new_joint_may_not_take_a_fixed_path_word_as_its_id() {
+    for word in RESERVED_IDS {
+        let mut b = body();
+        b["id"] = json!(word);
+        let e = JointDefinition::from_json(&b).unwrap_err();
+        assert_eq!(fields(e.clone()), ["id"], "{word}");
+        assert!(e.problems()[0].reason.contains("fixed path"), "{word}");
+    }
+    // the words are path segments as written; other spellings are ids
+    for id in ["Export", "exports", "import-1"] {
+        let mut b = body();
+        b["id"] = json!(id);
+        assert_eq!(JointDefinition::from_json(&b).unwrap().id.as_str(), id);
+    }
+}
+
+#[test]
 fn every_bad_field_is_named() {
     let mut b = body();
     b["id"] = json!("K4/017");

@@ -15,28 +15,24 @@
 //! the application layer, not to the store's transaction; a failure is
 //! logged, and the next revision marks what is still different.
 
+pub mod compare;
 pub mod figures;
 pub mod preview;
 pub mod review;
 
 use chrono::Utc;
 use serde::Serialize;
-use serde_json::{json, Value};
+use serde_json::json;
 use utoipa::ToSchema;
 
-use super::joints::joint_spec_request;
-use super::spec::setpoints::setpoints;
-use super::spec::tool::{torque_unit, ToolAsk};
-use super::spec::view::{spec_response, SetpointResponse};
-use super::spec::{compute_one, SpecRequest};
 use super::{App, AppError, FieldProblem};
 use crate::catalogue::{self, Change, ChangeItem, ChangeSet, EntryInput, Snapshot};
-use crate::engine::checks::CODES;
 use crate::registry::event::JOINT_REVIEW_DUE;
 use crate::registry::{Joint, JointId, OutboxEvent, Page, Release, ReleaseStatus};
 use crate::store::joints::{JointFilter, ReviewMark};
 use crate::store::outbox::new_event_id;
-use figures::{change_percent, read, ImpactFigures};
+pub use compare::{compare, compute};
+use figures::ImpactFigures;
 
 /// Joints read per page.
 pub const PAGE: u32 = 500;
@@ -134,98 +130,6 @@ pub struct ImpactResponse {
 pub const CAUTION: &str = "Estimates from the catalogue's friction data, to be confirmed by \
      joint tests; a safety-critical joint's new release needs sign-off by the responsible \
      engineer; drawings, local codes and licensed practice take precedence.";
-
-/// The setpoint answer (every check accepted) and the spec answer of joint
-/// `joint` computed against `snap`, or why it does not compute.
-fn answers(joint: &Joint, snap: &Snapshot) -> Result<(SetpointResponse, Value), String> {
-    let mut req: SpecRequest =
-        joint_spec_request(&joint.request, &joint.tags).map_err(|e| e.to_string())?;
-    req.catalogue_revision = None;
-    let describe = |e: AppError| {
-        e.problems()
-            .iter()
-            .map(|p| format!("{}: {}", p.field, p.reason))
-            .collect::<Vec<_>>()
-            .join("; ")
-    };
-    let (resolved, spec) = compute_one(&req, snap).map_err(describe)?;
-    let unit = torque_unit(joint.setpoints.torque_unit.as_deref()).map_err(|p| p.reason)?;
-    let tool = ToolAsk {
-        unit,
-        resolution: joint.setpoints.resolution,
-        angle_resolution: joint.setpoints.angle_resolution,
-        accept: CODES.to_vec(),
-    };
-    let answer = setpoints(&spec, &resolved, &tool, false).map_err(describe)?;
-    let p =
-        serde_json::to_value(spec_response(&spec, &resolved, false)).map_err(|e| e.to_string())?;
-    Ok((answer, p))
-}
-
-/// The figures of a setpoint and spec answer computed now.
-fn figures_of(
-    answer: &SetpointResponse,
-    spec: &Value,
-) -> Result<(ImpactFigures, Vec<String>), String> {
-    let s = serde_json::to_value(answer).map_err(|e| e.to_string())?;
-    read(&s, spec).ok_or_else(|| "the computed answer lacks a figure".into())
-}
-
-/// The figures and check codes of joint `joint` computed against `snap`
-/// (every check accepted: the impact reports checks, it does not refuse).
-pub fn compute(joint: &Joint, snap: &Snapshot) -> Result<(ImpactFigures, Vec<String>), String> {
-    let (answer, spec) = answers(joint, snap)?;
-    figures_of(&answer, &spec)
-}
-
-/// Joint `joint`'s release compared with the joint computed against `snap`.
-pub fn compare(joint: &Joint, release: &Release, snap: &Snapshot) -> JointImpact {
-    compare_with(joint, release, compute(joint, snap))
-}
-
-/// Joint `joint`'s release compared with figures computed `after`.
-fn compare_with(
-    joint: &Joint,
-    release: &Release,
-    after: Result<(ImpactFigures, Vec<String>), String>,
-) -> JointImpact {
-    let parse = |t: &str| serde_json::from_str::<Value>(t).unwrap_or(Value::Null);
-    let before = read(&parse(&release.setpoints), &parse(&release.spec));
-    let (before_codes, before) = match before {
-        Some((f, c)) => (c, Some(f)),
-        None => (Vec::new(), None),
-    };
-    let (after_codes, after, problem) = match after {
-        Ok((f, c)) => (c, Some(f), None),
-        Err(e) => (Vec::new(), None, Some(e)),
-    };
-    let added: Vec<String> = after_codes
-        .iter()
-        .filter(|c| !before_codes.contains(c))
-        .cloned()
-        .collect();
-    let removed: Vec<String> = before_codes
-        .iter()
-        .filter(|c| !after_codes.contains(c))
-        .cloned()
-        .collect();
-    let pct = match (&before, &after) {
-        (Some(b), Some(a)) => change_percent(b, a),
-        _ => None,
-    };
-    let changed = before != after || !added.is_empty() || !removed.is_empty();
-    JointImpact {
-        id: joint.id.to_string(),
-        release: release.number,
-        before,
-        after,
-        change_percent: pct,
-        changed,
-        checks_added: added,
-        checks_removed: removed,
-        problem,
-    }
-}
 
 /// `id` when catalogue `current` holds that friction entry; else unknown,
 /// naming the body's `entry_id` (404).

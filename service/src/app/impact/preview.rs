@@ -3,7 +3,8 @@
 //! its active release, the way the catalogue impact compares them. The
 //! page shows it above the release form; it writes nothing.
 
-use super::{answers, compare_with, figures_of, ImpactFigures, JointImpact};
+use super::compare::{answers, compare_with, figures_of};
+use super::{ImpactFigures, JointImpact};
 use crate::app::spec::view::CheckOut;
 use crate::app::{App, AppError};
 
