@@ -207,16 +207,23 @@ impl App {
             spec: frozen.spec,
             setpoints: frozen.setpoints,
         };
+        let (first, event) = self.first_step();
+        Ok(self.store().write_release(&new, first, event).await?)
+    }
+
+    /// How a new release starts under the four-eyes setting: its first
+    /// event (requested, or released at once) and the outbox event it
+    /// writes with it (none for a draft: approval writes that one).
+    fn first_step(&self) -> (ReleaseEventKind, impl Fn(&Release) -> Option<OutboxEvent>) {
         let four_eyes = self.four_eyes();
         let first = if four_eyes {
             ReleaseEventKind::Requested
         } else {
             ReleaseEventKind::Released
         };
-        Ok(self
-            .store()
-            .write_release(&new, first, |r| (!four_eyes).then(|| released_event(r)))
-            .await?)
+        (first, move |r: &Release| {
+            (!four_eyes).then(|| released_event(r))
+        })
     }
 
     /// Approves draft `number` of joint `id`: it becomes the active release.

@@ -18,12 +18,12 @@ use serde_json::Value;
 use utoipa::ToSchema;
 
 use super::body::{bulk_release_ask, Selection, BULK_RELEASE_MAX};
+use super::freeze_at;
 use super::view::ReleaseView;
-use super::{freeze_at, released_event};
 use crate::app::spec::{METHOD_VERSION, SERVICE_VERSION};
 use crate::app::{App, AppError, FieldProblem, ProblemClass};
 use crate::registry::joint::PAGE_MAX;
-use crate::registry::{Joint, JointId, NewRelease, Page, Release, ReleaseEventKind};
+use crate::registry::{Joint, JointId, NewRelease, Page, Release};
 use crate::store::joints::JointFilter;
 use crate::store::releases_bulk::BulkItem;
 
@@ -199,15 +199,7 @@ impl App {
         if !problems.is_empty() {
             return Err(AppError::Fields(problems));
         }
-        let four_eyes = self.four_eyes();
-        let first = if four_eyes {
-            ReleaseEventKind::Requested
-        } else {
-            ReleaseEventKind::Released
-        };
-        Ok(self
-            .store()
-            .write_releases(&items, first, |r| (!four_eyes).then(|| released_event(r)))
-            .await?)
+        let (first, event) = self.first_step();
+        Ok(self.store().write_releases(&items, first, event).await?)
     }
 }
