@@ -23,6 +23,7 @@ on_both_backends!(
     the_four_eyes_flow_and_refused_transitions,
     concurrent_releases_get_distinct_numbers,
     a_release_whose_outbox_row_fails_leaves_nothing,
+    a_release_computed_from_an_older_definition_is_refused,
     registry_records_are_append_only_in_the_database,
 );
 
@@ -63,7 +64,7 @@ async fn release(
 ) -> Result<Release, RegistryStoreError> {
     let new = new_release(joint, "editor-a", reason);
     store
-        .write_release(&new, first, |_| Some(released_event(joint)))
+        .write_release(&new, None, first, |_| Some(released_event(joint)))
         .await
 }
 
@@ -91,7 +92,7 @@ async fn a_release_is_frozen_with_its_event_and_outbox_row(db: &TestDb) {
     let new = new_release("K4-RA-017", "editor-a", "first release");
     let ev = released_event("K4-RA-017");
     let first = store
-        .write_release(&new, K::Released, |_| Some(ev.clone()))
+        .write_release(&new, None, K::Released, |_| Some(ev.clone()))
         .await
         .unwrap();
     assert_eq!((first.number, first.status), (1, S::Released));
@@ -271,7 +272,9 @@ async fn concurrent_releases_get_distinct_numbers(db: &TestDb) {
             tokio::spawn(async move {
                 let new = new_release("K4-RA-017", "editor", &format!("release {n}"));
                 store
-                    .write_release(&new, K::Released, |_| Some(released_event("K4-RA-017")))
+                    .write_release(&new, None, K::Released, |_| {
+                        Some(released_event("K4-RA-017"))
+                    })
                     .await
             })
         })
@@ -300,13 +303,13 @@ async fn a_release_whose_outbox_row_fails_leaves_nothing(db: &TestDb) {
     let ev = released_event("K4-RA-017");
     let new = new_release("K4-RA-017", "editor-a", "first");
     store
-        .write_release(&new, K::Released, |_| Some(ev.clone()))
+        .write_release(&new, None, K::Released, |_| Some(ev.clone()))
         .await
         .unwrap();
     // the outbox refuses a second row with the same event id: the release,
     // its first event and the superseding of release 1 are rolled back with it
     let err = store
-        .write_release(&new, K::Released, |_| Some(ev.clone()))
+        .write_release(&new, None, K::Released, |_| Some(ev.clone()))
         .await
         .unwrap_err();
     assert!(
@@ -323,6 +326,37 @@ async fn a_release_whose_outbox_row_fails_leaves_nothing(db: &TestDb) {
     // the next release takes number 2
     let next = release(&store, "K4-RA-017", "second", K::Released).await;
     assert_eq!(next.unwrap().number, 2);
+}
+
+async fn a_release_computed_from_an_older_definition_is_refused(db: &TestDb) {
+    let store = with_joints(db, &["K4-RA-017"]).await;
+    let joint = id("K4-RA-017");
+    let version = store.joint(&joint).await.unwrap().version;
+    let new = new_release("K4-RA-017", "editor-a", "first");
+    // the definition read was version - 1: changed since, so a conflict
+    // naming the joint, and nothing written
+    let err = store
+        .write_release(&new, Some(version - 1), K::Released, |_| {
+            Some(released_event("K4-RA-017"))
+        })
+        .await
+        .unwrap_err();
+    match &err {
+        RegistryStoreError::Store(StoreError::Conflict { field, .. }) => {
+            assert_eq!(field, "joints[K4-RA-017]")
+        }
+        other => panic!("{other:?}"),
+    }
+    assert_eq!(store.active_release(&joint).await.unwrap(), None);
+    assert!(outbox_ids(&store).await.is_empty());
+    // at the version read, it is written
+    let r = store
+        .write_release(&new, Some(version), K::Released, |_| {
+            Some(released_event("K4-RA-017"))
+        })
+        .await
+        .unwrap();
+    assert_eq!(r.number, 1);
 }
 
 async fn registry_records_are_append_only_in_the_database(db: &TestDb) {

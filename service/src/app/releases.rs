@@ -208,7 +208,12 @@ impl App {
             setpoints: frozen.setpoints,
         };
         let (first, event) = self.first_step();
-        Ok(self.store().write_release(&new, first, event).await?)
+        // The joint's definition must still be the one the release was
+        // computed from (as in a bulk release).
+        Ok(self
+            .store()
+            .write_release(&new, Some(joint.version), first, event)
+            .await?)
     }
 
     /// How a new release starts under the four-eyes setting: its first

@@ -76,14 +76,32 @@ fn the_joint_tag_is_the_first_dimension_the_bearing_surface_the_second() {
     assert_eq!(chosen(&s, Some("painted"), &["k4"]), 903);
     assert_eq!(chosen(&s, Some("hardened-washer"), &["other"]), 902);
     assert_eq!(chosen(&s, None, &["other"]), 901);
-    // without 903, a tagged joint on another surface falls back to the
-    // generic levels: a tag entry for a named surface applies only there
+    // without 903, a tagged joint on another named surface falls back to
+    // the generic levels: a tag entry for a named surface applies only there
     let s = with(&[
         (901, None, None),
         (904, Some("hardened-washer"), Some("k4")),
     ]);
     assert_eq!(chosen(&s, Some("painted"), &["k4"]), 901);
-    assert_eq!(chosen(&s, None, &["k4"]), 901);
+    // with no surface named (every spec request today) the tag still comes
+    // first: the tagged entry for a named surface, not the generic one
+    assert_eq!(chosen(&s, None, &["k4"]), 904);
+    assert_eq!(chosen(&s, None, &["other"]), 901);
+    let s = with(&[
+        (902, Some("hardened-washer"), None),
+        (904, Some("hardened-washer"), Some("k4")),
+    ]);
+    assert_eq!(chosen(&s, None, &["k4"]), 904);
+    assert_eq!(chosen(&s, None, &[]), 902);
+    // and two such entries for two tags of one joint are ambiguous
+    let s = with(&[
+        (904, Some("hardened-washer"), Some("k4")),
+        (905, Some("hardened-washer"), Some("rear-axle")),
+    ]);
+    assert!(matches!(
+        s.friction_for_joint(F, L, None, &tags(&["k4", "rear-axle"])),
+        Err(CatalogueError::AmbiguousFriction { .. })
+    ));
     // a tag entry for any surface beats a generic one for the exact surface
     let s = with(&[
         (902, Some("hardened-washer"), None),

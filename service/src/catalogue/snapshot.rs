@@ -146,6 +146,9 @@ impl Snapshot {
     /// 1. an entry limited to one of the joint's tags, for exactly the
     ///    named bearing surface;
     /// 2. an entry limited to one of the joint's tags, for any surface;
+    ///    with no surface named, then one of the joint's tags for a named
+    ///    surface, the lowest id (the tag is the first dimension: a tagged
+    ///    entry is never passed over for a generic one);
     /// 3. a generic entry (no tag) for exactly the named bearing surface;
     /// 4. a generic entry for any surface;
     /// 5. with no surface named, the generic entry for a named surface
@@ -169,7 +172,9 @@ impl Snapshot {
             .collect();
         candidates.sort_by_key(|e| e.id);
         let fits_surface = |e: &&&FrictionEntry| {
-            e.bearing_surface.is_none() || e.bearing_surface.as_deref() == bearing_surface
+            bearing_surface.is_none()
+                || e.bearing_surface.is_none()
+                || e.bearing_surface.as_deref() == bearing_surface
         };
         let scoped: Vec<&FrictionEntry> = candidates
             .iter()
@@ -201,6 +206,12 @@ impl Snapshot {
             .collect();
         let found = for_surface(&scoped, bearing_surface)
             .or_else(|| for_any_surface(&scoped))
+            .or_else(|| {
+                bearing_surface
+                    .is_none()
+                    .then(|| scoped.first().copied())
+                    .flatten()
+            })
             .or_else(|| for_surface(&generic, bearing_surface))
             .or_else(|| for_any_surface(&generic))
             .or_else(|| {

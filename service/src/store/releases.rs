@@ -276,11 +276,14 @@ pub(super) async fn write_in(
 impl Store {
     /// Writes a release with the next number, its first event (`requested`:
     /// a draft; `released`: active at once) and the outbox event `event`
-    /// makes of the written release (if any), in one transaction.
+    /// makes of the written release (if any), in one transaction. With
+    /// `version`, a joint whose definition is no longer at that version (it
+    /// changed after the release was computed from it) is a conflict.
     #[tracing::instrument(skip(self, new, event), level = "debug", fields(id = %new.joint_id))]
     pub async fn write_release(
         &self,
         new: &NewRelease,
+        version: Option<i64>,
         first: ReleaseEventKind,
         event: impl FnOnce(&Release) -> Option<OutboxEvent>,
     ) -> Result<Release, RegistryStoreError> {
@@ -288,7 +291,7 @@ impl Store {
         first.apply(None, "status")?;
         let mut tx = Tx::write(self).await?;
         // On a refusal the transaction is dropped, which rolls it back.
-        let release = write_in(&mut tx, new, first, None, event).await?;
+        let release = write_in(&mut tx, new, first, version, event).await?;
         tx.commit().await?;
         Ok(release)
     }
