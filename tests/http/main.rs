@@ -28,6 +28,7 @@ mod charts;
 mod contract;
 mod controlled_methods;
 mod csv_export;
+mod fetch_kept;
 mod friction_tests;
 mod friction_tests_notes;
 mod friction_tests_store;

@@ -369,7 +369,8 @@ async fn second_instance_sees_change_within_one_second(db: &TestDb) {
     let a = open(db).await;
     let b = open(db).await;
     let live_b = Arc::new(Live::new(b.load_current().await.unwrap()));
-    let watcher = tightspec::store::watch::spawn(b.clone(), Arc::clone(&live_b));
+    let watcher =
+        tightspec::store::watch::spawn(b.clone(), Arc::clone(&live_b), Default::default());
     tokio::time::sleep(Duration::from_millis(300)).await;
     let live_a = Live::new(a.load_current().await.unwrap());
     let seed = Snapshot::seed();

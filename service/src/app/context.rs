@@ -5,6 +5,7 @@
 
 use std::sync::Arc;
 
+use super::releases::fetch_cache::FetchCache;
 use super::AppError;
 use crate::catalogue::{Live, Snapshot};
 use crate::store::Store;
@@ -16,6 +17,8 @@ pub struct App {
     live: Arc<Live>,
     /// The four-eyes rule for joint releases (see `app::releases`).
     four_eyes: bool,
+    /// The answers fetched by joint id, kept (see `app::releases::fetch_cache`).
+    fetch: Arc<FetchCache>,
 }
 
 impl App {
@@ -30,10 +33,13 @@ impl App {
             revision = live.revision(),
             "catalogue loaded"
         );
+        let fetch = Arc::new(FetchCache::default());
+        crate::store::watch::refresh_registry(&store, &fetch.seen()).await;
         Ok(Self {
             store,
             live,
             four_eyes: false,
+            fetch,
         })
     }
 
@@ -53,12 +59,21 @@ impl App {
     /// Starts the task that keeps the live catalogue in step with the
     /// database; abort the handle on shutdown.
     pub fn watch(&self) -> tokio::task::JoinHandle<()> {
-        crate::store::watch::spawn(self.store.clone(), Arc::clone(&self.live))
+        crate::store::watch::spawn(
+            self.store.clone(),
+            Arc::clone(&self.live),
+            self.fetch.seen(),
+        )
     }
 
     /// Closes the store's connections (command-line runs, at their end).
     pub async fn close(&self) {
         self.store.close().await;
+    }
+
+    /// The answers fetched by joint id, kept; for the use cases in `app/`.
+    pub(in crate::app) fn fetch_cache(&self) -> &FetchCache {
+        &self.fetch
     }
 
     /// The store, for the use cases in `app/` only.

@@ -239,7 +239,9 @@ impl App {
     /// Defines a joint (version 1). A taken id is a conflict naming `id`.
     pub async fn create_joint(&self, actor: &str, body: &Value) -> Result<Joint, AppError> {
         let def = self.definition(body)?;
-        Ok(self.store().create_joint(&def, actor, CREATED).await?)
+        let written = self.store().create_joint(&def, actor, CREATED).await;
+        self.fetch_cache().registry_written();
+        Ok(written?)
     }
 
     /// One joint (unknown: 404 naming `id`, with near ids).
@@ -298,10 +300,12 @@ impl App {
             }
         }
         let def = self.definition(body)?;
-        Ok(self
+        let written = self
             .store()
             .update_joint(&def, expected, actor, CHANGED)
-            .await?)
+            .await;
+        self.fetch_cache().registry_written();
+        Ok(written?)
     }
 
     /// A page of joints in id order, with the cursor of the next page.

@@ -173,7 +173,9 @@ impl App {
         let out = self
             .store()
             .import_joints(&defs, same, actor, &reason)
-            .await?;
+            .await;
+        self.fetch_cache().registry_written();
+        let out = out?;
         let ids = |v: Vec<crate::registry::JointId>| -> Vec<String> {
             v.into_iter().map(String::from).collect()
         };

@@ -14,7 +14,10 @@
 
 pub mod body;
 pub mod bulk;
+pub mod fetch_cache;
 pub mod view;
+
+use std::sync::Arc;
 
 use chrono::Utc;
 use serde_json::{json, Value};
@@ -32,7 +35,8 @@ use crate::registry::{Joint, JointId, NewRelease, OutboxEvent, Release, ReleaseE
 use crate::store::outbox::new_event_id;
 use crate::store::releases::ReleaseEventRecord;
 use body::{release_ask, status_reason, ReleaseAsk};
-use view::ReleasedAnswer;
+use fetch_cache::Rendered;
+use view::{FrozenAnswer, ReleasedAnswer};
 
 /// The two answers a release freezes, as served, and the hash that
 /// identifies them.
@@ -210,10 +214,12 @@ impl App {
         let (first, event) = self.first_step();
         // The joint's definition must still be the one the release was
         // computed from (as in a bulk release).
-        Ok(self
+        let written = self
             .store()
             .write_release(&new, Some(joint.version), first, event)
-            .await?)
+            .await;
+        self.fetch_cache().registry_written();
+        Ok(written?)
     }
 
     /// How a new release starts under the four-eyes setting: its first
@@ -251,7 +257,7 @@ impl App {
             });
         }
         let event = released_event(&draft);
-        Ok(self
+        let written = self
             .store()
             .append_release_event(
                 &id,
@@ -261,7 +267,9 @@ impl App {
                 &reason,
                 Some(&event),
             )
-            .await?)
+            .await;
+        self.fetch_cache().registry_written();
+        Ok(written?)
     }
 
     /// Withdraws release `number` of joint `id` (a draft or the active
@@ -288,7 +296,7 @@ impl App {
                 "reason": reason,
             }),
         );
-        Ok(self
+        let written = self
             .store()
             .append_release_event(
                 &id,
@@ -298,7 +306,9 @@ impl App {
                 &reason,
                 Some(&event),
             )
-            .await?)
+            .await;
+        self.fetch_cache().registry_written();
+        Ok(written?)
     }
 
     /// Release `number` of joint `id` (unknown joint: 404 with near ids;
@@ -325,6 +335,35 @@ impl App {
         let (id, release) = self.release_of(id, number).await?;
         let events = self.store().release_events(&id, number).await?;
         Ok((release, events))
+    }
+
+    /// What the line fetches, as served: the answer's ETag and bytes. The
+    /// active release's are kept in memory (see [`fetch_cache`]) while the
+    /// database is reachable; `?release=N` and a stale catalogue read the
+    /// database each time.
+    pub async fn released_answer(
+        &self,
+        id: &str,
+        number: Option<i64>,
+        which: FrozenAnswer,
+    ) -> Result<Arc<Rendered>, AppError> {
+        let keep = number.is_none() && !self.stale();
+        let stamp = self.fetch_cache().stamp();
+        if keep {
+            if let Some(r) = self.fetch_cache().get(id, which, stamp) {
+                return Ok(r);
+            }
+        }
+        let answer = self.released(id, number).await?;
+        let rendered = Arc::new(Rendered {
+            etag: answer.etag(which),
+            body: answer.json(which)?,
+        });
+        if keep {
+            self.fetch_cache()
+                .put(id, which, stamp, Arc::clone(&rendered));
+        }
+        Ok(rendered)
     }
 
     /// What the line fetches: the active release of joint `id` (409 naming

@@ -132,20 +132,18 @@ async fn frozen(
     q: ReleaseQuery,
     which: FrozenAnswer,
 ) -> Result<HttpResponse, ApiError> {
-    let answer = state.app.released(id, q.release).await?;
-    let etag = answer.etag(which);
-    if not_modified(http.headers(), &etag) {
+    let answer = state.app.released_answer(id, q.release, which).await?;
+    if not_modified(http.headers(), &answer.etag) {
         return Ok(HttpResponse::NotModified()
-            .insert_header((header::ETAG, etag))
+            .insert_header((header::ETAG, answer.etag.clone()))
             .insert_header((header::CACHE_CONTROL, "no-cache"))
             .finish());
     }
-    let body = answer.json(which)?;
     Ok(HttpResponse::Ok()
-        .insert_header((header::ETAG, etag))
+        .insert_header((header::ETAG, answer.etag.clone()))
         .insert_header((header::CACHE_CONTROL, "no-cache"))
         .content_type("application/json")
-        .body(body))
+        .body(answer.body.clone()))
 }
 
 /// The setpoints of a joint's active release (or `?release=N`), from the

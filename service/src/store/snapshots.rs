@@ -52,6 +52,19 @@ impl Store {
             .await?))
     }
 
+    /// The registry's change counter (`registry_generation`): database
+    /// triggers add one on every write to joints, releases and release
+    /// events. The watcher reads it to end what the instance keeps of the
+    /// answers fetched by joint id.
+    #[tracing::instrument(skip(self), level = "debug")]
+    pub async fn registry_generation(&self) -> Result<i64, StoreError> {
+        Ok(dispatch!(Store, self, |pool| sqlx::query_scalar(
+            "SELECT n FROM registry_generation WHERE id = 1"
+        )
+        .fetch_one(pool)
+        .await?))
+    }
+
     /// The current catalogue, read in one consistent transaction.
     #[tracing::instrument(skip(self), level = "debug")]
     pub async fn load_current(&self) -> Result<Snapshot, StoreError> {

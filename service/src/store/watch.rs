@@ -2,9 +2,13 @@
 //! PostgreSQL `LISTEN catalogue_changed` for an immediate reload, and a
 //! revision check every 500 ms as the fallback (and the only path on
 //! SQLite), so a change made through another instance is used within 1 s.
+//! The same wake-ups read the registry's change counter (PostgreSQL also
+//! `LISTEN registry_changed`) into the atomic the application compares its
+//! kept fetch answers with.
 //! While the database cannot be reached the catalogue is flagged "may be
 //! stale"; the watcher keeps retrying and clears the flag on recovery.
 
+use std::sync::atomic::{AtomicI64, Ordering};
 use std::sync::Arc;
 use std::time::Duration;
 
@@ -13,13 +17,20 @@ use sqlx::postgres::PgListener;
 use super::Store;
 use crate::catalogue::Live;
 
+/// Notified by the registry's triggers at commit (PostgreSQL).
+pub const REGISTRY_CHANNEL: &str = "registry_changed";
+
 /// Fallback revision-check period.
 pub const POLL_EVERY: Duration = Duration::from_millis(500);
 
 /// Starts the watcher on the current tokio runtime. It runs until the
 /// returned handle is aborted (or the runtime shuts down).
-pub fn spawn(store: Store, live: Arc<Live>) -> tokio::task::JoinHandle<()> {
-    tokio::spawn(run(store, live))
+pub fn spawn(
+    store: Store,
+    live: Arc<Live>,
+    registry: Arc<AtomicI64>,
+) -> tokio::task::JoinHandle<()> {
+    tokio::spawn(run(store, live, registry))
 }
 
 enum Wake {
@@ -28,7 +39,7 @@ enum Wake {
     ListenerLost,
 }
 
-async fn run(store: Store, live: Arc<Live>) {
+async fn run(store: Store, live: Arc<Live>, registry: Arc<AtomicI64>) {
     let mut listener: Option<PgListener> = None;
     let mut tick = tokio::time::interval(POLL_EVERY);
     tick.set_missed_tick_behavior(tokio::time::MissedTickBehavior::Delay);
@@ -53,6 +64,16 @@ async fn run(store: Store, live: Arc<Live>) {
             tracing::debug!("catalogue change notified");
         }
         refresh(&store, &live).await;
+        refresh_registry(&store, &registry).await;
+    }
+}
+
+/// Reads the registry's change counter into `seen` (left as it is while
+/// the database cannot be reached: the catalogue's stale flag covers that).
+pub async fn refresh_registry(store: &Store, seen: &AtomicI64) {
+    match store.registry_generation().await {
+        Ok(n) => seen.store(n, Ordering::SeqCst),
+        Err(e) => tracing::debug!(error = %e, "registry counter unreadable"),
     }
 }
 
@@ -64,7 +85,10 @@ async fn listen(pool: &sqlx::PgPool) -> Option<PgListener> {
             return None;
         }
     };
-    match l.listen(super::backend::CHANNEL).await {
+    match l
+        .listen_all([super::backend::CHANNEL, REGISTRY_CHANNEL])
+        .await
+    {
         Ok(()) => Some(l),
         Err(e) => {
             tracing::debug!(error = %e, "LISTEN failed");

@@ -312,11 +312,12 @@ impl App {
         .await?;
         let mut marked = Vec::new();
         for chunk in marks.chunks(PAGE as usize) {
-            marked.extend(
-                self.store()
-                    .mark_review_due(snap.revision, now, chunk)
-                    .await?,
-            );
+            let written = self
+                .store()
+                .mark_review_due(snap.revision, now, chunk)
+                .await;
+            self.fetch_cache().registry_written();
+            marked.extend(written?);
         }
         Ok(marked)
     }

@@ -56,10 +56,12 @@ impl App {
     ) -> Result<JointView, AppError> {
         let reason = confirm_reason(body)?;
         let joint = self.joint(id).await?;
-        let (joint, cleared) = self
+        let written = self
             .store()
             .confirm_review(&joint.id, actor, &reason, Utc::now())
-            .await?;
+            .await;
+        self.fetch_cache().registry_written();
+        let (joint, cleared) = written?;
         if cleared.is_none() {
             return Err(AppError::Conflict {
                 field: "review_due".into(),

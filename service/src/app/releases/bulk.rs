@@ -200,6 +200,8 @@ impl App {
             return Err(AppError::Fields(problems));
         }
         let (first, event) = self.first_step();
-        Ok(self.store().write_releases(&items, first, event).await?)
+        let written = self.store().write_releases(&items, first, event).await;
+        self.fetch_cache().registry_written();
+        Ok(written?)
     }
 }

@@ -107,7 +107,7 @@ fn accepted(c: &AcceptedCheck) -> AcceptedCheckView {
 }
 
 /// Which frozen answer of a release.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
 pub enum FrozenAnswer {
     /// The full spec answer (`GET /v1/tightening-specs`'s shape).
     Spec,
