@@ -52,6 +52,8 @@ pub mod subscriptions;
 pub fn routes(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
     health::configure(cfg);
     specs::configure(cfg);
+    // what the line fetches by joint id, right after the spec look-ups
+    releases::configure(cfg);
     charts::configure(cfg);
     reference::configure(cfg);
     catalogue::configure(cfg);
@@ -59,7 +61,6 @@ pub fn routes(cfg: &mut utoipa_actix_web::service_config::ServiceConfig) {
     joints_bulk::configure(cfg);
     releases_bulk::configure(cfg);
     joints::configure(cfg);
-    releases::configure(cfg);
     impact::configure(cfg);
     subscriptions::configure(cfg);
 }
