@@ -31,7 +31,9 @@ use super::spec::{compute_one, SpecRequest, METHOD_VERSION, SERVICE_VERSION};
 use super::{App, AppError, FieldProblem};
 use crate::catalogue::Snapshot;
 use crate::registry::event::{JOINT_RELEASED, JOINT_WITHDRAWN};
-use crate::registry::{Joint, JointId, NewRelease, OutboxEvent, Release, ReleaseEventKind};
+use crate::registry::{
+    AcceptedCheck, Joint, JointId, NewRelease, OutboxEvent, Release, ReleaseEventKind,
+};
 use crate::store::outbox::new_event_id;
 use crate::store::releases::ReleaseEventRecord;
 use body::{release_ask, status_reason, ReleaseAsk};
@@ -47,6 +49,31 @@ struct Frozen {
     revision: i64,
     /// The accepted error-check codes that apply to these values.
     applied: Vec<&'static str>,
+}
+
+impl Frozen {
+    /// The release to write: these values with who asked, why and the
+    /// checks accepted, stamped with this service's and method's versions.
+    fn into_release(
+        self,
+        joint: &Joint,
+        actor: &str,
+        reason: String,
+        accepted_checks: Vec<AcceptedCheck>,
+    ) -> NewRelease {
+        NewRelease {
+            joint_id: joint.id.clone(),
+            spec_hash: self.spec_hash,
+            catalogue_revision: self.revision,
+            service_version: SERVICE_VERSION.into(),
+            method_version: METHOD_VERSION.into(),
+            requested_by: actor.into(),
+            reason,
+            accepted_checks,
+            spec: self.spec,
+            setpoints: self.setpoints,
+        }
+    }
 }
 
 /// A problem of computing the joint's stored definition, named under the
@@ -199,18 +226,7 @@ impl App {
             });
         }
         let frozen = self.freeze(&joint, &ask)?;
-        let new = NewRelease {
-            joint_id: joint.id.clone(),
-            spec_hash: frozen.spec_hash,
-            catalogue_revision: frozen.revision,
-            service_version: SERVICE_VERSION.into(),
-            method_version: METHOD_VERSION.into(),
-            requested_by: actor.into(),
-            reason: ask.reason,
-            accepted_checks: ask.accept_checks,
-            spec: frozen.spec,
-            setpoints: frozen.setpoints,
-        };
+        let new = frozen.into_release(&joint, actor, ask.reason, ask.accept_checks);
         let (first, event) = self.first_step();
         // The joint's definition must still be the one the release was
         // computed from (as in a bulk release).

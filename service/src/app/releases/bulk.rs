@@ -20,10 +20,9 @@ use utoipa::ToSchema;
 use super::body::{bulk_release_ask, Selection, BULK_RELEASE_MAX};
 use super::freeze_at;
 use super::view::ReleaseView;
-use crate::app::spec::{METHOD_VERSION, SERVICE_VERSION};
 use crate::app::{App, AppError, FieldProblem, ProblemClass};
 use crate::registry::joint::PAGE_MAX;
-use crate::registry::{Joint, JointId, NewRelease, Page, Release};
+use crate::registry::{Joint, JointId, Page, Release};
 use crate::store::joints::JointFilter;
 use crate::store::releases_bulk::BulkItem;
 
@@ -161,18 +160,7 @@ impl App {
                         .cloned()
                         .collect();
                     items.push(BulkItem {
-                        new: NewRelease {
-                            joint_id: joint.id.clone(),
-                            spec_hash: frozen.spec_hash,
-                            catalogue_revision: frozen.revision,
-                            service_version: SERVICE_VERSION.into(),
-                            method_version: METHOD_VERSION.into(),
-                            requested_by: actor.into(),
-                            reason: ask.reason.clone(),
-                            accepted_checks,
-                            spec: frozen.spec,
-                            setpoints: frozen.setpoints,
-                        },
+                        new: frozen.into_release(joint, actor, ask.reason.clone(), accepted_checks),
                         version: joint.version,
                     });
                 }
