@@ -373,7 +373,7 @@ impl App {
         let answer = self.released(id, number).await?;
         let rendered = Arc::new(Rendered {
             etag: answer.etag(which),
-            body: answer.json(which)?,
+            body: answer.json(which)?.into(),
         });
         if keep {
             self.fetch_cache()

@@ -6,7 +6,7 @@
 //! `app::releases` and renders; [`ReleaseWrite`], [`StatusWrite`],
 //! [`ReleasedSpec`] and [`ReleasedSetpoints`] only document the bodies.
 
-use actix_web::http::header;
+use actix_web::http::header::{self, HeaderValue};
 use actix_web::{get, post, web, HttpRequest, HttpResponse};
 use serde::{Deserialize, Serialize};
 use utoipa::{IntoParams, ToSchema};
@@ -133,16 +133,23 @@ async fn frozen(
     which: FrozenAnswer,
 ) -> Result<HttpResponse, ApiError> {
     let answer = state.app.released_answer(id, q.release, which).await?;
+    let etag = HeaderValue::from_str(&answer.etag)
+        .map_err(|e| ApiError::Internal(format!("ETag is not a header value: {e}")))?;
+    let no_cache = HeaderValue::from_static("no-cache");
     if not_modified(http.headers(), &answer.etag) {
         return Ok(HttpResponse::NotModified()
-            .insert_header((header::ETAG, answer.etag.clone()))
-            .insert_header((header::CACHE_CONTROL, "no-cache"))
+            .insert_header((header::ETAG, etag))
+            .insert_header((header::CACHE_CONTROL, no_cache))
             .finish());
     }
     Ok(HttpResponse::Ok()
-        .insert_header((header::ETAG, answer.etag.clone()))
-        .insert_header((header::CACHE_CONTROL, "no-cache"))
-        .content_type("application/json")
+        .insert_header((header::ETAG, etag))
+        .insert_header((header::CACHE_CONTROL, no_cache))
+        .insert_header((
+            header::CONTENT_TYPE,
+            HeaderValue::from_static("application/json"),
+        ))
+        // shared with the kept answer, not copied
         .body(answer.body.clone()))
 }
 

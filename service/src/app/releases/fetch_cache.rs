@@ -14,24 +14,48 @@
 
 use std::collections::HashMap;
 use std::sync::atomic::{AtomicI64, AtomicU64, Ordering};
-use std::sync::{Arc, Mutex};
+use std::sync::{Arc, RwLock};
+
+use bytes::Bytes;
 
 use super::view::FrozenAnswer;
 
 /// Answers kept at most; beyond, everything kept is let go (bounded memory).
 pub const KEPT_MAX: usize = 20_000;
 
-/// One answer as served.
+/// One answer as served. The body is shared, not copied, by every
+/// response that sends it.
 #[derive(Debug, PartialEq, Eq)]
 pub struct Rendered {
     pub etag: String,
-    pub body: String,
+    pub body: Bytes,
 }
 
 type Stamp = (u64, i64);
 
-/// Joint id and answer → the stamp it was kept under and the answer.
-type Kept = HashMap<(String, FrozenAnswer), (Stamp, Arc<Rendered>)>;
+/// Joint id → the stamp an answer was kept under and the answer; one map
+/// per answer kind, so that a look-up by `&str` allocates nothing.
+type Answers = HashMap<Box<str>, (Stamp, Arc<Rendered>)>;
+
+/// The spec answers and the setpoint answers.
+#[derive(Debug, Default)]
+struct Kept {
+    spec: Answers,
+    setpoints: Answers,
+}
+
+impl Kept {
+    fn of(&self, which: FrozenAnswer) -> &Answers {
+        match which {
+            FrozenAnswer::Spec => &self.spec,
+            FrozenAnswer::Setpoints => &self.setpoints,
+        }
+    }
+
+    fn len(&self) -> usize {
+        self.spec.len() + self.setpoints.len()
+    }
+}
 
 #[derive(Debug, Default)]
 pub struct FetchCache {
@@ -39,7 +63,8 @@ pub struct FetchCache {
     written: AtomicU64,
     /// The database's registry change counter as the watcher last read it.
     seen: Arc<AtomicI64>,
-    kept: Mutex<Kept>,
+    /// Read by every fetch, written on a miss: a read-write lock.
+    kept: RwLock<Kept>,
 }
 
 impl FetchCache {
@@ -64,8 +89,8 @@ impl FetchCache {
 
     /// The kept answer for `id`, when kept under `stamp`.
     pub fn get(&self, id: &str, which: FrozenAnswer, stamp: Stamp) -> Option<Arc<Rendered>> {
-        let kept = self.kept.lock().unwrap_or_else(|p| p.into_inner());
-        match kept.get(&(id.to_string(), which)) {
+        let kept = self.kept.read().unwrap_or_else(|p| p.into_inner());
+        match kept.of(which).get(id) {
             Some((s, r)) if *s == stamp => Some(Arc::clone(r)),
             _ => None,
         }
@@ -73,11 +98,15 @@ impl FetchCache {
 
     /// Keeps `answer` for `id` under `stamp` (read before the database was).
     pub fn put(&self, id: &str, which: FrozenAnswer, stamp: Stamp, answer: Arc<Rendered>) {
-        let mut kept = self.kept.lock().unwrap_or_else(|p| p.into_inner());
+        let mut kept = self.kept.write().unwrap_or_else(|p| p.into_inner());
         if kept.len() >= KEPT_MAX {
-            kept.clear();
+            *kept = Kept::default();
         }
-        kept.insert((id.to_string(), which), (stamp, answer));
+        let answers = match which {
+            FrozenAnswer::Spec => &mut kept.spec,
+            FrozenAnswer::Setpoints => &mut kept.setpoints,
+        };
+        answers.insert(id.into(), (stamp, answer));
     }
 }
 
@@ -88,7 +117,7 @@ mod tests {
     fn answer(tag: &str) -> Arc<Rendered> {
         Arc::new(Rendered {
             etag: tag.into(),
-            body: "{}".into(),
+            body: Bytes::from_static(b"{}"),
         })
     }
 
@@ -137,7 +166,7 @@ mod tests {
         for i in 0..KEPT_MAX + 5 {
             c.put(&format!("J{i}"), FrozenAnswer::Spec, s, answer("x"));
         }
-        let kept = c.kept.lock().unwrap().len();
+        let kept = c.kept.read().unwrap().len();
         assert!(kept <= KEPT_MAX, "{kept}");
     }
 }
