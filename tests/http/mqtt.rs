@@ -1,8 +1,12 @@
 //! Each joint's active setpoints as a retained MQTT message (`app::mqtt`),
 //! against the broker on 127.0.0.1:1883 (CI runs one; without it these
 //! tests fail, they are never skipped). Every test publishes under a topic
-//! prefix of its own, so runs do not see each other's messages. The plant
-//! and its joints are invented for the test (demo data).
+//! prefix of its own, so runs do not see each other's messages: a value
+//! left retained for a joint without an active release is cleared, a
+//! release is published byte for byte as fetched (and given to a late
+//! subscriber), a review mark publishes again, a withdrawal clears it; the
+//! service serves while the broker cannot be reached. The plant and its
+//! joints are invented for the test (demo data).
 
 use std::time::{Duration, Instant};
 
@@ -214,6 +218,20 @@ async fn a_release_is_retained_and_a_withdrawal_clears_it(db: &TestDb) {
     assert!(retain, "a late subscriber's message is the retained one");
     assert_eq!(String::from_utf8(payload).expect("UTF-8"), body);
 
+    // a catalogue change that moves the joint's values marks it for
+    // review: the answer says so, and is published again
+    review_mark(&app, &editor).await;
+    let fetched = app.get(&format!("/v1/joints/{ID}/setpoints")).await;
+    let marked = fetched.text().await.expect("body");
+    let answer: Value = serde_json::from_str(&marked).expect("JSON");
+    assert_eq!(answer["review_due"], true, "{answer}");
+    let (payload, _) = line
+        .next(&topic, |p| {
+            p.windows(17).any(|w| w == b"\"review_due\":true")
+        })
+        .await;
+    assert_eq!(String::from_utf8(payload).expect("UTF-8"), marked);
+
     // withdrawn: the retained message is cleared (an empty retained payload)
     let withdraw = format!("{releases}/1/withdraw");
     post(
@@ -227,6 +245,21 @@ async fn a_release_is_retained_and_a_withdrawal_clears_it(db: &TestDb) {
     assert!(payload.is_empty());
     let _ = line.client.disconnect().await;
     let _ = late.client.disconnect().await;
+}
+
+/// Raises the lower thread friction of the friction entry the joint uses
+/// (a new catalogue revision), which marks the joint for review.
+async fn review_mark(app: &Instance, editor: &str) {
+    let entries = app
+        .get_json("/v1/friction-entries?finish=zinc-electroplated&lubricant=none")
+        .await;
+    let id = entries["entries"][0]["id"].as_i64().expect("entry id");
+    let (entry, etag) = app.entry(id).await;
+    let min = entry["thread_friction"]["min"].as_f64().expect("min");
+    let r = app
+        .put_thread_min(editor, id, Some(&etag), min + 0.02)
+        .await;
+    assert_eq!(r.status(), StatusCode::OK);
 }
 
 async fn the_service_serves_while_the_broker_is_unreachable(db: &TestDb) {
