@@ -26,13 +26,13 @@ on_both_backends!(
     the_service_serves_while_the_broker_is_unreachable,
 );
 
-const ID: &str = "HW-K4-RA-041";
+pub const ID: &str = "HW-K4-RA-041";
 
 /// Longest wait for a message (a pass runs on the registry's change
 /// counter, at most 5 s after a change as the fallback).
-const WITHIN: Duration = Duration::from_secs(15);
+pub const WITHIN: Duration = Duration::from_secs(15);
 
-fn definition() -> Value {
+pub fn definition() -> Value {
     json!({
         "id": ID,
         "title": "Lower control arm to subframe, left (demo)",
@@ -51,7 +51,7 @@ fn broker() -> Broker {
 }
 
 /// A topic prefix no other run uses.
-fn unique_prefix() -> String {
+pub fn unique_prefix() -> String {
     format!("tightspec-test/{:016x}", rand::random::<u64>())
 }
 
@@ -68,8 +68,8 @@ enum Seen {
 }
 
 /// A test's own MQTT client, subscribed to `filter`.
-struct Subscriber {
-    client: AsyncClient,
+pub struct Subscriber {
+    pub client: AsyncClient,
     seen: mpsc::UnboundedReceiver<Seen>,
     task: tokio::task::JoinHandle<()>,
 }
@@ -97,7 +97,7 @@ fn unreachable(why: &str) -> ! {
 impl Subscriber {
     /// Connects and subscribes; fails the test when the broker does not
     /// answer within the bound.
-    async fn to(filter: &str) -> Subscriber {
+    pub async fn to(filter: &str) -> Subscriber {
         let (client, mut events) = client("sub");
         client
             .subscribe(filter, QoS::AtLeastOnce)
@@ -135,7 +135,7 @@ impl Subscriber {
 
     /// The next message on `topic` that `want` accepts (others are
     /// passed over), within [`WITHIN`].
-    async fn next(&mut self, topic: &str, want: impl Fn(&[u8]) -> bool) -> (Vec<u8>, bool) {
+    pub async fn next(&mut self, topic: &str, want: impl Fn(&[u8]) -> bool) -> (Vec<u8>, bool) {
         let start = Instant::now();
         loop {
             let left = WITHIN.saturating_sub(start.elapsed());
@@ -155,7 +155,7 @@ impl Subscriber {
 }
 
 /// Leaves a retained message on `topic` as an earlier run would have.
-async fn leave_retained(topic: &str, payload: &[u8]) {
+pub async fn leave_retained(topic: &str, payload: &[u8]) {
     let (client, mut events) = client("pub");
     client
         .publish(topic, QoS::AtLeastOnce, true, payload.to_vec())
@@ -174,7 +174,7 @@ async fn leave_retained(topic: &str, payload: &[u8]) {
     let _ = client.disconnect().await;
 }
 
-async fn post(app: &Instance, token: &str, path: &str, body: Value) {
+pub async fn post(app: &Instance, token: &str, path: &str, body: Value) {
     let r = app.post_json(Some(token), path, &body).await;
     let status = r.status();
     assert!(status.is_success(), "POST {path}: {status}");
