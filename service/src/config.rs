@@ -5,7 +5,11 @@
 //! uses no other module of the crate; the command line that carries them
 //! (`crate::cli::Cli`) is declared in `cli/args.rs`.
 
+pub mod mqtt;
+
 use clap::Args;
+
+pub use mqtt::{Broker, Mqtt};
 
 /// Default listen address.
 pub const DEFAULT_LISTEN: &str = "127.0.0.1:8080";
@@ -63,6 +67,8 @@ pub struct Config {
     pub limits: Limits,
     #[command(flatten)]
     pub webhooks: Webhooks,
+    #[command(flatten)]
+    pub mqtt: Mqtt,
 }
 
 /// Webhook delivery from the outbox. Any number of instances may deliver:
@@ -199,7 +205,7 @@ impl Limits {
 impl Config {
     /// Settings for tests and embedding: a free port on loopback, no
     /// database URL, anonymous reads, no webhook worker (tests that need
-    /// one turn it on, or drive delivery themselves).
+    /// one turn it on, or drive delivery themselves), no MQTT publishing.
     pub fn local() -> Self {
         Self {
             listen: "127.0.0.1:0".to_string(),
@@ -215,6 +221,7 @@ impl Config {
                 delivery: false,
                 ..Webhooks::default()
             },
+            mqtt: Mqtt::default(),
         }
     }
 }

@@ -134,6 +134,7 @@ pub struct Application {
     state: AppState,
     watcher: Option<tokio::task::JoinHandle<()>>,
     deliverer: Option<tokio::task::JoinHandle<()>>,
+    mqtt: Option<tokio::task::JoinHandle<()>>,
 }
 
 impl Application {
@@ -158,6 +159,11 @@ impl Application {
         } else {
             None
         };
+        let publisher = config
+            .mqtt
+            .broker
+            .as_ref()
+            .map(|b| context.mqtt_publisher(mqtt_settings(b, &config.mqtt.topic_prefix)));
         let watcher = context.watch();
         let state = AppState::new(
             settings,
@@ -171,6 +177,8 @@ impl Application {
                 app.watcher = Some(watcher);
                 // off the request path: its own task, its own HTTP client
                 app.deliverer = deliverer.map(crate::app::delivery::Deliverer::spawn);
+                // its own task too: a broker that is down never holds a request
+                app.mqtt = publisher.map(crate::app::mqtt::Publisher::spawn);
                 Ok(app)
             }
             Err(e) => {
@@ -231,6 +239,7 @@ impl Application {
             state,
             watcher: None,
             deliverer: None,
+            mqtt: None,
         })
     }
 
@@ -250,11 +259,15 @@ impl Application {
     }
 
     /// Serves until SIGTERM/SIGINT (actix handles both signals and stops
-    /// gracefully), then stops the catalogue watcher and the webhook
-    /// worker (an attempt cut short is claimed again after its lease).
+    /// gracefully), then stops the catalogue watcher, the webhook
+    /// worker (an attempt cut short is claimed again after its lease) and
+    /// the MQTT publisher.
     pub async fn run_until_stopped(self) -> std::io::Result<()> {
         let result = self.server.await;
-        for task in [self.watcher, self.deliverer].into_iter().flatten() {
+        for task in [self.watcher, self.deliverer, self.mqtt]
+            .into_iter()
+            .flatten()
+        {
             task.abort();
         }
         result
@@ -267,6 +280,16 @@ fn delivery_settings(w: &crate::config::Webhooks) -> crate::app::delivery::Deliv
         interval: Duration::from_millis(w.interval_ms.max(1)),
         timeout: Duration::from_secs(w.timeout_secs.max(1)),
         concurrency: usize::try_from(w.concurrency).unwrap_or(16).max(1),
+    }
+}
+
+/// The application's MQTT settings from the server's.
+fn mqtt_settings(b: &crate::config::Broker, prefix: &str) -> crate::app::mqtt::MqttSettings {
+    crate::app::mqtt::MqttSettings {
+        host: b.host.clone(),
+        port: b.port,
+        topic_prefix: prefix.to_string(),
+        every: Duration::from_secs(5),
     }
 }
 

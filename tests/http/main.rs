@@ -48,6 +48,8 @@ mod joints_bulk_cli;
 mod kill9;
 mod kill9_releases;
 mod limits;
+mod mqtt;
+mod mqtt_outage;
 mod outage_freeze;
 mod provenance;
 mod setpoint_checks;

@@ -33,6 +33,10 @@
 //!   deliveries, POSTs the signed CloudEvents JSON (Standard Webhooks
 //!   headers), records every attempt and retries on the back-off schedule;
 //!   its worker is started by `startup`.
+//! - `mqtt` — each joint's active setpoints as a retained MQTT message
+//!   (optional): the [`mqtt::Publisher`] reconciles the broker with the
+//!   active releases (publish what changed, clear what was withdrawn);
+//!   started by `startup` when a broker is configured.
 //! - `tokens` — API tokens: create, list, revoke, find by secret.
 
 pub mod catalogue;
@@ -44,6 +48,7 @@ pub mod friction_tests;
 pub mod impact;
 pub mod joints;
 pub mod joints_bulk;
+pub mod mqtt;
 pub mod quantity;
 pub mod reading;
 pub mod reference;

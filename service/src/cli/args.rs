@@ -121,6 +121,36 @@ mod tests {
     }
 
     #[test]
+    fn mqtt_settings_are_off_by_default_and_checked_at_start() {
+        let cli = Cli::try_parse_from(["tightspec", "serve"]).expect("parses");
+        let Command::Serve(c) = cli.command else {
+            panic!("expected serve");
+        };
+        assert_eq!(c.mqtt.broker, None);
+        assert_eq!(c.mqtt.topic_prefix, "tightspec");
+        let on = [
+            "tightspec",
+            "serve",
+            "--mqtt-broker",
+            "mqtt://127.0.0.1:1883",
+        ];
+        let Command::Serve(c) = Cli::try_parse_from(on).expect("parses").command else {
+            panic!("expected serve");
+        };
+        assert_eq!(c.mqtt.broker.map(|b| b.port), Some(1883));
+        for (flag, bad) in [
+            ("--mqtt-broker", "http://127.0.0.1:1883"),
+            ("--mqtt-topic-prefix", "plant/+/line"),
+            ("--mqtt-topic-prefix", "plant//line"),
+        ] {
+            let e = Cli::try_parse_from(["tightspec", "serve", flag, bad])
+                .expect_err(bad)
+                .to_string();
+            assert!(e.contains(flag), "{e}");
+        }
+    }
+
+    #[test]
     fn clap_definition_is_consistent() {
         use clap::CommandFactory;
         Cli::command().debug_assert();

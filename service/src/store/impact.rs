@@ -1,7 +1,9 @@
 //! What the change impact and the review marks read and write: the active
 //! releases of a range of joints (one query per page of joints), and the
 //! confirmation of a joint's review, which clears its mark and records the
-//! confirmation in the joint's history in one transaction.
+//! confirmation in the joint's history in one transaction. Also what the
+//! MQTT publisher compares: a page of joints with what their active
+//! release's fetched answer is made of, without the answers' bytes.
 
 use chrono::{DateTime, Utc};
 
@@ -19,7 +21,42 @@ const ACTIVE_IN_RANGE: &str = concat!(
      ORDER BY x.joint_id, x.number DESC"
 );
 
+/// Joints after `$1` in id order (at most `$2`), each with its active
+/// release's number and hash (none: `NULL`) and its review mark.
+const ACTIVE_KEYS: &str = "SELECT j.id AS joint_id, j.review_due_revision, r.number, \
+     r.spec_hash FROM joints j LEFT JOIN joint_releases r ON r.joint_id = j.id AND \
+     (SELECT e.status FROM joint_release_events e WHERE e.joint_id = r.joint_id \
+      AND e.number = r.number ORDER BY e.seq DESC LIMIT 1) = 'released' \
+     WHERE j.id > $1 ORDER BY j.id, r.number DESC LIMIT $2";
+
+/// A joint, its active release's number and hash (both `None` without
+/// one) and its review mark's revision: what the ETag of its fetched
+/// answer is made of.
+#[derive(Debug, Clone, PartialEq, sqlx::FromRow)]
+pub struct ActiveKey {
+    pub joint_id: String,
+    pub review_due_revision: Option<i64>,
+    pub number: Option<i64>,
+    pub spec_hash: Option<String>,
+}
+
 impl Store {
+    /// A page of joints after `after` in id order (at most `limit` rows;
+    /// one per joint), each with what its active release's answer is
+    /// made of.
+    #[tracing::instrument(skip(self), level = "debug")]
+    pub async fn active_keys_after(
+        &self,
+        after: Option<&JointId>,
+        limit: u32,
+    ) -> Result<Vec<ActiveKey>, StoreError> {
+        Ok(dispatch!(Store, self, |pool| sqlx::query_as(ACTIVE_KEYS)
+            .bind(after.map(JointId::as_str).unwrap_or(""))
+            .bind(i64::from(limit))
+            .fetch_all(pool)
+            .await?))
+    }
+
     /// The active release of every joint whose id lies in `(after, upto]`
     /// (`after` `None`: from the first id), ordered by joint id.
     #[tracing::instrument(skip(self), level = "debug")]

@@ -49,6 +49,7 @@ use crate::catalogue::{
 pub use backend::DEFAULT_SQLITE_PATH;
 use backend::{PG_MIGRATOR, SQLITE_MIGRATOR};
 pub use error::{RegistryStoreError, StoreError, RETRY_AFTER_SECS};
+pub use impact::ActiveKey;
 pub use tokens::{Role, TokenInfo};
 
 /// Author recorded for revision 1.

@@ -192,17 +192,30 @@ impl ReleasedAnswer {
     /// so a status change or a review mark is never hidden by a 304.
     pub fn etag(&self, which: FrozenAnswer) -> String {
         let r = &self.release;
-        let hash: String = r.spec_hash.chars().take(32).collect();
-        let review = self
-            .review_due
-            .as_ref()
-            .map(|d| format!("-review{}", d.revision))
-            .unwrap_or_default();
-        format!(
-            "\"{hash}-{}-r{}-{}{review}\"",
-            which.key(),
+        answer_etag(
+            &r.spec_hash,
+            which,
             r.number,
-            r.status.as_str()
+            r.status.as_str(),
+            self.review_due.as_ref().map(|d| d.revision),
         )
     }
+}
+
+/// The ETag of a release's answer from what it is made of (the release
+/// hash, which answer, the number, the status, the review mark's revision);
+/// [`ReleasedAnswer::etag`], and what the MQTT publisher compares without
+/// reading the answer's bytes.
+pub fn answer_etag(
+    spec_hash: &str,
+    which: FrozenAnswer,
+    number: i64,
+    status: &str,
+    review_revision: Option<i64>,
+) -> String {
+    let hash: String = spec_hash.chars().take(32).collect();
+    let review = review_revision
+        .map(|r| format!("-review{r}"))
+        .unwrap_or_default();
+    format!("\"{hash}-{}-r{number}-{status}{review}\"", which.key())
 }
