@@ -212,8 +212,7 @@ impl Publisher {
                 .await
             {
                 Ok(answer) if answer.body.len() + 512 < PACKET_MAX => {
-                    self.send(client, id, answer.body.as_bytes().to_vec())
-                        .await?;
+                    self.send(client, id, answer.body.to_vec()).await?;
                     published.published(id, answer.etag.clone());
                     report.published += 1;
                 }
