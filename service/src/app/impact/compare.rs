@@ -1,7 +1,7 @@
 //! One joint's active release compared with the joint computed against a
 //! catalogue: the figures and check codes before and after.
 
-use super::figures::{change_percent, read, ImpactFigures};
+use super::figures::{change_percent, read, read_stored, ImpactFigures};
 use super::AppError;
 use super::JointImpact;
 use crate::app::joints::joint_spec_request;
@@ -68,8 +68,7 @@ pub(super) fn compare_with(
     release: &Release,
     after: Result<(ImpactFigures, Vec<String>), String>,
 ) -> JointImpact {
-    let parse = |t: &str| serde_json::from_str::<Value>(t).unwrap_or(Value::Null);
-    let before = read(&parse(&release.setpoints), &parse(&release.spec));
+    let before = read_stored(&release.setpoints, &release.spec);
     let (before_codes, before) = match before {
         Some((f, c)) => (c, Some(f)),
         None => (Vec::new(), None),

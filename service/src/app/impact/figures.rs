@@ -4,7 +4,7 @@
 //! from a stored release's answers and from answers computed now, so that
 //! "before" and "after" compare like with like.
 
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 use serde_json::Value;
 use utoipa::ToSchema;
 
@@ -60,6 +60,53 @@ pub fn read(setpoints: &Value, spec: &Value) -> Option<(ImpactFigures, Vec<Strin
         })
         .unwrap_or_default();
     Some((figures, codes))
+}
+
+/// The parts of a stored setpoint answer the figures are read from;
+/// every other field is skipped without being built.
+#[derive(Deserialize)]
+struct StoredSetpoints {
+    lower: Quantity,
+    target: Quantity,
+    upper: Quantity,
+    #[serde(default)]
+    angle: Option<StoredWindow>,
+    #[serde(default)]
+    checks: Vec<StoredCheck>,
+}
+
+#[derive(Deserialize)]
+struct StoredWindow {
+    min: Option<Quantity>,
+    max: Option<Quantity>,
+}
+
+#[derive(Deserialize)]
+struct StoredCheck {
+    code: String,
+}
+
+#[derive(Deserialize)]
+struct StoredSpec {
+    preload: StoredWindow,
+}
+
+/// [`read`] on a release's stored answers (JSON text), reading only the
+/// fields the figures need: the change impact reads one release per joint.
+pub fn read_stored(setpoints: &str, spec: &str) -> Option<(ImpactFigures, Vec<String>)> {
+    let s: StoredSetpoints = serde_json::from_str(setpoints).ok()?;
+    let p: StoredSpec = serde_json::from_str(spec).ok()?;
+    let (angle_min, angle_max) = s.angle.map(|a| (a.min, a.max)).unwrap_or_default();
+    let figures = ImpactFigures {
+        lower: s.lower,
+        target: s.target,
+        upper: s.upper,
+        preload_min: p.preload.min?,
+        preload_max: p.preload.max?,
+        angle_min,
+        angle_max,
+    };
+    Some((figures, s.checks.into_iter().map(|c| c.code).collect()))
 }
 
 fn pairs<'a>(a: &'a ImpactFigures, b: &'a ImpactFigures) -> Vec<(&'a Quantity, &'a Quantity)> {
@@ -132,5 +179,20 @@ mod tests {
         other.target.unit = "lbf·ft".into();
         assert_eq!(change_percent(&before, &other), None);
         assert!(read(&json!({}), &p).is_none());
+    }
+
+    #[test]
+    fn stored_answers_read_as_the_json_does() {
+        let (s, p) = answers(40.0);
+        let mut angled = s.clone();
+        angled["angle"] = json!({"min": {"value": 60.0, "unit": "degrees"},
+                                 "max": {"value": 90.0, "unit": "degrees"}, "step": 1});
+        for s in [s, angled] {
+            let stored = read_stored(&s.to_string(), &p.to_string());
+            assert_eq!(stored, read(&s, &p));
+            assert!(stored.is_some());
+        }
+        assert!(read_stored("{}", &p.to_string()).is_none());
+        assert!(read_stored("not json", &p.to_string()).is_none());
     }
 }
