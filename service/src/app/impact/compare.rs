@@ -1,7 +1,7 @@
 //! One joint's active release compared with the joint computed against a
 //! catalogue: the figures and check codes before and after.
 
-use super::figures::{change_percent, read, read_stored, ImpactFigures};
+use super::figures::{change_percent, read_stored, ImpactFigures};
 use super::AppError;
 use super::JointImpact;
 use crate::app::joints::joint_spec_request;
@@ -12,11 +12,13 @@ use crate::app::spec::{compute_one, SpecRequest};
 use crate::catalogue::Snapshot;
 use crate::engine::checks::CODES;
 use crate::registry::{Joint, Release};
-use serde_json::Value;
 
 /// The setpoint answer (every check accepted) and the spec answer of joint
 /// `joint` computed against `snap`, or why it does not compute.
-pub(super) fn answers(joint: &Joint, snap: &Snapshot) -> Result<(SetpointResponse, Value), String> {
+pub(super) fn answers(
+    joint: &Joint,
+    snap: &Snapshot,
+) -> Result<(SetpointResponse, String), String> {
     let mut req: SpecRequest =
         joint_spec_request(&joint.request, &joint.tags).map_err(|e| e.to_string())?;
     req.catalogue_revision = None;
@@ -36,18 +38,19 @@ pub(super) fn answers(joint: &Joint, snap: &Snapshot) -> Result<(SetpointRespons
         accept: CODES.to_vec(),
     };
     let answer = setpoints(&spec, &resolved, &tool, false).map_err(describe)?;
-    let p =
-        serde_json::to_value(spec_response(&spec, &resolved, false)).map_err(|e| e.to_string())?;
+    let p = serde_json::to_string(&spec_response(&spec, &resolved, false))
+        .map_err(|e| e.to_string())?;
     Ok((answer, p))
 }
 
-/// The figures of a setpoint and spec answer computed now.
+/// The figures of a setpoint and spec answer computed now, read from their
+/// JSON exactly as a release's stored answers are (like with like).
 pub(super) fn figures_of(
     answer: &SetpointResponse,
-    spec: &Value,
+    spec: &str,
 ) -> Result<(ImpactFigures, Vec<String>), String> {
-    let s = serde_json::to_value(answer).map_err(|e| e.to_string())?;
-    read(&s, spec).ok_or_else(|| "the computed answer lacks a figure".into())
+    let s = serde_json::to_string(answer).map_err(|e| e.to_string())?;
+    read_stored(&s, spec).ok_or_else(|| "the computed answer lacks a figure".into())
 }
 
 /// The figures and check codes of joint `joint` computed against `snap`

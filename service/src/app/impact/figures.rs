@@ -5,7 +5,6 @@
 //! "before" and "after" compare like with like.
 
 use serde::{Deserialize, Serialize};
-use serde_json::Value;
 use utoipa::ToSchema;
 
 use crate::app::quantity::Quantity;
@@ -28,38 +27,6 @@ pub struct ImpactFigures {
     pub angle_min: Option<Quantity>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub angle_max: Option<Quantity>,
-}
-
-fn quantity(v: &Value, path: &[&str]) -> Option<Quantity> {
-    let mut at = v;
-    for p in path {
-        at = at.get(p)?;
-    }
-    serde_json::from_value(at.clone()).ok()
-}
-
-/// The figures and check codes of a setpoint answer and a spec answer
-/// (as JSON); `None` when either lacks a figure.
-pub fn read(setpoints: &Value, spec: &Value) -> Option<(ImpactFigures, Vec<String>)> {
-    let figures = ImpactFigures {
-        lower: quantity(setpoints, &["lower"])?,
-        target: quantity(setpoints, &["target"])?,
-        upper: quantity(setpoints, &["upper"])?,
-        preload_min: quantity(spec, &["preload", "min"])?,
-        preload_max: quantity(spec, &["preload", "max"])?,
-        angle_min: quantity(setpoints, &["angle", "min"]),
-        angle_max: quantity(setpoints, &["angle", "max"]),
-    };
-    let codes = setpoints
-        .get("checks")
-        .and_then(Value::as_array)
-        .map(|cs| {
-            cs.iter()
-                .filter_map(|c| c.get("code").and_then(Value::as_str).map(str::to_owned))
-                .collect()
-        })
-        .unwrap_or_default();
-    Some((figures, codes))
 }
 
 /// The parts of a stored setpoint answer the figures are read from;
@@ -91,8 +58,9 @@ struct StoredSpec {
     preload: StoredWindow,
 }
 
-/// [`read`] on a release's stored answers (JSON text), reading only the
-/// fields the figures need: the change impact reads one release per joint.
+/// The figures and check codes of a setpoint answer and a spec answer
+/// (JSON text, as stored with a release or as just written), reading only
+/// the fields the figures need; `None` when either lacks a figure.
 pub fn read_stored(setpoints: &str, spec: &str) -> Option<(ImpactFigures, Vec<String>)> {
     let s: StoredSetpoints = serde_json::from_str(setpoints).ok()?;
     let p: StoredSpec = serde_json::from_str(spec).ok()?;
@@ -154,16 +122,21 @@ pub fn change_percent(before: &ImpactFigures, after: &ImpactFigures) -> Option<f
 #[cfg(test)]
 mod tests {
     use super::*;
-    use serde_json::json;
+    use serde_json::{json, Value};
 
     fn answers(target: f64) -> (Value, Value) {
         let q = |v: f64, u: &str| json!({"value": v, "unit": u});
         (
             json!({"lower": q(target * 0.9, "N·m"), "target": q(target, "N·m"),
-                   "upper": q(target * 1.1, "N·m"),
+                   "upper": q(target * 1.1, "N·m"), "note": "skipped",
                    "checks": [{"code": "a", "severity": "warning", "message": "m"}]}),
-            json!({"preload": {"min": q(10.0, "kN"), "max": q(20.0, "kN")}}),
+            json!({"preload": {"min": q(10.0, "kN"), "max": q(20.0, "kN"),
+                               "permissible": q(25.0, "kN")}}),
         )
+    }
+
+    fn read(s: &Value, p: &Value) -> Option<(ImpactFigures, Vec<String>)> {
+        read_stored(&s.to_string(), &p.to_string())
     }
 
     #[test]
@@ -171,6 +144,9 @@ mod tests {
         let (s, p) = answers(40.0);
         let (before, codes) = read(&s, &p).unwrap();
         assert_eq!(codes, ["a"]);
+        assert_eq!(before.target.value, 40.0);
+        assert_eq!(before.preload_max.value, 20.0);
+        assert_eq!(before.angle_min, None);
         assert_eq!(change_percent(&before, &before), Some(0.0));
         let (s2, p2) = answers(44.0);
         let (after, _) = read(&s2, &p2).unwrap();
@@ -178,21 +154,29 @@ mod tests {
         let mut other = after.clone();
         other.target.unit = "lbf·ft".into();
         assert_eq!(change_percent(&before, &other), None);
-        assert!(read(&json!({}), &p).is_none());
     }
 
     #[test]
-    fn stored_answers_read_as_the_json_does() {
+    fn the_angle_window_is_read_when_there_is_one() {
+        let (mut s, p) = answers(40.0);
+        s["angle"] = json!({"min": {"value": 60.0, "unit": "degrees"},
+                            "max": {"value": 90.0, "unit": "degrees"}, "resolution": 1.0});
+        let (f, _) = read(&s, &p).unwrap();
+        assert_eq!(f.angle_min.map(|q| q.value), Some(60.0));
+        assert_eq!(f.angle_max.map(|q| q.value), Some(90.0));
+        s["angle"] = Value::Null;
+        assert_eq!(read(&s, &p).unwrap().0.angle_min, None);
+    }
+
+    #[test]
+    fn an_answer_lacking_a_figure_reads_as_none() {
         let (s, p) = answers(40.0);
-        let mut angled = s.clone();
-        angled["angle"] = json!({"min": {"value": 60.0, "unit": "degrees"},
-                                 "max": {"value": 90.0, "unit": "degrees"}, "step": 1});
-        for s in [s, angled] {
-            let stored = read_stored(&s.to_string(), &p.to_string());
-            assert_eq!(stored, read(&s, &p));
-            assert!(stored.is_some());
-        }
-        assert!(read_stored("{}", &p.to_string()).is_none());
+        assert!(read(&json!({}), &p).is_none());
+        assert!(read(
+            &s,
+            &json!({"preload": {"min": {"value": 1.0, "unit": "kN"}}})
+        )
+        .is_none());
         assert!(read_stored("not json", &p.to_string()).is_none());
     }
 }
