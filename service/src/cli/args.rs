@@ -139,7 +139,7 @@ mod tests {
         };
         assert_eq!(c.mqtt.broker.map(|b| b.port), Some(1883));
         for (flag, bad) in [
-            ("--mqtt-broker", "http://127.0.0.1:1883"),
+            ("--mqtt-broker", "ws://127.0.0.1:1883"),
             ("--mqtt-topic-prefix", "plant/+/line"),
             ("--mqtt-topic-prefix", "plant//line"),
         ] {
