@@ -289,7 +289,6 @@ fn mqtt_settings(b: &crate::config::Broker, prefix: &str) -> crate::app::mqtt::M
         host: b.host.clone(),
         port: b.port,
         topic_prefix: prefix.to_string(),
-        every: Duration::from_secs(5),
     }
 }
 

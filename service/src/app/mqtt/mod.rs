@@ -7,7 +7,7 @@
 //!
 //! Reconciled by state, not by event: on connecting, whenever the
 //! registry's change stamp moves (this instance's writes, the database's
-//! change counter the watcher reads) and every `every` as a fallback, a
+//! change counter the watcher reads) and every [`PASS_EVERY`] as a fallback, a
 //! pass reads the active answers' ETags ([`scan`]), decides what to
 //! publish and clear ([`plan`]), and sends only that. Publishing the same
 //! retained value twice is harmless, so several replicas may all publish.
@@ -40,15 +40,22 @@ pub struct MqttSettings {
     pub port: u16,
     /// First topic levels (checked at start: no wildcard, no empty level).
     pub topic_prefix: String,
-    /// The fallback period of a pass when nothing moved.
-    pub every: Duration,
 }
+
+/// The fallback period of a pass when nothing moved.
+pub const PASS_EVERY: Duration = Duration::from_secs(5);
 
 /// Joints with an active release published per pass at most.
 pub const JOINTS_MAX: usize = 20_000;
 
 /// Largest MQTT packet sent or received (a setpoint answer is a few KB).
 const PACKET_MAX: usize = 1024 * 1024;
+
+/// Room in a packet beside the payload: the fixed header (at most 5
+/// bytes), the topic's length (2) and the topic — a prefix of at most 200
+/// bytes, `/joints/`, a joint id of at most 64, `/setpoints` — and the
+/// packet id (2): under 300 bytes, rounded up.
+const HEADER_ROOM: usize = 512;
 
 /// How often the publisher looks whether a pass is due.
 const WAKE: Duration = Duration::from_millis(200);
@@ -128,7 +135,7 @@ impl Publisher {
     }
 
     /// The passes: one when connected and the registry moved, after a
-    /// (re)connection, or every `every`.
+    /// (re)connection, or every [`PASS_EVERY`].
     async fn run(
         self,
         client: AsyncClient,
@@ -163,7 +170,7 @@ impl Publisher {
             let due = retained
                 .iter()
                 .any(|id| published.get(id) == Some(&plan::Held::Unknown))
-                || last.is_none_or(|(s, at)| s != stamp || at.elapsed() >= self.settings.every);
+                || last.is_none_or(|(s, at)| s != stamp || at.elapsed() >= PASS_EVERY);
             if !due {
                 continue;
             }
@@ -211,7 +218,7 @@ impl Publisher {
                 .released_answer(id, None, FrozenAnswer::Setpoints)
                 .await
             {
-                Ok(answer) if answer.body.len() + 512 < PACKET_MAX => {
+                Ok(answer) if answer.body.len() + HEADER_ROOM < PACKET_MAX => {
                     self.send(client, id, answer.body.to_vec()).await?;
                     published.published(id, answer.etag.clone());
                     report.published += 1;
