@@ -6,12 +6,13 @@
 //! configuration (`--anonymous-reads`).
 
 use std::collections::HashMap;
-use std::future::Future;
+use std::future::{ready, Future, Ready};
 use std::pin::Pin;
 use std::sync::Mutex;
 
 use actix_web::{dev::Payload, http::header, web, FromRequest, HttpRequest};
 use chrono::Utc;
+use futures_util::future::Either;
 
 use super::error::ApiError;
 use super::state::AppState;
@@ -66,6 +67,21 @@ impl Authenticator {
         self.anonymous_reads
     }
 
+    /// The caller for a request needing `needed` that carries no
+    /// `Authorization` header: an anonymous reader when reads are open,
+    /// else 401. Answered without waiting for anything.
+    fn without_token(&self, needed: Role) -> Result<Caller, ApiError> {
+        if needed == Role::Reader && self.anonymous_reads {
+            return Ok(Caller::anonymous());
+        }
+        Err(ApiError::Unauthorized {
+            detail: format!(
+                "a bearer token is required (Authorization: Bearer <token>) with role {} or above",
+                needed.as_str()
+            ),
+        })
+    }
+
     /// The caller for a request needing `needed`, from its `Authorization`
     /// header value (if any).
     pub async fn check(
@@ -74,15 +90,7 @@ impl Authenticator {
         needed: Role,
     ) -> Result<Caller, ApiError> {
         let Some(value) = authorization else {
-            if needed == Role::Reader && self.anonymous_reads {
-                return Ok(Caller::anonymous());
-            }
-            return Err(ApiError::Unauthorized {
-                detail: format!(
-                    "a bearer token is required (Authorization: Bearer <token>) with role {} or above",
-                    needed.as_str()
-                ),
-            });
+            return self.without_token(needed);
         };
         let secret = bearer(value)?;
         let token = self.lookup(secret, needed).await?;
@@ -156,28 +164,30 @@ fn bearer(value: &str) -> Result<&str, ApiError> {
     Ok(secret)
 }
 
-fn extract(
-    req: &HttpRequest,
-    needed: Role,
-) -> Pin<Box<dyn Future<Output = Result<Caller, ApiError>>>> {
-    let auth = req
-        .app_data::<web::Data<AppState>>()
-        .map(|s| std::sync::Arc::clone(&s.auth));
-    let header = match req.headers().get(header::AUTHORIZATION).map(|v| v.to_str()) {
-        None => Ok(None),
-        Some(Ok(s)) => Ok(Some(s.to_string())),
-        Some(Err(_)) => Err(ApiError::Unauthorized {
-            detail: "the Authorization header is not readable text".into(),
-        }),
+/// The extractors' future: ready at once for a request without a token
+/// (most reads), boxed once when a token must be looked up.
+pub type Checked<T> =
+    Either<Ready<Result<T, ApiError>>, Pin<Box<dyn Future<Output = Result<T, ApiError>>>>>;
+
+fn extract<T: 'static>(req: &HttpRequest, needed: Role, wrap: fn(Caller) -> T) -> Checked<T> {
+    let Some(state) = req.app_data::<web::Data<AppState>>() else {
+        return Either::Left(ready(Err(ApiError::Internal(
+            "no AppState registered as app data".into(),
+        ))));
     };
-    Box::pin(async move {
-        let Some(auth) = auth else {
-            return Err(ApiError::Internal(
-                "no AppState registered as app data".into(),
-            ));
-        };
-        auth.check(header?.as_deref(), needed).await
-    })
+    let header = match req.headers().get(header::AUTHORIZATION).map(|v| v.to_str()) {
+        None => return Either::Left(ready(state.auth.without_token(needed).map(wrap))),
+        Some(Ok(s)) => s.to_string(),
+        Some(Err(_)) => {
+            return Either::Left(ready(Err(ApiError::Unauthorized {
+                detail: "the Authorization header is not readable text".into(),
+            })))
+        }
+    };
+    let auth = std::sync::Arc::clone(&state.auth);
+    Either::Right(Box::pin(async move {
+        auth.check(Some(&header), needed).await.map(wrap)
+    }))
 }
 
 macro_rules! role_extractor {
@@ -188,11 +198,10 @@ macro_rules! role_extractor {
 
         impl FromRequest for $name {
             type Error = ApiError;
-            type Future = Pin<Box<dyn Future<Output = Result<Self, ApiError>>>>;
+            type Future = Checked<Self>;
 
             fn from_request(req: &HttpRequest, _: &mut Payload) -> Self::Future {
-                let fut = extract(req, $role);
-                Box::pin(async move { fut.await.map($name) })
+                extract(req, $role, $name)
             }
         }
     };
