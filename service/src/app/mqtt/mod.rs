@@ -208,9 +208,7 @@ impl Publisher {
             ..PassReport::default()
         };
         for id in &todo.clear {
-            self.send(client, id, Vec::new()).await?;
-            published.cleared(id);
-            report.cleared += 1;
+            self.clear(client, id, published, &mut report).await?;
         }
         for id in &todo.publish {
             match self
@@ -225,20 +223,30 @@ impl Publisher {
                 }
                 Ok(answer) => {
                     tracing::warn!(joint = %id, bytes = answer.body.len(), "setpoint answer too large for an MQTT message; cleared instead");
-                    self.send(client, id, Vec::new()).await?;
-                    published.cleared(id);
-                    report.cleared += 1;
+                    self.clear(client, id, published, &mut report).await?;
                 }
                 // withdrawn (409) or gone (404) since the ETags were read
                 Err(AppError::Conflict { .. } | AppError::Fields(_)) => {
-                    self.send(client, id, Vec::new()).await?;
-                    published.cleared(id);
-                    report.cleared += 1;
+                    self.clear(client, id, published, &mut report).await?;
                 }
                 Err(e) => return Err(e),
             }
         }
         Ok(report)
+    }
+
+    /// Clears joint `id`'s retained message (an empty one) and notes it.
+    async fn clear(
+        &self,
+        client: &AsyncClient,
+        id: &str,
+        published: &mut Published,
+        report: &mut PassReport,
+    ) -> Result<(), AppError> {
+        self.send(client, id, Vec::new()).await?;
+        published.cleared(id);
+        report.cleared += 1;
+        Ok(())
     }
 
     /// Queues one retained QoS 1 message (empty: a clear).
