@@ -11,7 +11,7 @@ use reqwest::StatusCode;
 use serde_json::{json, Value};
 use tightspec::store::{Role, Store};
 
-use crate::catalogue_support::{problem_fields, start, start_with, token, Instance};
+use crate::catalogue_support::{demo_joint, problem_fields, start, start_with, token, Instance};
 use crate::on_both_backends;
 use crate::support::db::TestDb;
 
@@ -27,13 +27,12 @@ const B: &str = "HW-K5-DR-102";
 const C: &str = "HW-K5-GB-103";
 
 fn definition(id: &str, request: Value) -> Value {
-    json!({
-        "id": id,
-        "title": "Door hinge to A-pillar (demo)",
-        "tags": ["hollowmere-demo", "station-50"],
-        "request": request,
-        "setpoints": {"torque_unit": "N·m", "resolution": 0.1, "angle_resolution": 1.0},
-    })
+    demo_joint(
+        id,
+        "Door hinge to A-pillar (demo)",
+        &["hollowmere-demo", "station-50"],
+        request,
+    )
 }
 
 fn plain() -> Value {

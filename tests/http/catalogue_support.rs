@@ -3,7 +3,7 @@
 //! shortcuts.
 
 use reqwest::{Client, Response, StatusCode};
-use serde_json::Value;
+use serde_json::{json, Value};
 use tightspec::store::{Role, Store};
 
 use crate::support::db::TestDb;
@@ -156,4 +156,16 @@ macro_rules! on_both_backends {
             }
         }
     )*};
+}
+
+/// A joint definition of the invented demo plant: `id`, `title`, `tags`,
+/// the spec request, and setpoints in N·m to 0.1 with angles to 1°.
+pub fn demo_joint(id: &str, title: &str, tags: &[&str], request: Value) -> Value {
+    json!({
+        "id": id,
+        "title": title,
+        "tags": tags,
+        "request": request,
+        "setpoints": {"torque_unit": "N·m", "resolution": 0.1, "angle_resolution": 1.0},
+    })
 }

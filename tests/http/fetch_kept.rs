@@ -12,7 +12,7 @@ use reqwest::StatusCode;
 use serde_json::{json, Value};
 use tightspec::store::{Role, Store};
 
-use crate::catalogue_support::{start, token, Instance};
+use crate::catalogue_support::{demo_joint, start, token, Instance};
 use crate::on_both_backends;
 use crate::support::db::TestDb;
 
@@ -24,14 +24,12 @@ on_both_backends!(
 const ID: &str = "HW-K4-RA-031";
 
 fn definition() -> Value {
-    json!({
-        "id": ID,
-        "title": "Steering knuckle to strut, right (demo)",
-        "tags": ["hollowmere-demo"],
-        "request": {"thread": "M10", "property_class": "8.8",
-                    "finish": "zinc-electroplated", "lubricant": "none"},
-        "setpoints": {"torque_unit": "N·m", "resolution": 0.1},
-    })
+    demo_joint(
+        ID,
+        "Steering knuckle to strut, right (demo)",
+        &["hollowmere-demo"],
+        json!({"thread": "M10", "property_class": "8.8", "finish": "zinc-electroplated", "lubricant": "none"}),
+    )
 }
 
 async fn status(app: &Instance, token: Option<&str>, path: &str, body: Value) -> StatusCode {

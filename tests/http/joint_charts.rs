@@ -10,7 +10,7 @@ use reqwest::StatusCode;
 use serde_json::{json, Value};
 use tightspec::store::Role;
 
-use crate::catalogue_support::{problem_fields, start, token};
+use crate::catalogue_support::{demo_joint, problem_fields, start, token};
 use crate::charts::{attr, chart, mark, near, value, well_formed};
 use crate::on_both_backends;
 use crate::support::db::TestDb;
@@ -118,13 +118,12 @@ async fn joint_diagram_draws_the_json_joint_block(db: &TestDb) {
 const ID: &str = "HW-S40-BR-003";
 
 fn definition(request: Value) -> Value {
-    json!({
-        "id": ID,
-        "title": "Brake caliper bracket, left (demo)",
-        "tags": ["hollowmere-demo"],
-        "request": request,
-        "setpoints": {"torque_unit": "N·m", "resolution": 0.1, "angle_resolution": 1.0},
-    })
+    demo_joint(
+        ID,
+        "Brake caliper bracket, left (demo)",
+        &["hollowmere-demo"],
+        request,
+    )
 }
 
 async fn release_chart_draws_the_stored_release(db: &TestDb) {

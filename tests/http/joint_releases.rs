@@ -10,7 +10,7 @@ use reqwest::{Response, StatusCode};
 use serde_json::{json, Value};
 use tightspec::store::{Role, Store};
 
-use crate::catalogue_support::{problem_fields, start, start_with, token, Instance};
+use crate::catalogue_support::{demo_joint, problem_fields, start, start_with, token, Instance};
 use crate::on_both_backends;
 use crate::support::db::TestDb;
 
@@ -23,13 +23,12 @@ on_both_backends!(
 const ID: &str = "HW-K4-RA-017";
 
 fn definition(id: &str, request: Value) -> Value {
-    json!({
-        "id": id,
-        "title": "Rear axle carrier to subframe, left (demo)",
-        "tags": ["hollowmere-demo", "station-40"],
-        "request": request,
-        "setpoints": {"torque_unit": "N·m", "resolution": 0.1, "angle_resolution": 1.0},
-    })
+    demo_joint(
+        id,
+        "Rear axle carrier to subframe, left (demo)",
+        &["hollowmere-demo", "station-40"],
+        request,
+    )
 }
 
 /// M10 8.8 with the catalogue's friction for zinc-electroplated, dry.

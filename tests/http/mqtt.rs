@@ -17,7 +17,7 @@ use tightspec::config::Broker;
 use tightspec::store::Role;
 use tokio::sync::mpsc;
 
-use crate::catalogue_support::{start_with, token, Instance};
+use crate::catalogue_support::{demo_joint, start_with, token, Instance};
 use crate::on_both_backends;
 use crate::support::db::TestDb;
 
@@ -33,14 +33,12 @@ pub const ID: &str = "HW-K4-RA-041";
 pub const WITHIN: Duration = Duration::from_secs(15);
 
 pub fn definition() -> Value {
-    json!({
-        "id": ID,
-        "title": "Lower control arm to subframe, left (demo)",
-        "tags": ["hollowmere-demo"],
-        "request": {"thread": "M10", "property_class": "8.8",
-                    "finish": "zinc-electroplated", "lubricant": "none"},
-        "setpoints": {"torque_unit": "N·m", "resolution": 0.1},
-    })
+    demo_joint(
+        ID,
+        "Lower control arm to subframe, left (demo)",
+        &["hollowmere-demo"],
+        json!({"thread": "M10", "property_class": "8.8", "finish": "zinc-electroplated", "lubricant": "none"}),
+    )
 }
 
 fn broker() -> Broker {

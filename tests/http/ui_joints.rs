@@ -11,7 +11,7 @@ use reqwest::{Response, StatusCode};
 use serde_json::{json, Value};
 use tightspec::store::Role;
 
-use crate::catalogue_support::{start, start_with, token, Instance};
+use crate::catalogue_support::{demo_joint, start, start_with, token, Instance};
 use crate::on_both_backends;
 use crate::support::db::TestDb;
 use crate::support::loopback_base;
@@ -23,13 +23,12 @@ on_both_backends!(
 );
 
 fn definition(id: &str, request: Value) -> Value {
-    json!({
-        "id": id,
-        "title": "Cross member to side rail (demo)",
-        "tags": ["hollowmere-demo", "station-12"],
-        "request": request,
-        "setpoints": {"torque_unit": "N·m", "resolution": 0.1, "angle_resolution": 1.0},
-    })
+    demo_joint(
+        id,
+        "Cross member to side rail (demo)",
+        &["hollowmere-demo", "station-12"],
+        request,
+    )
 }
 
 async fn create(app: &Instance, editor: &str, id: &str, request: Value) {
